@@ -1,0 +1,96 @@
+import express, { type RequestHandler } from 'express';
+import session from 'express-session';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import pino from 'pino';
+import path from 'node:path';
+import fs from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import type { Deps } from './deps';
+import { Api } from './http/api';
+import { sameOriginOnly } from './http/csrf';
+import { apiNotFound, errorHandler } from './http/error-handler';
+import { SqliteSessionStore } from './http/session-store';
+import { loadSessionUser } from './modules/auth/auth-service';
+import { registerAuthRoutes } from './modules/auth/auth-routes';
+import { registerUserRoutes } from './modules/users/users-routes';
+import { registerOutboxRoutes } from './modules/outbox/outbox-routes';
+import { registerAuditRoutes } from './modules/audit/audit-routes';
+import { registerHealthRoutes } from './modules/health/health-routes';
+
+export const SESSION_TTL_MS = 8 * 3600_000;
+
+export type AppOptions = {
+  /** Serves the built client from dist/ (production); tests and dev mode leave it off. */
+  serveClient?: boolean;
+  /** Dev mode: Vite's middleware serves the client with hot reload. */
+  clientMiddleware?: RequestHandler;
+};
+
+/** Builds the Express app from its dependencies without listening (supertest drives it in-process). */
+export function createApp(deps: Deps, options: AppOptions = {}) {
+  const app = express();
+  app.set('trust proxy', 'loopback');
+  app.disable('x-powered-by');
+  const logger = pino({ level: deps.config.logLevel });
+
+  app.use(helmet({
+    contentSecurityPolicy: {
+      directives: {
+        defaultSrc: ["'self'"],
+        imgSrc: ["'self'", 'data:', 'blob:'],
+        styleSrc: ["'self'", "'unsafe-inline'"],
+        scriptSrc: options.clientMiddleware ? ["'self'", "'unsafe-inline'"] : ["'self'"],
+        connectSrc: ["'self'", ...(options.clientMiddleware ? ['ws:'] : [])],
+        upgradeInsecureRequests: null,
+      },
+    },
+    crossOriginEmbedderPolicy: false,
+  }));
+  app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => req.url === '/api/health' } }));
+
+  const store = new SqliteSessionStore(deps.db, deps.clock, SESSION_TTL_MS);
+  const api = new Api();
+  app.use('/api', express.json({ limit: '2mb' }));
+  app.use('/api', session({
+    name: 'luxtrail.sid',
+    secret: deps.config.sessionSecret,
+    store,
+    resave: false,
+    saveUninitialized: false,
+    rolling: true,
+    cookie: { httpOnly: true, sameSite: 'lax', secure: deps.config.secureCookies, maxAge: SESSION_TTL_MS },
+  }));
+  app.use('/api', (req, _res, next) => {
+    // The user is read afresh each request, so a disabled account or a role change applies at once.
+    req.user = req.session.userId ? loadSessionUser(deps.db, req.session.userId) : null;
+    next();
+  });
+  app.use('/api', sameOriginOnly([deps.config.publicUrl]));
+
+  registerHealthRoutes(api, deps);
+  registerAuthRoutes(api, deps);
+  registerUserRoutes(api, deps);
+  registerOutboxRoutes(api, deps);
+  registerAuditRoutes(api, deps);
+
+  const openApi = api.openApiDocument();
+  app.get('/api/openapi.json', (_req, res) => { res.json(openApi); });
+  app.use('/api', api.router);
+  app.use('/api', apiNotFound);
+
+  if (options.clientMiddleware) app.use(options.clientMiddleware);
+  else if (options.serveClient) serveBuiltClient(app);
+  app.use(errorHandler);
+
+  return { app, routes: api.routes, sessionStore: store };
+}
+
+function serveBuiltClient(app: express.Express) {
+  const dist = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../dist');
+  const indexHtml = path.join(dist, 'index.html');
+  if (!fs.existsSync(indexHtml)) throw new Error(`The client is not built (${indexHtml} is missing): run "npm run build" first`);
+  app.use('/assets', express.static(path.join(dist, 'assets'), { immutable: true, maxAge: '1y' }));
+  app.use(express.static(dist, { index: false, maxAge: '1h' }));
+  app.get('/{*splat}', (_req, res) => { res.sendFile(indexHtml); });
+}

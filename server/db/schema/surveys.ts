@@ -1,0 +1,102 @@
+import { sqliteTable, integer, text, real, index } from 'drizzle-orm/sqlite-core';
+import { organizations, users, storedFiles } from './organizations';
+import { probes } from './calibration';
+
+export const sites = sqliteTable('sites', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  organizationId: integer('organization_id').notNull().references(() => organizations.id),
+  name: text('name').notNull(),
+  address: text('address'),
+  timeZone: text('time_zone').notNull(),
+  createdAt: integer('created_at').notNull(),
+}, (t) => [index('sites_org_idx').on(t.organizationId)]);
+
+export type SurveyConditions = { daylightExcluded: boolean; notes?: string };
+
+export const surveys = sqliteTable('surveys', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  organizationId: integer('organization_id').notNull().references(() => organizations.id),
+  siteId: integer('site_id').notNull().references(() => sites.id),
+  name: text('name').notNull(),
+  startedOn: text('started_on'),
+  conditions: text('conditions', { mode: 'json' }).$type<SurveyConditions>(),
+  status: text('status', { enum: ['draft', 'submitted', 'signed_off', 'returned'] }).notNull().default('draft'),
+  /** The decode whose readings are current; earlier decodes stay recorded. */
+  activeDecodeId: integer('active_decode_id'),
+  reviewComment: text('review_comment'),
+  submittedBy: integer('submitted_by').references(() => users.id),
+  submittedAt: integer('submitted_at'),
+  signedOffBy: integer('signed_off_by').references(() => users.id),
+  signedOffAt: integer('signed_off_at'),
+  /** What a sign-off was judged against: targets, rule, coefficient sets, verdicts. */
+  frozen: text('frozen', { mode: 'json' }),
+  createdBy: integer('created_by').references(() => users.id),
+  createdAt: integer('created_at').notNull(),
+}, (t) => [index('surveys_site_idx').on(t.siteId), index('surveys_org_idx').on(t.organizationId)]);
+
+export const logImports = sqliteTable('log_imports', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  surveyId: integer('survey_id').notNull().references(() => surveys.id),
+  fileId: integer('file_id').notNull().references(() => storedFiles.id),
+  status: text('status', { enum: ['queued', 'running', 'done', 'failed'] }).notNull().default('queued'),
+  progress: real('progress').notNull().default(0),
+  rowsRead: integer('rows_read').notNull().default(0),
+  readingCount: integer('reading_count').notNull().default(0),
+  warnings: text('warnings', { mode: 'json' }).$type<unknown[]>().notNull().default([]),
+  errors: text('errors', { mode: 'json' }).$type<unknown[]>().notNull().default([]),
+  createdBy: integer('created_by').references(() => users.id),
+  createdAt: integer('created_at').notNull(),
+  finishedAt: integer('finished_at'),
+}, (t) => [index('log_imports_survey_idx').on(t.surveyId)]);
+
+/** One decode of a survey's samples into readings: the first on import, more on re-decode. */
+export const decodes = sqliteTable('decodes', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  surveyId: integer('survey_id').notNull().references(() => surveys.id),
+  reason: text('reason').notNull(),
+  createdBy: integer('created_by').references(() => users.id),
+  createdAt: integer('created_at').notNull(),
+});
+
+export const samples = sqliteTable('samples', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  importId: integer('import_id').notNull().references(() => logImports.id),
+  surveyId: integer('survey_id').notNull(),
+  line: integer('line').notNull(),
+  timeMs: integer('time_ms').notNull(),
+  probeId: integer('probe_id').notNull().references(() => probes.id),
+  point: text('point').notNull(),
+  gainCode: integer('gain_code'),
+  counts: integer('counts'),
+  ma: real('ma'),
+  volts: real('volts'),
+  intMs: real('int_ms'),
+  tempC: real('temp_c'),
+  xM: real('x_m'),
+  yM: real('y_m'),
+  role: text('role', { enum: ['task', 'reference'] }).notNull().default('task'),
+  note: text('note'),
+}, (t) => [index('samples_import_idx').on(t.importId)]);
+
+export const readings = sqliteTable('readings', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  surveyId: integer('survey_id').notNull(),
+  decodeId: integer('decode_id').notNull().references(() => decodes.id),
+  importId: integer('import_id').notNull().references(() => logImports.id),
+  point: text('point').notNull(),
+  xM: real('x_m'),
+  yM: real('y_m'),
+  role: text('role', { enum: ['task', 'reference'] }).notNull(),
+  timeMs: integer('time_ms').notNull(),
+  probeId: integer('probe_id').notNull().references(() => probes.id),
+  lux: real('lux'),
+  uLux: real('u_lux'),
+  luxBound: text('lux_bound', { enum: ['exact', 'lower', 'upper'] }).notNull(),
+  flag: text('flag', { enum: ['ok', 'over_range', 'under_range', 'fault', 'calibration_lapsed', 'low_confidence'] }).notNull(),
+  gainCode: integer('gain_code'),
+  sampleCount: integer('sample_count').notNull(),
+  chosenSample: integer('chosen_sample'),
+  coefficientSetId: integer('coefficient_set_id'),
+  budget: text('budget', { mode: 'json' }),
+  note: text('note'),
+}, (t) => [index('readings_decode_idx').on(t.decodeId, t.timeMs), index('readings_survey_idx').on(t.surveyId)]);

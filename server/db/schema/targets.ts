@@ -1,0 +1,18 @@
+import { sqliteTable, integer, text, real, index } from 'drizzle-orm/sqlite-core';
+import { organizations } from './organizations';
+
+/** Target library: shipped entries have no organisation; an organisation may add its own. */
+export const targets = sqliteTable('targets', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  organizationId: integer('organization_id').references(() => organizations.id),
+  useType: text('use_type').notNull(),
+  name: text('name').notNull(),
+  emLux: real('em_lux').notNull(),
+  /** The unit the source states its value in; emLux is always lux. */
+  sourceUnit: text('source_unit', { enum: ['lx', 'fc'] }).notNull().default('lx'),
+  u0Min: real('u0_min'),
+  dfTargetPercent: real('df_target_percent'),
+  source: text('source').notNull(),
+  confidence: text('confidence', { enum: ['published', 'secondary', 'memory'] }).notNull(),
+  createdAt: integer('created_at').notNull(),
+}, (t) => [index('targets_org_idx').on(t.organizationId)]);

@@ -1,0 +1,42 @@
+import { z } from 'zod';
+import { ROLES } from '../roles';
+import { emailSchema, passwordSchema } from './common';
+
+export const loginBodySchema = z.object({
+  email: emailSchema,
+  password: z.string().min(1, 'Enter your password').max(200),
+});
+export type LoginBody = z.infer<typeof loginBodySchema>;
+
+export const sessionUserSchema = z.object({
+  id: z.number().int(),
+  email: z.string(),
+  name: z.string(),
+  role: z.enum(ROLES),
+  organizationId: z.number().int(),
+  organizationName: z.string(),
+});
+export type SessionUser = z.infer<typeof sessionUserSchema>;
+
+export const meResponseSchema = z.object({ user: sessionUserSchema });
+
+export const tokenPasswordBodySchema = z
+  .object({
+    token: z.string().min(20).max(200),
+    password: passwordSchema,
+    confirmPassword: z.string(),
+    name: z.string().trim().min(1).max(120).optional(),
+  })
+  .refine((v) => v.password === v.confirmPassword, { message: 'The passwords do not match', path: ['confirmPassword'] });
+export type TokenPasswordBody = z.infer<typeof tokenPasswordBodySchema>;
+
+export const forgotPasswordBodySchema = z.object({ email: emailSchema });
+export type ForgotPasswordBody = z.infer<typeof forgotPasswordBodySchema>;
+
+export const tokenInfoResponseSchema = z.object({
+  email: z.string(),
+  name: z.string(),
+  organizationName: z.string(),
+  purpose: z.enum(['invite', 'reset']),
+});
+export type TokenInfo = z.infer<typeof tokenInfoResponseSchema>;
