@@ -27,6 +27,8 @@ export type Config = {
   secureCookies: boolean;
   /** Background jobs (reminders) run only in a real server, not in tests. */
   runJobs: boolean;
+  /** Sign-in attempts allowed per 15 minutes: all attempts per address, failed ones per account. */
+  signInLimits: { perAddress: number; perAccount: number };
 };
 
 export class ConfigError extends Error {}
@@ -52,6 +54,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     logLevel: e.LOG_LEVEL,
     secureCookies: publicUrl.startsWith('https://'),
     runJobs: e.NODE_ENV !== 'test',
+    signInLimits: { perAddress: 30, perAccount: 5 },
   };
 }
 
@@ -77,6 +80,7 @@ export function testConfig(overrides: Partial<Config> = {}): Config {
     logLevel: 'silent',
     secureCookies: false,
     runJobs: false,
+    signInLimits: { perAddress: 30, perAccount: 5 },
     ...overrides,
   };
 }

@@ -28,9 +28,9 @@ function endSession(req: Request, res: Response): Promise<void> {
 export function registerAuthRoutes(api: Api, deps: Deps) {
   const limitHandler = (_req: Request, _res: Response, next: (e: unknown) => void) => next(tooManyRequests('Too many sign-in attempts; wait 15 minutes and try again'));
   // Per address: every attempt counts. Per account: failed attempts count.
-  const perAddress = rateLimit({ windowMs: WINDOW_MS, limit: 30, standardHeaders: 'draft-7', legacyHeaders: false, keyGenerator: (req) => ipKeyGenerator(req.ip ?? ''), handler: limitHandler });
+  const perAddress = rateLimit({ windowMs: WINDOW_MS, limit: deps.config.signInLimits.perAddress, standardHeaders: 'draft-7', legacyHeaders: false, keyGenerator: (req) => ipKeyGenerator(req.ip ?? ''), handler: limitHandler });
   const perAccount = rateLimit({
-    windowMs: WINDOW_MS, limit: 5, skipSuccessfulRequests: true, standardHeaders: 'draft-7', legacyHeaders: false,
+    windowMs: WINDOW_MS, limit: deps.config.signInLimits.perAccount, skipSuccessfulRequests: true, standardHeaders: 'draft-7', legacyHeaders: false,
     keyGenerator: (req) => `account:${String(req.body?.email ?? '').trim().toLowerCase()}`, handler: limitHandler,
   });
   const userResponse = meResponseSchema;
