@@ -1,2 +1,6 @@
-// Registers each feature's demo-data step with SEED_STEPS (import for its side effect).
+// Registers each feature's demo-data step with SEED_STEPS, in this order (import for the side effect).
+// 1. calibration: probes and coefficient sets
+// 2. surveys: the demo site, surveys and their imported logs
+// 3. plans: plans and zones of the demo site
+// 4. compliance: target library, sign-off of the earlier survey
 export {};

@@ -1,0 +1,21 @@
+import multer from 'multer';
+import path from 'node:path';
+import fs from 'node:fs';
+import type { RequestHandler } from 'express';
+import type { Deps } from '../deps';
+import { badRequest } from './errors';
+
+/**
+ * Multer to disk under the data directory, one file in `field`, size-limited.
+ * Handlers then check the content with sniffFile and keep it with keepUploadedFile.
+ */
+export function singleFileUpload(deps: Deps, field: string, maxBytes: number): RequestHandler[] {
+  const dir = path.join(deps.config.dataDir, 'uploads');
+  fs.mkdirSync(dir, { recursive: true });
+  const upload = multer({ dest: dir, limits: { fileSize: maxBytes, files: 1, fields: 20 } }).single(field);
+  const requireFile: RequestHandler = (req, _res, next) => {
+    if (!req.file) return next(badRequest(`Attach the file in the multipart field "${field}"`));
+    next();
+  };
+  return [upload, requireFile];
+}

@@ -1,0 +1,81 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import crypto from 'node:crypto';
+import { fileTypeFromFile } from 'file-type';
+import { and, eq } from 'drizzle-orm';
+import type { Deps } from '../deps';
+import { storedFiles } from '../db/schema/organizations';
+import { unsupportedMediaType } from '../http/errors';
+
+export type FileKind = 'csv' | 'pdf' | 'image';
+
+const IMAGE_TYPES = new Set(['image/png', 'image/jpeg', 'image/webp']);
+
+/**
+ * Decides a file's type from its content, never from its name or the browser's claim.
+ * CSV is text: it must have no NUL byte and be valid UTF-8 in its first 64 KiB.
+ */
+export async function sniffFile(filePath: string, expected: FileKind): Promise<string> {
+  const detected = await fileTypeFromFile(filePath);
+  if (expected === 'pdf') {
+    if (detected?.mime !== 'application/pdf') throw unsupportedMediaType('The certificate must be a PDF file');
+    return 'application/pdf';
+  }
+  if (expected === 'image') {
+    if (!detected || !IMAGE_TYPES.has(detected.mime)) throw unsupportedMediaType('A plan must be a PNG, JPEG or WebP image');
+    return detected.mime;
+  }
+  const fd = fs.openSync(filePath, 'r');
+  try {
+    const head = Buffer.alloc(64 * 1024);
+    const n = fs.readSync(fd, head, 0, head.length, 0);
+    const bytes = head.subarray(0, n);
+    // A cut at the buffer's end may split a character: trim up to 3 trailing bytes before checking.
+    const looksBinary = detected !== undefined || bytes.includes(0) || !isUtf8Prefix(bytes);
+    if (looksBinary) throw unsupportedMediaType(`This is not a text CSV file${detected ? ` (it looks like ${detected.mime})` : ''}`);
+  } finally {
+    fs.closeSync(fd);
+  }
+  return 'text/csv';
+}
+
+function isUtf8Prefix(bytes: Buffer): boolean {
+  for (let cut = 0; cut <= 3 && cut < bytes.length + 1; cut++) {
+    try {
+      new TextDecoder('utf-8', { fatal: true }).decode(bytes.subarray(0, bytes.length - cut));
+      return true;
+    } catch { /* try a shorter prefix */ }
+  }
+  return false;
+}
+
+export async function sha256OfFile(filePath: string): Promise<string> {
+  const hash = crypto.createHash('sha256');
+  for await (const chunk of fs.createReadStream(filePath)) hash.update(chunk as Buffer);
+  return hash.digest('hex');
+}
+
+export function storedPath(deps: Deps, sha256: string): string {
+  return path.join(deps.config.dataDir, 'files', sha256.slice(0, 2), sha256);
+}
+
+/**
+ * Keeps an uploaded file by content hash (one copy per content) and records it.
+ * Moves the temporary upload into place; the row is the caller's to tie to its record.
+ */
+export async function keepUploadedFile(deps: Deps, input: { organizationId: number; userId: number | null; tmpPath: string; filename: string; contentType: string }) {
+  const sha256 = await sha256OfFile(input.tmpPath);
+  const target = storedPath(deps, sha256);
+  fs.mkdirSync(path.dirname(target), { recursive: true });
+  if (fs.existsSync(target)) fs.rmSync(input.tmpPath, { force: true });
+  else fs.renameSync(input.tmpPath, target);
+  const size = fs.statSync(target).size;
+  const row = deps.db.insert(storedFiles).values({
+    organizationId: input.organizationId, sha256, filename: input.filename.slice(0, 200), contentType: input.contentType, size, createdBy: input.userId, createdAt: deps.clock.now(),
+  }).returning().get();
+  return row;
+}
+
+export function findStoredFile(deps: Deps, organizationId: number, fileId: number) {
+  return deps.db.select().from(storedFiles).where(and(eq(storedFiles.id, fileId), eq(storedFiles.organizationId, organizationId))).get();
+}
