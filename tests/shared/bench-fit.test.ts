@@ -23,7 +23,7 @@ describe('fitBench', () => {
   const res = fitBench(run, { tRefMs: 100, referenceURel: 0.01, gains });
 
   it('recovers luxPerCount and dark per code, normalised to tRef', () => {
-    const [g0, g1, g2] = res.gains;
+    const [g0, g1] = res.gains;
     expect(g0.luxPerCount).toBeCloseTo(2, 2);
     expect(g1.luxPerCount / 0.25).toBeCloseTo(1, 3); // 50 ms rows, normalised to 100 ms
     expect(Math.abs(g0.darkCounts - 40)).toBeLessThan(1);
