@@ -17,6 +17,7 @@ import { registerUserRoutes } from './modules/users/users-routes';
 import { registerOutboxRoutes } from './modules/outbox/outbox-routes';
 import { registerAuditRoutes } from './modules/audit/audit-routes';
 import { registerHealthRoutes } from './modules/health/health-routes';
+import { registerSurveyFeatureRoutes } from './modules/surveys/survey-feature-routes';
 
 export const SESSION_TTL_MS = 8 * 3600_000;
 
@@ -73,6 +74,7 @@ export function createApp(deps: Deps, options: AppOptions = {}) {
   registerUserRoutes(api, deps);
   registerOutboxRoutes(api, deps);
   registerAuditRoutes(api, deps);
+  registerSurveyFeatureRoutes(api, deps);
 
   const openApi = api.openApiDocument();
   app.get('/api/openapi.json', (_req, res) => { res.json(openApi); });

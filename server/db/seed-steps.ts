@@ -1,6 +1,7 @@
 // Registers each feature's demo-data step with SEED_STEPS, in this order (import for the side effect).
 // 1. calibration: probes and coefficient sets
 // 2. surveys: the demo site, surveys and their imported logs
+import './seed-surveys';
 // 3. plans: plans and zones of the demo site
 // 4. compliance: target library, sign-off of the earlier survey
 export {};

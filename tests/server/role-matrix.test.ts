@@ -4,9 +4,10 @@ import { CAPABILITIES } from '@shared/policy';
 import { ROLES, type Role } from '@shared/roles';
 import type { RouteExamples, ExampleRequest } from './route-examples/types';
 import { foundationExamples } from './route-examples/foundation';
+import { surveyExamples } from './route-examples/surveys';
 
 // Every feature adds its examples here; a route without one fails the first test.
-const EXAMPLES: RouteExamples = { ...foundationExamples };
+const EXAMPLES: RouteExamples = { ...foundationExamples, ...surveyExamples };
 
 const ROLE_ACCOUNT: Record<Role, string> = {
   admin: DEMO.admin, surveyor: DEMO.surveyor, calibration: DEMO.calibration, facility_manager: DEMO.facility_manager,

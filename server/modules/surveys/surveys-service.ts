@@ -1,0 +1,117 @@
+import { and, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
+import type { Deps } from '../../deps';
+import { decodes, logImports, readings, sites, surveys } from '../../db/schema/surveys';
+import { coefficientSets } from '../../db/schema/calibration';
+import { storedFiles, users } from '../../db/schema/organizations';
+import type { SessionUser } from '@shared/schemas/auth';
+import { can } from '@shared/policy';
+import { createSurveyBodySchema, UPLOADABLE_STATUSES, type CreateSurveyBody, type Survey, type SurveyDetail, type SurveyStatus } from '@shared/schemas/surveys';
+import { conflict, notFound } from '../../http/errors';
+import { recordAudit } from '../audit/audit-service';
+import { getSiteRow, siteConditions } from '../sites/sites-service';
+
+export type SurveyRow = typeof surveys.$inferSelect;
+type SiteRow = typeof sites.$inferSelect;
+
+/**
+ * A survey of the organisation, or null. For services that scope by organisation only
+ * (sign-off, reports); use getSurveyRow for a signed-in user, which also applies site scope.
+ */
+export function findSurveyInOrganization(db: Deps['db'], organizationId: number, surveyId: number): SurveyRow | null {
+  return db.select().from(surveys).where(and(eq(surveys.id, surveyId), eq(surveys.organizationId, organizationId))).get() ?? null;
+}
+
+/** The survey the caller may see (organisation and, for facility managers, site scope); else a 404. */
+export function getSurveyRow(db: Deps['db'], user: SessionUser, surveyId: number): SurveyRow & { site: SiteRow } {
+  const row = db.select({ survey: surveys, site: sites }).from(surveys).innerJoin(sites, eq(sites.id, surveys.siteId))
+    .where(and(eq(surveys.id, surveyId), ...siteConditions(db, user))).get();
+  if (!row) throw notFound('Survey');
+  return { ...row.survey, site: row.site };
+}
+
+/** Logs may be added only to a draft or returned survey (409 otherwise). */
+export function assertSurveyAcceptsLogs(survey: Pick<SurveyRow, 'status' | 'name'>): void {
+  if (!UPLOADABLE_STATUSES.includes(survey.status as SurveyStatus)) {
+    throw conflict(`Survey "${survey.name}" is ${survey.status.replace('_', ' ')}: logs can be added only while it is a draft or returned for changes`);
+  }
+}
+
+/** Readings that are current: those of the active decode from imports that were accepted whole. */
+export function currentReadingConditions(survey: Pick<SurveyRow, 'id' | 'activeDecodeId'>): SQL[] {
+  return [
+    eq(readings.decodeId, survey.activeDecodeId ?? -1),
+    eq(readings.surveyId, survey.id),
+    sql`${readings.importId} in (select ${logImports.id} from ${logImports} where ${logImports.surveyId} = ${survey.id} and ${logImports.status} = 'done')`,
+  ];
+}
+
+function readingCount(db: Deps['db'], survey: Pick<SurveyRow, 'id' | 'activeDecodeId'>): number {
+  if (survey.activeDecodeId === null) return 0;
+  return db.select({ n: sql<number>`count(*)` }).from(readings).where(and(...currentReadingConditions(survey))).get()!.n;
+}
+
+function present(row: SurveyRow, site: SiteRow, count: number): Survey {
+  return {
+    id: row.id, siteId: row.siteId, siteName: site.name, siteTimeZone: site.timeZone, name: row.name, startedOn: row.startedOn,
+    conditions: row.conditions ?? null, status: row.status, activeDecodeId: row.activeDecodeId, readingCount: count,
+    createdAt: new Date(row.createdAt).toISOString(),
+  };
+}
+
+export function listSurveys(db: Deps['db'], user: SessionUser, filter: { siteId?: number; status?: SurveyStatus } = {}): Survey[] {
+  const where = siteConditions(db, user);
+  if (filter.siteId) where.push(eq(surveys.siteId, filter.siteId));
+  if (filter.status) where.push(eq(surveys.status, filter.status));
+  const rows = db.select({ survey: surveys, site: sites }).from(surveys).innerJoin(sites, eq(sites.id, surveys.siteId))
+    .where(and(...where)).orderBy(desc(surveys.createdAt), desc(surveys.id)).all();
+  return rows.map((r) => present(r.survey, r.site, readingCount(db, r.survey)));
+}
+
+export function getSurvey(db: Deps['db'], user: SessionUser, surveyId: number): SurveyDetail {
+  const row = getSurveyRow(db, user, surveyId);
+  const current = currentReadingConditions(row);
+  const flagRows = row.activeDecodeId === null ? [] : db.select({ flag: readings.flag, n: sql<number>`count(*)` }).from(readings).where(and(...current)).groupBy(readings.flag).all();
+  const flagCounts = Object.fromEntries(flagRows.map((r) => [r.flag, r.n]));
+  // A reading's stored flag is its most important one; lapsed calibration is read from the set it used.
+  const lapsed = row.activeDecodeId === null ? 0 : db.select({ n: sql<number>`count(*)` }).from(readings)
+    .innerJoin(coefficientSets, eq(coefficientSets.id, readings.coefficientSetId))
+    .where(and(...current, sql`${readings.timeMs} > ${coefficientSets.dueDate}`)).get()!.n;
+  const importRows = db.select({ imp: logImports, filename: storedFiles.filename }).from(logImports).innerJoin(storedFiles, eq(storedFiles.id, logImports.fileId))
+    .where(eq(logImports.surveyId, row.id)).orderBy(desc(logImports.id)).all();
+  const decodeRows = db.select({ d: decodes, name: users.name }).from(decodes).leftJoin(users, eq(users.id, decodes.createdBy))
+    .where(eq(decodes.surveyId, row.id)).orderBy(desc(decodes.id)).all();
+  return {
+    ...present(row, row.site, Object.values(flagCounts).reduce((a, b) => a + b, 0)),
+    flagCounts,
+    calibrationLapsedCount: lapsed,
+    canUpload: can(user.role, 'surveys.upload') && UPLOADABLE_STATUSES.includes(row.status),
+    imports: importRows.map(({ imp, filename }) => ({
+      id: imp.id, filename, status: imp.status, rowsRead: imp.rowsRead, readings: imp.readingCount, errorCount: imp.errors.length,
+      createdAt: new Date(imp.createdAt).toISOString(),
+    })),
+    decodes: decodeRows.map(({ d, name }) => ({ id: d.id, reason: d.reason, createdAt: new Date(d.createdAt).toISOString(), createdByName: name, active: d.id === row.activeDecodeId })),
+  };
+}
+
+export function createSurvey(deps: Deps, actor: SessionUser, input: CreateSurveyBody, status: SurveyStatus = 'draft'): Survey {
+  const body = createSurveyBodySchema.parse(input);
+  const site = getSiteRow(deps.db, actor, body.siteId);
+  const now = deps.clock.now();
+  const row = deps.db.transaction((tx) => {
+    const created = tx.insert(surveys).values({
+      organizationId: actor.organizationId, siteId: site.id, name: body.name, startedOn: body.startedOn ?? null,
+      conditions: body.conditions ?? null, status, createdBy: actor.id, createdAt: now,
+    }).returning().get();
+    recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: created.id, surveyId: created.id, action: 'created', after: body, at: now });
+    return created;
+  });
+  return present(row, site, 0);
+}
+
+/** Survey ids of the organisation whose current readings used any of the given coefficient sets. */
+export function surveysUsingCoefficientSets(db: Deps['db'], organizationId: number, coefficientSetIds: number[]): number[] {
+  if (coefficientSetIds.length === 0) return [];
+  return db.selectDistinct({ id: surveys.id }).from(surveys)
+    .innerJoin(readings, and(eq(readings.surveyId, surveys.id), eq(readings.decodeId, surveys.activeDecodeId)))
+    .where(and(eq(surveys.organizationId, organizationId), inArray(readings.coefficientSetId, coefficientSetIds))).all().map((r) => r.id);
+}

@@ -1,0 +1,81 @@
+import { z } from 'zod';
+
+export const SURVEY_STATUSES = ['draft', 'submitted', 'signed_off', 'returned'] as const;
+export type SurveyStatus = (typeof SURVEY_STATUSES)[number];
+
+/** Logs may be uploaded only while a survey is being worked on. */
+export const UPLOADABLE_STATUSES: readonly SurveyStatus[] = ['draft', 'returned'];
+
+export const SURVEY_STATUS_LABELS: Record<SurveyStatus, string> = {
+  draft: 'Draft',
+  submitted: 'Submitted',
+  signed_off: 'Signed off',
+  returned: 'Returned for changes',
+};
+
+export const surveyConditionsSchema = z.object({
+  /** True when daylight was excluded (blinds down, after dark) so readings are electric light only. */
+  daylightExcluded: z.boolean(),
+  notes: z.string().trim().max(1000).optional(),
+});
+export type SurveyConditions = z.infer<typeof surveyConditionsSchema>;
+
+export const createSurveyBodySchema = z.object({
+  siteId: z.number().int().positive(),
+  name: z.string().trim().min(1, 'Enter a survey name').max(160),
+  startedOn: z.iso.date({ message: 'Use a date such as 2026-11-20' }).optional(),
+  conditions: surveyConditionsSchema.optional(),
+});
+export type CreateSurveyBody = z.input<typeof createSurveyBodySchema>;
+
+export const surveyListQuerySchema = z.object({
+  siteId: z.coerce.number().int().positive().optional(),
+  status: z.enum(SURVEY_STATUSES).optional(),
+});
+
+export const surveySchema = z.object({
+  id: z.number().int(),
+  siteId: z.number().int(),
+  siteName: z.string(),
+  siteTimeZone: z.string(),
+  name: z.string(),
+  startedOn: z.string().nullable(),
+  conditions: surveyConditionsSchema.nullable(),
+  status: z.enum(SURVEY_STATUSES),
+  activeDecodeId: z.number().int().nullable(),
+  readingCount: z.number().int(),
+  createdAt: z.string(),
+});
+export type Survey = z.infer<typeof surveySchema>;
+
+export const surveyListResponseSchema = z.object({ items: z.array(surveySchema) });
+export type SurveyListResponse = z.infer<typeof surveyListResponseSchema>;
+
+export const decodeSummarySchema = z.object({
+  id: z.number().int(),
+  reason: z.string(),
+  createdAt: z.string(),
+  createdByName: z.string().nullable(),
+  active: z.boolean(),
+});
+
+export const surveyImportSummarySchema = z.object({
+  id: z.number().int(),
+  filename: z.string(),
+  status: z.enum(['queued', 'running', 'done', 'failed']),
+  rowsRead: z.number().int(),
+  readings: z.number().int(),
+  errorCount: z.number().int(),
+  createdAt: z.string(),
+});
+
+/** One survey with what its page needs at the top: counts per flag, imports and decodes. */
+export const surveyDetailSchema = surveySchema.extend({
+  flagCounts: z.record(z.string(), z.number().int()),
+  /** Readings decoded with a coefficient set whose due date had passed. */
+  calibrationLapsedCount: z.number().int(),
+  canUpload: z.boolean(),
+  imports: z.array(surveyImportSummarySchema),
+  decodes: z.array(decodeSummarySchema),
+});
+export type SurveyDetail = z.infer<typeof surveyDetailSchema>;
