@@ -1,0 +1,54 @@
+import { createBrowserRouter, redirect, type LoaderFunctionArgs, type RouteObject } from 'react-router';
+import { queryClient } from '@/lib/query-client';
+import { meQueryOptions } from '@/features/auth/api/get-me';
+import { AppShell } from './layout/app-shell';
+import { Gate } from './gate';
+import { RouteErrorBoundary } from './routes/route-error';
+import { NotFoundRoute } from './routes/not-found';
+import { SignInRoute } from './routes/auth/sign-in';
+import { ForgotPasswordRoute } from './routes/auth/forgot-password';
+import { TokenPasswordRoute } from './routes/auth/token-password';
+import { HomeRoute } from './routes/home';
+import { UsersRoute } from './routes/admin/users';
+import { OutboxRoute } from './routes/admin/outbox';
+
+/** The signed-in shell's loader: no user, no shell (back to sign-in, then here again). */
+async function requireUser({ request }: LoaderFunctionArgs) {
+  const user = await queryClient.ensureQueryData(meQueryOptions());
+  if (!user) {
+    const url = new URL(request.url);
+    throw redirect(`/sign-in?next=${encodeURIComponent(url.pathname + url.search)}`);
+  }
+  return null;
+}
+
+async function redirectIfSignedIn() {
+  const user = await queryClient.ensureQueryData(meQueryOptions());
+  return user ? redirect('/') : null;
+}
+
+/**
+ * Signed-in pages. Features add their routes here; pages that compose several features live
+ * in src/app/routes/. Wrap a page in <Gate capability=…> when only some roles may use it.
+ */
+const appRoutes: RouteObject[] = [
+  { index: true, element: <HomeRoute /> },
+  { path: 'users', element: <Gate capability="users.manage"><UsersRoute /></Gate> },
+  { path: 'outbox', element: <Gate capability="outbox.read"><OutboxRoute /></Gate> },
+];
+
+export const routes: RouteObject[] = [
+  { path: '/sign-in', element: <SignInRoute />, loader: redirectIfSignedIn, errorElement: <RouteErrorBoundary /> },
+  { path: '/forgot-password', element: <ForgotPasswordRoute />, errorElement: <RouteErrorBoundary /> },
+  { path: '/reset-password', element: <TokenPasswordRoute purpose="reset" />, errorElement: <RouteErrorBoundary /> },
+  { path: '/accept-invite', element: <TokenPasswordRoute purpose="invite" />, errorElement: <RouteErrorBoundary /> },
+  {
+    path: '/',
+    element: <AppShell />,
+    loader: requireUser,
+    errorElement: <RouteErrorBoundary />,
+    children: [...appRoutes, { path: '*', element: <NotFoundRoute /> }],
+  },
+];
+
+export const createRouter = () => createBrowserRouter(routes);
