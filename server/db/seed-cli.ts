@@ -1,0 +1,14 @@
+import { loadConfig } from '../config';
+import { openDatabase } from './client';
+import { createMailer } from '../mail/mailer';
+import { systemClock } from '../lib/clock';
+import { seedIfEmpty } from './seed';
+import './seed-steps';
+
+/** `npm run seed`: migrate and seed the demo scenario into an empty database, then exit. */
+const config = loadConfig();
+const db = openDatabase(config.databaseUrl);
+const deps = { db, mailer: createMailer({ db, clock: systemClock, smtpUrl: config.smtpUrl }), clock: systemClock, config };
+const seeded = await seedIfEmpty(deps);
+console.log(seeded ? `Seeded the demo scenario into ${config.databaseUrl}` : `${config.databaseUrl} already has data; nothing seeded`);
+db.$client.close();
