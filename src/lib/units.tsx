@@ -19,7 +19,8 @@ const STORAGE_KEY = 'luxtrail.unit';
 /** Three significant figures, never scientific notation for ordinary survey levels. */
 export function formatNumber(value: number): string {
   if (!Number.isFinite(value)) return '–';
-  const abs = Math.abs(value);
+  // Decide the digits on the value rounded to 3 significant figures, so 9.99999 shows as 10.0.
+  const abs = Math.abs(Number(value.toPrecision(3)));
   const digits = abs >= 100 ? 0 : abs >= 10 ? 1 : abs >= 1 ? 2 : 3;
   return value.toLocaleString('en-GB', { minimumFractionDigits: digits, maximumFractionDigits: digits });
 }
