@@ -50,16 +50,24 @@ describe('sign-in', () => {
     expect(last).toBe(429);
   });
 
-  it('issues a new session id on sign-in (no fixation) and destroys it on sign-out', async () => {
+  it('issues a new session id on every sign-in, so an earlier (planted) id stops working', async () => {
     const c = t.client();
-    await c.post('/api/auth/login').send({ email: DEMO.admin, password: 'luxtrail-demo' });
-    const first = (await c.get('/api/auth/me')).status;
-    const again = await c.post('/api/auth/login').send({ email: DEMO.admin, password: 'luxtrail-demo' });
-    const cookieA = again.headers['set-cookie']?.[0];
-    expect(first).toBe(200);
-    expect(cookieA).toBeTruthy();
+    const first = await c.post('/api/auth/login').send({ email: DEMO.admin, password: 'luxtrail-demo' });
+    const cookieA = first.headers['set-cookie']![0].split(';')[0];
+    const second = await c.post('/api/auth/login').send({ email: DEMO.admin, password: 'luxtrail-demo' });
+    const cookieB = second.headers['set-cookie']![0].split(';')[0];
+    expect(cookieB).not.toBe(cookieA);
+    expect((await t.client().agent.get('/api/auth/me').set('Cookie', cookieA)).status).toBe(401);
+    expect((await t.client().agent.get('/api/auth/me').set('Cookie', cookieB)).status).toBe(200);
+  });
+
+  it('destroys the session on sign-out, so a replayed cookie is refused', async () => {
+    const c = t.client();
+    const login = await c.post('/api/auth/login').send({ email: DEMO.admin, password: 'luxtrail-demo' });
+    const cookie = login.headers['set-cookie']![0].split(';')[0];
     expect((await c.post('/api/auth/logout')).status).toBe(204);
     expect((await c.get('/api/auth/me')).status).toBe(401);
+    expect((await t.client().agent.get('/api/auth/me').set('Cookie', cookie)).status).toBe(401);
   });
 
   it('expires a session after its idle lifetime', async () => {
