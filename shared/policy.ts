@@ -21,6 +21,8 @@ export const CAPABILITIES = {
   'surveys.redecode': ['admin', 'calibration'],
   'reports.send': ['admin', 'surveyor', 'facility_manager'],
   'probes.read': ['admin', 'surveyor', 'calibration'],
+  /** Without it, probes.read shows only the probes in service (the ones a surveyor may use). */
+  'probes.read_all': ['admin', 'calibration'],
   'probes.write': ['admin', 'calibration'],
   'coefficients.read': ['admin', 'surveyor', 'calibration'],
   'coefficients.write': ['admin', 'calibration'],
@@ -54,6 +56,7 @@ export const CAPABILITY_LABELS: Record<Capability, string> = {
   'surveys.redecode': 'Re-decode a survey with corrected coefficients',
   'reports.send': 'E-mail a survey report',
   'probes.read': 'See probes',
+  'probes.read_all': 'See out-of-service and retired probes too',
   'probes.write': 'Create and edit probes, upload bench runs',
   'coefficients.read': 'See coefficient sets',
   'coefficients.write': 'Draft coefficient sets',
