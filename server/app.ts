@@ -18,6 +18,7 @@ import { registerOutboxRoutes } from './modules/outbox/outbox-routes';
 import { registerAuditRoutes } from './modules/audit/audit-routes';
 import { registerHealthRoutes } from './modules/health/health-routes';
 import { registerSurveyFeatureRoutes } from './modules/surveys/survey-feature-routes';
+import { registerComplianceFeatureRoutes } from './modules/compliance/compliance-feature-routes';
 
 export const SESSION_TTL_MS = 8 * 3600_000;
 
@@ -75,6 +76,7 @@ export function createApp(deps: Deps, options: AppOptions = {}) {
   registerOutboxRoutes(api, deps);
   registerAuditRoutes(api, deps);
   registerSurveyFeatureRoutes(api, deps);
+  registerComplianceFeatureRoutes(api, deps);
 
   const openApi = api.openApiDocument();
   app.get('/api/openapi.json', (_req, res) => { res.json(openApi); });

@@ -4,4 +4,5 @@
 import './seed-surveys';
 // 3. plans: plans and zones of the demo site
 // 4. compliance: target library, sign-off of the earlier survey
+import './seed-compliance';
 export {};

@@ -1,0 +1,72 @@
+import { and, asc, eq, inArray } from 'drizzle-orm';
+import type { Db } from '../../db/client';
+import { plans, zones } from '../../db/schema/plans';
+import { readings } from '../../db/schema/surveys';
+import { coefficientSets, probes } from '../../db/schema/calibration';
+import type { SurveyRow } from '../surveys/surveys-service';
+import { currentReadingConditions } from '../surveys/surveys-service';
+import { resolveZoneTarget } from '../targets/targets-service';
+import type { JudgeReading, JudgeZone } from './judge-zones';
+
+export type PlanWithZones = { planId: number; planName: string; zones: JudgeZone[] };
+
+/** Every plan of the site with its zones and the target each is judged against. */
+export function loadSitePlans(db: Db, organizationId: number, siteId: number): PlanWithZones[] {
+  const planRows = db.select().from(plans).where(eq(plans.siteId, siteId)).orderBy(asc(plans.id)).all();
+  if (planRows.length === 0) return [];
+  const zoneRows = db.select().from(zones).where(inArray(zones.planId, planRows.map((p) => p.id))).orderBy(asc(zones.id)).all();
+  return planRows.map((p) => ({
+    planId: p.id,
+    planName: p.name,
+    zones: zoneRows.filter((z) => z.planId === p.id).map((z): JudgeZone => {
+      const t = resolveZoneTarget(db, organizationId, z);
+      return {
+        id: z.id, name: z.name, kind: z.kind, useType: z.useType, planId: p.id, planName: p.name, planeHeightM: z.planeHeightM, wallBandM: z.wallBandM,
+        polygon: z.polygon,
+        target: t ? { id: t.id, name: t.name, emLux: t.emLux, u0Min: t.u0Min, dfTargetPercent: t.dfTargetPercent, source: t.source, confidence: t.confidence } : null,
+      };
+    }),
+  }));
+}
+
+const readingColumns = {
+  id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, role: readings.role, timeMs: readings.timeMs, probeId: readings.probeId,
+  lux: readings.lux, uLux: readings.uLux, luxBound: readings.luxBound, flag: readings.flag, budget: readings.budget, coefficientSetId: readings.coefficientSetId,
+};
+
+/** The survey's current readings (active decode, accepted imports), in time order. */
+export function loadCurrentReadings(db: Db, survey: Pick<SurveyRow, 'id' | 'activeDecodeId'>): JudgeReading[] {
+  if (survey.activeDecodeId === null) return [];
+  return db.select(readingColumns).from(readings).where(and(...currentReadingConditions(survey))).orderBy(asc(readings.timeMs), asc(readings.id)).all();
+}
+
+/** Readings by id within one survey (a frozen sign-off names the readings it judged). */
+export function loadReadingsById(db: Db, surveyId: number, ids: number[]): JudgeReading[] {
+  if (ids.length === 0) return [];
+  const out: JudgeReading[] = [];
+  // SQLite limits bound parameters per statement; fetch in chunks.
+  for (let i = 0; i < ids.length; i += 500) {
+    out.push(...db.select(readingColumns).from(readings).where(and(eq(readings.surveyId, surveyId), inArray(readings.id, ids.slice(i, i + 500)))).all());
+  }
+  return out.sort((a, b) => a.timeMs - b.timeMs || a.id - b.id);
+}
+
+export type UsedCoefficientSet = {
+  id: number; probeId: number; probeSerial: string; probeKind: string; probeDescription: string; version: number; status: string;
+  effectiveFrom: number; dueDate: number; certificateNumber: string; tRefMs: number; alphaPerK: number; tCalC: number;
+  gains: { code: number; darkCounts: number; luxPerCount: number; uRel: number }[]; readings: number;
+};
+
+/** The coefficient sets (and their probes) the given readings were decoded with. */
+export function loadUsedCoefficientSets(db: Db, readingsUsed: JudgeReading[]): UsedCoefficientSet[] {
+  const counts = new Map<number, number>();
+  for (const r of readingsUsed) if (r.coefficientSetId !== null) counts.set(r.coefficientSetId, (counts.get(r.coefficientSetId) ?? 0) + 1);
+  if (counts.size === 0) return [];
+  return db.select({ set: coefficientSets, probe: probes }).from(coefficientSets).innerJoin(probes, eq(probes.id, coefficientSets.probeId))
+    .where(inArray(coefficientSets.id, [...counts.keys()])).orderBy(asc(probes.serial), asc(coefficientSets.version)).all()
+    .map(({ set, probe }) => ({
+      id: set.id, probeId: probe.id, probeSerial: probe.serial, probeKind: probe.kind, probeDescription: probe.description, version: set.version, status: set.status,
+      effectiveFrom: set.effectiveFrom, dueDate: set.dueDate, certificateNumber: set.certificateNumber, tRefMs: set.tRefMs, alphaPerK: set.alphaPerK, tCalC: set.tCalC,
+      gains: set.gains.map((g) => ({ code: g.code, darkCounts: g.darkCounts, luxPerCount: g.luxPerCount, uRel: g.uRel })), readings: counts.get(set.id) ?? 0,
+    }));
+}

@@ -1,0 +1,16 @@
+import type { Api } from '../../http/api';
+import type { Deps } from '../../deps';
+import { idParamsSchema } from '@shared/schemas/common';
+import { complianceResponseSchema, sitesOverviewResponseSchema, zoneDetailParamsSchema, zoneDetailResponseSchema } from '@shared/schemas/compliance';
+import { getCompliance, getZoneDetail, sitesOverview } from './compliance-service';
+
+export function registerComplianceRoutes(api: Api, deps: Deps) {
+  api.route({ method: 'get', path: '/compliance/sites', access: 'surveys.read', tag: 'compliance', summary: 'Sites with their latest survey and counts of zones meeting, falling short, inconclusive', response: sitesOverviewResponseSchema },
+    ({ user }) => sitesOverview(deps.db, user));
+
+  api.route({ method: 'get', path: '/surveys/:id/compliance', access: 'surveys.read', tag: 'compliance', summary: 'Verdict per zone (worst first) with the decision rule and the change since the previous signed-off survey', params: idParamsSchema, response: complianceResponseSchema },
+    ({ user, params }) => getCompliance(deps.db, user, params.id));
+
+  api.route({ method: 'get', path: '/surveys/:id/zones/:zoneId/compliance', access: 'surveys.read', tag: 'compliance', summary: 'One zone: its points, statistics, target and source', params: zoneDetailParamsSchema, response: zoneDetailResponseSchema },
+    ({ user, params }) => getZoneDetail(deps.db, user, params.id, params.zoneId));
+}

@@ -1,0 +1,152 @@
+import { and, desc, eq, ne, sql } from 'drizzle-orm';
+import type { Db } from '../../db/client';
+import { sites, surveys } from '../../db/schema/surveys';
+import { RULE_TEXT, type AcceptanceRule } from '@shared/core/decision';
+import { GRID_RULE } from '@shared/core/zone-stats';
+import type { SessionUser } from '@shared/schemas/auth';
+import type { ComplianceCounts, ComplianceResponse, SitesOverviewResponse, ZoneCompliance, ZoneDetailResponse } from '@shared/schemas/compliance';
+import type { TargetEntry } from '@shared/schemas/targets';
+import { notFound } from '../../http/errors';
+import { getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
+import { siteConditions } from '../sites/sites-service';
+import { decisionRuleOf } from '../organization/organization-service';
+import { getVisibleTarget, presentTarget } from '../targets/targets-service';
+import { judgeZones, type JudgedZone } from './judge-zones';
+import { loadCurrentReadings, loadReadingsById, loadSitePlans, loadUsedCoefficientSets, type UsedCoefficientSet } from './compliance-repository';
+
+/** What a sign-off keeps in surveys.frozen: later target, rule or calibration changes never alter it. */
+export type FrozenCompliance = {
+  version: 1;
+  frozenAt: number;
+  rule: AcceptanceRule;
+  ruleText: string;
+  gridRule: string;
+  decodeId: number | null;
+  hasDaylightReference: boolean;
+  unassignedPoints: number;
+  warnings: string[];
+  zones: JudgedZone[];
+  targets: TargetEntry[];
+  coefficientSets: UsedCoefficientSet[];
+};
+
+/** The verdicts as they stand now, from the current readings, zones, targets and the organisation's rule. */
+export function liveCompliance(db: Db, organizationId: number, survey: SurveyRow, rule: AcceptanceRule = decisionRuleOf(db, organizationId)) {
+  const plans = loadSitePlans(db, organizationId, survey.siteId);
+  const allReadings = loadCurrentReadings(db, survey);
+  // Zones of every plan of the site share the site frame of the log's x_m, y_m (issue 5).
+  const result = judgeZones({ zones: plans.flatMap((p) => p.zones), readings: allReadings, rule, daylightExcluded: survey.conditions?.daylightExcluded ?? false });
+  if (plans.length === 0) result.warnings.unshift('This site has no plan with zones yet: draw zones to get verdicts.');
+  if (survey.activeDecodeId === null) result.warnings.unshift('This survey has no decoded readings yet.');
+  return { rule, result, readings: allReadings };
+}
+
+/** Builds the snapshot a sign-off freezes. */
+export function buildFrozen(db: Db, organizationId: number, survey: SurveyRow, at: number): FrozenCompliance {
+  const { rule, result, readings } = liveCompliance(db, organizationId, survey);
+  const targetIds = [...new Set(result.zones.map((z) => z.targetId).filter((id): id is number => id !== null))];
+  const targets = targetIds.map((id) => getVisibleTarget(db, organizationId, id)).filter((t) => t !== undefined).map(presentTarget);
+  return {
+    version: 1, frozenAt: at, rule, ruleText: RULE_TEXT[rule], gridRule: GRID_RULE, decodeId: survey.activeDecodeId,
+    hasDaylightReference: result.hasDaylightReference, unassignedPoints: result.unassignedPoints, warnings: result.warnings,
+    zones: result.zones, targets, coefficientSets: loadUsedCoefficientSets(db, readings),
+  };
+}
+
+export function frozenOf(survey: SurveyRow): FrozenCompliance | null {
+  return survey.status === 'signed_off' && survey.frozen ? (survey.frozen as FrozenCompliance) : null;
+}
+
+export function countVerdicts(zones: Pick<ZoneCompliance, 'verdict'>[]): ComplianceCounts {
+  const counts: ComplianceCounts = { meets: 0, falls_short: 0, inconclusive: 0, not_assessed: 0 };
+  for (const z of zones) counts[z.verdict]++;
+  return counts;
+}
+
+/** The signed-off survey of the same site just before this one (by start date, then creation). */
+export function previousSignedOff(db: Db, survey: SurveyRow): SurveyRow | null {
+  const candidates = db.select().from(surveys)
+    .where(and(eq(surveys.siteId, survey.siteId), eq(surveys.organizationId, survey.organizationId), eq(surveys.status, 'signed_off'), ne(surveys.id, survey.id)))
+    .orderBy(desc(sql`coalesce(${surveys.startedOn}, '')`), desc(surveys.createdAt), desc(surveys.id)).all();
+  const key = (s: SurveyRow) => `${s.startedOn ?? ''}|${String(s.createdAt).padStart(16, '0')}|${String(s.id).padStart(10, '0')}`;
+  return candidates.find((c) => key(c) < key(survey)) ?? null;
+}
+
+const strip = ({ polygon: _p, readingIds: _r, wallBandReadingIds: _w, ...zone }: JudgedZone): ZoneCompliance => zone;
+
+/** The verdicts and judged zones of a survey: frozen if signed off, else live. */
+export function surveyVerdicts(db: Db, survey: SurveyRow) {
+  const frozen = frozenOf(survey);
+  if (frozen) return { rule: frozen.rule, zones: frozen.zones, unassignedPoints: frozen.unassignedPoints, hasDaylightReference: frozen.hasDaylightReference, warnings: frozen.warnings, frozen };
+  const { rule, result } = liveCompliance(db, survey.organizationId, survey);
+  return { rule, zones: result.zones, unassignedPoints: result.unassignedPoints, hasDaylightReference: result.hasDaylightReference, warnings: result.warnings, frozen: null };
+}
+
+export function complianceOf(db: Db, survey: SurveyRow): ComplianceResponse {
+  const v = surveyVerdicts(db, survey);
+  const prev = previousSignedOff(db, survey);
+  const prevZones = prev ? frozenOf(prev)?.zones ?? [] : [];
+  const zones = v.zones.map((z) => {
+    const zone = strip(z);
+    const before = prevZones.find((p) => p.zoneId === z.zoneId);
+    if (!before) return zone;
+    return {
+      ...zone,
+      change: {
+        previousEavg: before.eavg,
+        deltaEavg: before.eavg !== null && z.eavg !== null ? z.eavg - before.eavg : null,
+        previousVerdict: before.verdict,
+        verdictChanged: before.verdict !== z.verdict,
+      },
+    };
+  });
+  return {
+    surveyId: survey.id, surveyName: survey.name, status: survey.status, rule: v.rule, ruleText: RULE_TEXT[v.rule], gridRule: v.frozen?.gridRule ?? GRID_RULE,
+    frozen: v.frozen !== null, frozenAt: v.frozen ? new Date(v.frozen.frozenAt).toISOString() : null, hasDaylightReference: v.hasDaylightReference,
+    counts: countVerdicts(zones), zones, unassignedPoints: v.unassignedPoints,
+    previous: prev ? { surveyId: prev.id, name: prev.name, signedOffAt: prev.signedOffAt ? new Date(prev.signedOffAt).toISOString() : null } : null,
+    warnings: v.warnings,
+  };
+}
+
+export function getCompliance(db: Db, user: SessionUser, surveyId: number): ComplianceResponse {
+  return complianceOf(db, getSurveyRow(db, user, surveyId));
+}
+
+/** One zone with its points (wall-band points shown, marked), statistics, target and source. */
+export function getZoneDetail(db: Db, user: SessionUser, surveyId: number, zoneId: number): ZoneDetailResponse {
+  const survey = getSurveyRow(db, user, surveyId);
+  const compliance = complianceOf(db, survey);
+  const zone = compliance.zones.find((z) => z.zoneId === zoneId);
+  const judged = surveyVerdicts(db, survey).zones.find((z) => z.zoneId === zoneId);
+  if (!zone || !judged) throw notFound('Zone of this survey');
+  const wallBand = new Set(judged.wallBandReadingIds);
+  const pointReadings = loadReadingsById(db, survey.id, [...judged.readingIds, ...judged.wallBandReadingIds]);
+  return {
+    surveyId: survey.id, rule: compliance.rule, ruleText: compliance.ruleText, gridRule: compliance.gridRule, frozen: compliance.frozen,
+    zone, polygon: judged.polygon,
+    points: pointReadings.filter((r) => r.xM !== null && r.yM !== null).map((r) => ({
+      readingId: r.id, point: r.point, xM: r.xM as number, yM: r.yM as number, timestamp: new Date(r.timeMs).toISOString(),
+      lux: r.lux, uLux: r.uLux, luxBound: r.luxBound, flag: r.flag, inWallBand: wallBand.has(r.id),
+    })),
+  };
+}
+
+/** Each site the caller may see with its latest survey and that survey's verdict counts. */
+export function sitesOverview(db: Db, user: SessionUser): SitesOverviewResponse {
+  const siteRows = db.select().from(sites).where(and(...siteConditions(db, user))).orderBy(sites.name).all();
+  const orgRule = decisionRuleOf(db, user.organizationId);
+  const items = siteRows.map((site) => {
+    // The latest survey with readings: a fresh empty draft says nothing about the rooms yet.
+    const latest = db.select().from(surveys).where(eq(surveys.siteId, site.id))
+      .orderBy(desc(sql`${surveys.activeDecodeId} is not null`), desc(sql`coalesce(${surveys.startedOn}, '')`), desc(surveys.createdAt), desc(surveys.id)).get();
+    if (!latest) return { siteId: site.id, name: site.name, address: site.address, latestSurvey: null, counts: null, rule: null };
+    const v = surveyVerdicts(db, latest);
+    return {
+      siteId: site.id, name: site.name, address: site.address,
+      latestSurvey: { id: latest.id, name: latest.name, status: latest.status, startedOn: latest.startedOn },
+      counts: countVerdicts(v.zones), rule: v.rule,
+    };
+  });
+  return { items, rule: orgRule, ruleText: RULE_TEXT[orgRule] };
+}

@@ -1,0 +1,49 @@
+import { eq } from 'drizzle-orm';
+import type { Db } from '../../db/client';
+import { organizations, users } from '../../db/schema/organizations';
+import { sites } from '../../db/schema/surveys';
+import type { ComplianceResponse } from '@shared/schemas/compliance';
+import type { SurveyRow } from '../surveys/surveys-service';
+import { complianceOf, surveyVerdicts } from '../compliance/compliance-service';
+import { loadCurrentReadings, loadReadingsById, loadUsedCoefficientSets, type UsedCoefficientSet } from '../compliance/compliance-repository';
+import type { JudgedZone, JudgeReading } from '../compliance/judge-zones';
+
+export type ReportData = {
+  organizationName: string;
+  site: { name: string; address: string | null; timeZone: string };
+  survey: SurveyRow;
+  submittedByName: string | null;
+  signedOffByName: string | null;
+  compliance: ComplianceResponse;
+  /** Judged zones in the summary's order, with their outlines and the readings they used. */
+  zones: (JudgedZone & { readings: JudgeReading[]; wallBandReadings: JudgeReading[] })[];
+  coefficientSets: UsedCoefficientSet[];
+  generatedAt: number;
+};
+
+const nameOf = (db: Db, id: number | null) => (id === null ? null : db.select({ name: users.name }).from(users).where(eq(users.id, id)).get()?.name ?? null);
+
+/** Everything the PDF and CSV exports show, from the frozen sign-off when there is one. */
+export function loadReportData(db: Db, survey: SurveyRow, now: number): ReportData {
+  const site = db.select().from(sites).where(eq(sites.id, survey.siteId)).get()!;
+  const org = db.select().from(organizations).where(eq(organizations.id, survey.organizationId)).get()!;
+  const compliance = complianceOf(db, survey);
+  const verdicts = surveyVerdicts(db, survey);
+  const byId = new Map(verdicts.zones.map((z) => [z.zoneId, z]));
+  const zones = compliance.zones.map((c) => {
+    const z = byId.get(c.zoneId)!;
+    return { ...z, change: c.change, readings: loadReadingsById(db, survey.id, z.readingIds), wallBandReadings: loadReadingsById(db, survey.id, z.wallBandReadingIds) };
+  });
+  const coefficientSets = verdicts.frozen?.coefficientSets ?? loadUsedCoefficientSets(db, loadCurrentReadings(db, survey));
+  return {
+    organizationName: org.name,
+    site: { name: site.name, address: site.address, timeZone: site.timeZone },
+    survey,
+    submittedByName: nameOf(db, survey.submittedBy),
+    signedOffByName: nameOf(db, survey.signedOffBy),
+    compliance,
+    zones,
+    coefficientSets,
+    generatedAt: now,
+  };
+}

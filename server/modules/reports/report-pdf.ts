@@ -1,0 +1,312 @@
+import PDFDocument from 'pdfkit';
+import { createRequire } from 'node:module';
+import { luxToFootcandles } from '@shared/core/units';
+import { COVERAGE_K } from '@shared/core/uncertainty';
+import { CONFIDENCE_LABELS } from '@shared/schemas/targets';
+import { VERDICT_LABELS, type ZoneVerdict } from '@shared/schemas/compliance';
+import type { ReportData } from './report-data';
+
+const require = createRequire(import.meta.url);
+/** The shipped typeface (Instrument Sans, SIL OFL), embedded from @fontsource's WOFF files. */
+const FONT_REGULAR = require.resolve('@fontsource/instrument-sans/files/instrument-sans-latin-400-normal.woff');
+const FONT_BOLD = require.resolve('@fontsource/instrument-sans/files/instrument-sans-latin-600-normal.woff');
+
+export type ReportUnit = 'lx' | 'fc';
+
+/** Luxtrail's verdict palette for print: each verdict is also written out, never shown by colour alone. */
+const VERDICT_COLOURS: Record<ZoneVerdict, string> = { meets: '#2d6a4f', falls_short: '#b42318', inconclusive: '#a15c07', not_assessed: '#5b616e' };
+const INK = '#1d2330';
+const MUTED = '#5b616e';
+const RULE_LINE = '#c9ced8';
+
+export const REPORT_CAUTIONS = [
+  'This report supports decisions about lighting; it does not certify emergency lighting or replace the judgement of a qualified lighting professional.',
+  'Local codes and regulations take precedence over the generic targets of the Luxtrail library. Where stairs, exits, emergency routes or machinery are concerned, have the results reviewed by a qualified professional.',
+  'Targets marked "from memory" or "secondary source" have not been checked against the published standard: confirm them before relying on a verdict.',
+];
+
+export const UNCERTAINTY_STATEMENT =
+  `Uncertainties are expanded uncertainties U = k * u_c with coverage factor k = ${COVERAGE_K} (about 95 % for a normal distribution), `
+  + 'combined from calibration, quantisation, dark offset, temperature and, for analog probes, transmitter accuracy (JCGM 100:2008, the GUM). '
+  + 'The uncertainty of a zone average keeps the calibration part undiminished, since every point shares it.';
+
+const A4 = { width: 595.28, height: 841.89 };
+const MARGIN = 48;
+const CONTENT_W = A4.width - 2 * MARGIN;
+
+/** Renders the survey report as a PDF (pdfkit, vector drawings, embedded font). */
+export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Promise<Buffer> {
+  const doc = new PDFDocument({ size: 'A4', margin: MARGIN, bufferPages: true, info: { Title: `${data.site.name}: ${data.survey.name}`, Author: data.organizationName, Creator: 'Luxtrail' } });
+  doc.registerFont('body', FONT_REGULAR);
+  doc.registerFont('bold', FONT_BOLD);
+  const chunks: Buffer[] = [];
+  doc.on('data', (c: Buffer) => chunks.push(c));
+  const done = new Promise<Buffer>((resolve, reject) => {
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+    doc.on('error', reject);
+  });
+
+  const u = (lux: number | null | undefined) => formatIlluminance(lux, unit);
+  const uWith = (lux: number | null, U: number | null) => (lux === null ? 'n/a' : U === null ? u(lux) : `${u(lux)} +/- ${u(U)}`);
+  const when = (ms: number | null) => (ms === null ? 'n/a' : formatDateTime(ms, data.site.timeZone));
+  const c = data.compliance;
+
+  // Title and status.
+  doc.font('bold').fontSize(20).fillColor(INK).text('Illuminance survey report');
+  doc.moveDown(0.3).font('body').fontSize(12).fillColor(MUTED).text(`${data.organizationName}`);
+  doc.moveDown(0.8);
+  keyValues(doc, [
+    ['Site', `${data.site.name}${data.site.address ? `, ${data.site.address}` : ''}`],
+    ['Survey', data.survey.name],
+    ['Surveyed on', data.survey.startedOn ?? 'not stated'],
+    ['Status', statusLine(data, when)],
+    ['Report generated', when(data.generatedAt)],
+    ['Values in', unit === 'fc' ? 'foot-candles (1 fc = 10.7639 lx)' : 'lux'],
+  ]);
+  if (!c.frozen) {
+    doc.moveDown(0.5).font('bold').fontSize(10).fillColor(VERDICT_COLOURS.falls_short)
+      .text('Not signed off: these verdicts are provisional and change if readings, zones, targets or the decision rule change.');
+  }
+
+  section(doc, 'Conditions');
+  const cond = data.survey.conditions;
+  doc.font('body').fontSize(10).fillColor(INK)
+    .text(cond ? `${cond.daylightExcluded ? 'Daylight excluded (electric lighting only).' : 'Daylight present during the survey.'}${cond.notes ? ` ${cond.notes}` : ''}` : 'No conditions recorded.');
+  doc.text(c.hasDaylightReference ? 'An outdoor reference probe logged during the survey: daylight factors are given where the pairing in time could be trusted.' : 'No outdoor reference probe: no daylight factor is given.');
+
+  section(doc, 'Method');
+  const heights = [...new Set(data.zones.map((z) => z.planeHeightM))].sort((a, b) => a - b);
+  keyValues(doc, [
+    ['Working plane', heights.length ? heights.map((h) => `${h.toFixed(2)} m`).join(', ') : 'n/a'],
+    ['Grid rule', c.gridRule],
+    ['Wall band', 'Points closer to a room\'s outline than its wall band are shown but left out of the statistics (EN 12464-1); task areas keep theirs.'],
+    ['Statistics', 'Eavg, Emin, Emax and U0 = Emin / Eavg per zone (EN 12464-1); over- and under-range points enter only as bounds.'],
+    ['Decision rule', c.ruleText],
+  ]);
+
+  section(doc, 'Summary');
+  const counts = c.counts;
+  doc.font('body').fontSize(10).fillColor(INK)
+    .text(`${counts.meets} zone(s) meet their target, ${counts.falls_short} fall short, ${counts.inconclusive} inconclusive, ${counts.not_assessed} not assessed.`);
+  if (c.previous) doc.text(`Compared with "${c.previous.name}", the previous signed-off survey of this site.`);
+  doc.moveDown(0.5);
+  table(doc, [
+    { title: 'Zone', width: 112 },
+    { title: 'Target Em / U0', width: 72 },
+    { title: 'Eavg +/- U', width: 82 },
+    { title: 'Emin', width: 44 },
+    { title: 'U0', width: 34 },
+    { title: 'Points', width: 44 },
+    { title: 'Verdict', width: 68 },
+    { title: 'Change', width: CONTENT_W - 456 },
+  ], data.zones.map((z) => [
+    `${z.name} (${z.planName})`,
+    z.targetLux === null ? 'none' : `${u(z.targetLux)} / ${z.targetU0 ?? '-'}`,
+    uWith(z.eavg, z.uEavg),
+    u(z.emin),
+    z.u0 === null ? 'n/a' : z.u0.toFixed(2),
+    `${z.points} / ${z.requiredPoints}`,
+    { text: VERDICT_LABELS[z.verdict], colour: VERDICT_COLOURS[z.verdict] },
+    z.change ? `${z.change.deltaEavg === null ? 'n/a' : signed(z.change.deltaEavg, unit)}${z.change.verdictChanged ? `, was ${VERDICT_LABELS[z.change.previousVerdict].toLowerCase()}` : ''}` : '-',
+  ]));
+  if (c.warnings.length) {
+    doc.moveDown(0.5).font('bold').fontSize(9).fillColor(INK).text('Notes');
+    doc.font('body').fontSize(9).fillColor(MUTED);
+    for (const w of c.warnings) doc.text(`- ${w}`);
+  }
+  doc.moveDown(0.5).font('body').fontSize(8.5).fillColor(MUTED).text(`Decision rule: ${c.ruleText}`);
+
+  // A page per zone.
+  for (const z of data.zones) {
+    doc.addPage();
+    doc.font('bold').fontSize(15).fillColor(INK).text(z.name);
+    doc.font('body').fontSize(10).fillColor(MUTED).text(`${z.planName} - ${z.kind.replace('_', ' ')} - use type ${z.useType} - working plane ${z.planeHeightM.toFixed(2)} m`);
+    doc.moveDown(0.4).font('bold').fontSize(12).fillColor(VERDICT_COLOURS[z.verdict]).text(VERDICT_LABELS[z.verdict]);
+    doc.moveDown(0.3);
+    drawZonePlan(doc, z, u);
+    keyValues(doc, [
+      ['Target', z.targetName ? `${z.targetName}: Em ${u(z.targetLux)}${z.targetU0 !== null ? `, U0 ${z.targetU0}` : ''}${z.dfTargetPercent ? `, DF ${z.dfTargetPercent} %` : ''}` : 'none in the library'],
+      ['Source', z.targetSource ? `${z.targetSource} (${CONFIDENCE_LABELS[z.targetConfidence!]})` : 'n/a'],
+      ['Eavg', uWith(z.eavg, z.uEavg) + boundNote(z.bounds.eavg)],
+      ['Emin / Emax', `${u(z.emin)}${boundNote(z.bounds.emin)} / ${u(z.emax)}`],
+      ['U0 = Emin / Eavg', z.u0 === null ? 'n/a' : z.u0.toFixed(2) + boundNote(z.bounds.u0)],
+      ['Points', `${z.points} used, ${z.requiredPoints} required by the grid rule, ${z.wallBandPoints} in the wall band`],
+      ...(z.dfAvg !== undefined ? [['Daylight factor', `${z.dfAvg.toFixed(1)} % average${z.dfWarning ? ` (${z.dfWarning})` : ''}`] as [string, string]] : []),
+      ...(z.change ? [['Previous survey', `Eavg ${u(z.change.previousEavg)}, ${VERDICT_LABELS[z.change.previousVerdict].toLowerCase()}`] as [string, string]] : []),
+    ]);
+    doc.moveDown(0.4).font('bold').fontSize(9.5).fillColor(INK).text('Why');
+    doc.font('body').fontSize(9).fillColor(INK);
+    for (const r of z.reasons) doc.text(`- ${r}`, { width: CONTENT_W });
+    doc.moveDown(0.3).font('body').fontSize(8.5).fillColor(MUTED).text(`Decision rule: ${c.ruleText}`);
+  }
+
+  // Probes, calibration, uncertainty, cautions.
+  doc.addPage();
+  section(doc, 'Probes and calibration', true);
+  if (data.coefficientSets.length === 0) doc.font('body').fontSize(10).fillColor(INK).text('No decoded readings.');
+  else {
+    table(doc, [
+      { title: 'Probe', width: 70 },
+      { title: 'Kind', width: 64 },
+      { title: 'Set', width: 34 },
+      { title: 'Certificate', width: 112 },
+      { title: 'Effective from', width: 80 },
+      { title: 'Due', width: 80 },
+      { title: 'Readings', width: CONTENT_W - 440 },
+    ], data.coefficientSets.map((s) => [
+      s.probeSerial, s.probeKind.replace(/_/g, ' '), `v${s.version}`, s.certificateNumber, formatDate(s.effectiveFrom, data.site.timeZone),
+      { text: formatDate(s.dueDate, data.site.timeZone) + (surveyTime(data) > s.dueDate ? ' (lapsed)' : ''), colour: surveyTime(data) > s.dueDate ? VERDICT_COLOURS.falls_short : INK },
+      String(s.readings),
+    ]));
+    doc.moveDown(0.5).font('bold').fontSize(9.5).fillColor(INK).text('Coefficient sets');
+    doc.font('body').fontSize(8.5).fillColor(INK);
+    for (const s of data.coefficientSets) {
+      const gains = s.gains.map((g) => `g${g.code}: dark ${g.darkCounts}, ${g.luxPerCount.toPrecision(4)} lx/count, u ${(g.uRel * 100).toFixed(1)} %`).join('; ');
+      doc.text(`${s.probeSerial} v${s.version} (tRef ${s.tRefMs} ms, alpha ${s.alphaPerK}/K, Tcal ${s.tCalC} C): ${gains}`, { width: CONTENT_W });
+    }
+  }
+  section(doc, 'Uncertainty');
+  doc.font('body').fontSize(10).fillColor(INK).text(UNCERTAINTY_STATEMENT, { width: CONTENT_W });
+  section(doc, 'Cautions');
+  doc.font('body').fontSize(10).fillColor(INK);
+  for (const caution of REPORT_CAUTIONS) doc.text(`- ${caution}`, { width: CONTENT_W }).moveDown(0.2);
+
+  // Footer on every page.
+  const range = doc.bufferedPageRange();
+  for (let i = range.start; i < range.start + range.count; i++) {
+    doc.switchToPage(i);
+    doc.font('body').fontSize(8).fillColor(MUTED)
+      .text(`${data.site.name} - ${data.survey.name} - page ${i + 1} of ${range.count}`, MARGIN, A4.height - MARGIN + 14, { width: CONTENT_W, align: 'center', lineBreak: false });
+  }
+  doc.end();
+  return done;
+}
+
+function surveyTime(data: ReportData): number {
+  const times = data.zones.flatMap((z) => z.readings.map((r) => r.timeMs));
+  return times.length ? Math.max(...times) : data.generatedAt;
+}
+
+function statusLine(data: ReportData, when: (ms: number | null) => string): string {
+  const s = data.survey;
+  if (s.status === 'signed_off') return `Signed off by ${data.signedOffByName ?? 'unknown'} on ${when(s.signedOffAt)}`;
+  if (s.status === 'submitted') return `Submitted by ${data.submittedByName ?? 'unknown'} on ${when(s.submittedAt)}, awaiting sign-off`;
+  if (s.status === 'returned') return `Returned for changes${s.reviewComment ? `: ${s.reviewComment}` : ''}`;
+  return 'Draft';
+}
+
+const boundNote = (b: string | null) => (b === 'lower' ? ' (a lower bound)' : b === 'upper' ? ' (an upper bound)' : b === 'indeterminate' ? ' (indeterminate)' : '');
+
+export function formatIlluminance(lux: number | null | undefined, unit: ReportUnit): string {
+  if (lux === null || lux === undefined || !Number.isFinite(lux)) return 'n/a';
+  const v = unit === 'fc' ? luxToFootcandles(lux) : lux;
+  const digits = Math.abs(v) >= 100 ? 0 : Math.abs(v) >= 10 ? 1 : 2;
+  return `${v.toFixed(digits)} ${unit}`;
+}
+
+function signed(lux: number, unit: ReportUnit): string {
+  return `${lux >= 0 ? '+' : '-'}${formatIlluminance(Math.abs(lux), unit)}`;
+}
+
+function formatDateTime(ms: number, timeZone: string): string {
+  return new Intl.DateTimeFormat('en-GB', { timeZone, dateStyle: 'medium', timeStyle: 'short' }).format(ms) + ` (${timeZone})`;
+}
+
+function formatDate(ms: number, timeZone: string): string {
+  return new Intl.DateTimeFormat('en-GB', { timeZone, dateStyle: 'medium' }).format(ms);
+}
+
+function section(doc: PDFKit.PDFDocument, title: string, first = false) {
+  if (!first) doc.moveDown(1);
+  if (doc.y > A4.height - MARGIN - 80) doc.addPage();
+  doc.font('bold').fontSize(13).fillColor(INK).text(title, MARGIN);
+  const y = doc.y + 2;
+  doc.moveTo(MARGIN, y).lineTo(MARGIN + CONTENT_W, y).lineWidth(0.5).strokeColor(RULE_LINE).stroke();
+  doc.moveDown(0.4);
+}
+
+function keyValues(doc: PDFKit.PDFDocument, rows: [string, string][]) {
+  const keyW = 120;
+  for (const [k, v] of rows) {
+    const y = doc.y;
+    const h = Math.max(doc.font('body').fontSize(10).heightOfString(v, { width: CONTENT_W - keyW }), 12);
+    if (y + h > A4.height - MARGIN) doc.addPage();
+    const top = doc.y;
+    doc.font('bold').fontSize(10).fillColor(MUTED).text(k, MARGIN, top, { width: keyW - 8 });
+    doc.font('body').fontSize(10).fillColor(INK).text(v, MARGIN + keyW, top, { width: CONTENT_W - keyW });
+    doc.y = Math.max(doc.y, top + h) + 3;
+  }
+  doc.x = MARGIN;
+}
+
+type Cell = string | { text: string; colour: string };
+
+function table(doc: PDFKit.PDFDocument, columns: { title: string; width: number }[], rows: Cell[][]) {
+  const pad = 3;
+  const drawRow = (cells: Cell[], header: boolean) => {
+    doc.font(header ? 'bold' : 'body').fontSize(8.5);
+    const heights = cells.map((cell, i) => doc.heightOfString(typeof cell === 'string' ? cell : cell.text, { width: columns[i].width - 2 * pad }));
+    const h = Math.max(...heights) + 2 * pad;
+    if (doc.y + h > A4.height - MARGIN - 10) {
+      doc.addPage();
+      if (!header) drawRow(columns.map((col) => col.title), true);
+    }
+    const top = doc.y;
+    let x = MARGIN;
+    cells.forEach((cell, i) => {
+      const text = typeof cell === 'string' ? cell : cell.text;
+      doc.fillColor(header ? MUTED : typeof cell === 'string' ? INK : cell.colour).text(text, x + pad, top + pad, { width: columns[i].width - 2 * pad });
+      x += columns[i].width;
+    });
+    doc.moveTo(MARGIN, top + h).lineTo(MARGIN + CONTENT_W, top + h).lineWidth(0.4).strokeColor(RULE_LINE).stroke();
+    doc.x = MARGIN;
+    doc.y = top + h;
+  };
+  drawRow(columns.map((col) => col.title), true);
+  for (const r of rows) drawRow(r, false);
+  doc.moveDown(0.3);
+}
+
+/** The zone's outline and its points, drawn to scale as vector graphics, with a scale bar. */
+function drawZonePlan(doc: PDFKit.PDFDocument, z: ReportData['zones'][number], u: (lux: number | null) => string) {
+  const boxW = CONTENT_W;
+  const boxH = 250;
+  const top = doc.y;
+  const xs = z.polygon.map((p) => p[0]);
+  const ys = z.polygon.map((p) => p[1]);
+  const minX = Math.min(...xs), maxX = Math.max(...xs), minY = Math.min(...ys), maxY = Math.max(...ys);
+  const pad = 16;
+  const s = Math.min((boxW - 2 * pad) / Math.max(maxX - minX, 0.1), (boxH - 2 * pad - 14) / Math.max(maxY - minY, 0.1));
+  const ox = MARGIN + pad + ((boxW - 2 * pad) - (maxX - minX) * s) / 2;
+  const oy = top + pad;
+  const tx = (x: number) => ox + (x - minX) * s;
+  const ty = (y: number) => oy + (maxY - y) * s;
+
+  doc.rect(MARGIN, top, boxW, boxH).lineWidth(0.4).strokeColor(RULE_LINE).stroke();
+  doc.polygon(...z.polygon.map((p) => [tx(p[0]), ty(p[1])] as [number, number])).lineWidth(1.2).strokeColor(INK).stroke();
+
+  const target = z.targetLux;
+  const label = z.readings.length + z.wallBandReadings.length <= 80;
+  for (const r of z.readings) {
+    if (r.xM === null || r.yM === null) continue;
+    const below = target !== null && r.lux !== null && r.lux < target;
+    doc.circle(tx(r.xM), ty(r.yM), 2.6).fillColor(r.lux === null ? MUTED : below ? VERDICT_COLOURS.falls_short : VERDICT_COLOURS.meets).fill();
+    if (label) doc.font('body').fontSize(5.5).fillColor(INK).text(r.lux === null ? 'fault' : u(r.lux).replace(/ (lx|fc)$/, ''), tx(r.xM) + 3.5, ty(r.yM) - 3, { lineBreak: false });
+  }
+  for (const r of z.wallBandReadings) {
+    if (r.xM === null || r.yM === null) continue;
+    doc.circle(tx(r.xM), ty(r.yM), 2.6).lineWidth(0.7).strokeColor(MUTED).stroke();
+  }
+
+  // Scale bar: a round length near a fifth of the drawing.
+  const niceM = [0.5, 1, 2, 5, 10, 20, 50, 100].find((m) => m * s >= (boxW - 2 * pad) / 6) ?? 100;
+  const barY = top + boxH - 10;
+  doc.moveTo(MARGIN + pad, barY).lineTo(MARGIN + pad + niceM * s, barY).lineWidth(1.5).strokeColor(INK).stroke();
+  doc.font('body').fontSize(7).fillColor(INK).text(`${niceM} m`, MARGIN + pad + niceM * s + 4, barY - 4, { lineBreak: false });
+  doc.font('body').fontSize(7).fillColor(MUTED).text(
+    target !== null ? 'Filled green: at or above Em; filled red: below Em; hollow: wall band (left out); grey: fault.' : 'Filled: points used; hollow: wall band (left out).',
+    MARGIN + boxW / 2 - 40, barY - 4, { width: boxW / 2 + 30, align: 'right', lineBreak: false },
+  );
+  doc.x = MARGIN;
+  doc.y = top + boxH + 8;
+}

@@ -1,0 +1,145 @@
+import { and, asc, eq, isNull, or } from 'drizzle-orm';
+import type { Deps } from '../../deps';
+import type { Db } from '../../db/client';
+import { targets } from '../../db/schema/targets';
+import { plans, zones } from '../../db/schema/plans';
+import { sites } from '../../db/schema/surveys';
+import { luxToFootcandles } from '@shared/core/units';
+import type { SessionUser } from '@shared/schemas/auth';
+import type { CreateTargetBody, TargetEntry, UpdateTargetBody, ZoneTargetResponse } from '@shared/schemas/targets';
+import { badRequest, conflict, forbidden, notFound } from '../../http/errors';
+import { recordAudit } from '../audit/audit-service';
+import { emToLux, SHIPPED_TARGETS } from './target-library';
+
+type TargetRow = typeof targets.$inferSelect;
+
+export function presentTarget(row: TargetRow): TargetEntry {
+  return {
+    id: row.id,
+    useType: row.useType,
+    name: row.name,
+    emLux: row.emLux,
+    sourceUnit: row.sourceUnit,
+    // Round away float noise of the fc -> lx -> fc trip (the stored lux came from the fc value).
+    emSourceValue: row.sourceUnit === 'fc' ? Number(luxToFootcandles(row.emLux).toPrecision(10)) : row.emLux,
+    u0Min: row.u0Min,
+    ...(row.dfTargetPercent !== null ? { dfTargetPercent: row.dfTargetPercent } : {}),
+    source: row.source,
+    confidence: row.confidence,
+    shipped: row.organizationId === null,
+  };
+}
+
+const visibleTo = (organizationId: number) => or(isNull(targets.organizationId), eq(targets.organizationId, organizationId));
+
+/** Shipped entries and the organisation's own, own entries first within a use type. */
+export function listTargets(db: Db, organizationId: number): TargetEntry[] {
+  return db.select().from(targets).where(visibleTo(organizationId)).orderBy(asc(targets.useType), asc(targets.id)).all()
+    .sort((a, b) => a.useType.localeCompare(b.useType) || Number(a.organizationId === null) - Number(b.organizationId === null))
+    .map(presentTarget);
+}
+
+export function getVisibleTarget(db: Db, organizationId: number, id: number): TargetRow | undefined {
+  return db.select().from(targets).where(and(eq(targets.id, id), visibleTo(organizationId))).get();
+}
+
+function assertUseTypeFree(db: Db, organizationId: number, useType: string, exceptId?: number) {
+  const clash = db.select({ id: targets.id }).from(targets).where(and(eq(targets.organizationId, organizationId), eq(targets.useType, useType))).all()
+    .find((r) => r.id !== exceptId);
+  if (clash) throw conflict(`Your organisation already has an entry for use type "${useType}" (target ${clash.id}); edit that one instead`, { targetId: clash.id });
+}
+
+export function createTarget(deps: Deps, actor: SessionUser, body: CreateTargetBody): TargetEntry {
+  assertUseTypeFree(deps.db, actor.organizationId, body.useType);
+  const now = deps.clock.now();
+  const row = deps.db.transaction((tx) => {
+    const created = tx.insert(targets).values({
+      organizationId: actor.organizationId, useType: body.useType, name: body.name, emLux: emToLux(body.emValue, body.sourceUnit),
+      sourceUnit: body.sourceUnit, u0Min: body.u0Min, dfTargetPercent: body.dfTargetPercent, source: body.source, confidence: body.confidence, createdAt: now,
+    }).returning().get();
+    recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'target', entityId: created.id, action: 'created', after: created, at: now });
+    return created;
+  });
+  return presentTarget(row);
+}
+
+export function updateTarget(deps: Deps, actor: SessionUser, id: number, body: UpdateTargetBody): TargetEntry {
+  const before = getVisibleTarget(deps.db, actor.organizationId, id);
+  if (!before) throw notFound('Target');
+  if (before.organizationId === null) {
+    throw forbidden('Shipped library entries are read-only; add your own entry for this use type (e.g. a client\'s specification) instead');
+  }
+  if (body.useType && body.useType !== before.useType) assertUseTypeFree(deps.db, actor.organizationId, body.useType, id);
+  const unit = body.sourceUnit ?? before.sourceUnit;
+  // Changing only the unit keeps the stated value: 30 lx becomes 30 fc, as the admin sees it.
+  const emValue = body.emValue ?? presentTarget(before).emSourceValue;
+  const set = {
+    ...(body.useType !== undefined ? { useType: body.useType } : {}),
+    ...(body.name !== undefined ? { name: body.name } : {}),
+    ...(body.emValue !== undefined || body.sourceUnit !== undefined ? { emLux: emToLux(emValue, unit), sourceUnit: unit } : {}),
+    ...(body.u0Min !== undefined ? { u0Min: body.u0Min } : {}),
+    ...(body.dfTargetPercent !== undefined ? { dfTargetPercent: body.dfTargetPercent } : {}),
+    ...(body.source !== undefined ? { source: body.source } : {}),
+    ...(body.confidence !== undefined ? { confidence: body.confidence } : {}),
+  };
+  const row = deps.db.transaction((tx) => {
+    const after = tx.update(targets).set(set).where(eq(targets.id, id)).returning().get();
+    recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'target', entityId: id, action: 'updated', before, after, at: deps.clock.now() });
+    return after;
+  });
+  return presentTarget(row);
+}
+
+/** A zone of the caller's organisation (zone -> plan -> site), or 404. */
+export function getOrganizationZone(db: Db, organizationId: number, zoneId: number) {
+  return db.select({ zone: zones, siteId: plans.siteId }).from(zones)
+    .innerJoin(plans, eq(plans.id, zones.planId)).innerJoin(sites, eq(sites.id, plans.siteId))
+    .where(and(eq(zones.id, zoneId), eq(sites.organizationId, organizationId))).get();
+}
+
+/**
+ * The entry a zone is judged against: the zone's chosen entry if it has one, else the
+ * organisation's own entry for its use type, else the shipped one; undefined when none exists.
+ */
+export function resolveZoneTarget(db: Db, organizationId: number, zone: { useType: string; targetId: number | null }): TargetRow | undefined {
+  if (zone.targetId !== null) {
+    const chosen = getVisibleTarget(db, organizationId, zone.targetId);
+    if (chosen) return chosen;
+  }
+  const candidates = db.select().from(targets).where(and(eq(targets.useType, zone.useType), visibleTo(organizationId))).orderBy(asc(targets.id)).all();
+  return candidates.find((t) => t.organizationId === organizationId) ?? candidates.find((t) => t.organizationId === null);
+}
+
+export function zoneTarget(db: Db, organizationId: number, zoneId: number): ZoneTargetResponse {
+  const found = getOrganizationZone(db, organizationId, zoneId);
+  if (!found) throw notFound('Zone');
+  const target = resolveZoneTarget(db, organizationId, found.zone);
+  return { zoneId, useType: found.zone.useType, targetId: found.zone.targetId, target: target ? presentTarget(target) : null };
+}
+
+/** Chooses which library entry a zone is judged against (signed-off surveys keep what they froze). */
+export function setZoneTarget(deps: Deps, actor: SessionUser, zoneId: number, targetId: number | null): ZoneTargetResponse {
+  const found = getOrganizationZone(deps.db, actor.organizationId, zoneId);
+  if (!found) throw notFound('Zone');
+  if (targetId !== null && !getVisibleTarget(deps.db, actor.organizationId, targetId)) {
+    throw badRequest(`Target ${targetId} is not in your organisation's library`, { targetId });
+  }
+  deps.db.transaction((tx) => {
+    tx.update(zones).set({ targetId }).where(eq(zones.id, zoneId)).run();
+    recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'zone', entityId: zoneId, action: 'target_chosen', before: { targetId: found.zone.targetId }, after: { targetId }, at: deps.clock.now() });
+  });
+  return zoneTarget(deps.db, actor.organizationId, zoneId);
+}
+
+/** Inserts the shipped library once (entries without an organisation); returns how many were added. */
+export function seedShippedTargets(db: Db, now: number): number {
+  const existing = new Set(db.select({ useType: targets.useType }).from(targets).where(isNull(targets.organizationId)).all().map((r) => r.useType));
+  const missing = SHIPPED_TARGETS.filter((t) => !existing.has(t.useType));
+  if (missing.length) {
+    db.insert(targets).values(missing.map((t) => ({
+      organizationId: null, useType: t.useType, name: t.name, emLux: emToLux(t.em, t.sourceUnit), sourceUnit: t.sourceUnit,
+      u0Min: t.u0Min, dfTargetPercent: t.dfTargetPercent, source: t.source, confidence: t.confidence, createdAt: now,
+    }))).run();
+  }
+  return missing.length;
+}

@@ -1,0 +1,138 @@
+import { and, eq, inArray } from 'drizzle-orm';
+import type { Deps } from '../../deps';
+import type { Db } from '../../db/client';
+import { surveys } from '../../db/schema/surveys';
+import { userSites, users } from '../../db/schema/organizations';
+import type { SessionUser } from '@shared/schemas/auth';
+import type { SubmitSurveyBody, SignOffBody, ReturnSurveyBody, WorkflowState } from '@shared/schemas/workflow';
+import { VERDICT_LABELS } from '@shared/schemas/compliance';
+import { conflict } from '../../http/errors';
+import { recordAudit } from '../audit/audit-service';
+import { getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
+import { buildFrozen, countVerdicts } from '../compliance/compliance-service';
+import { surveyReportPdf } from '../reports/reports-service';
+
+const SUBMITTABLE = ['draft', 'returned'] as const;
+
+/**
+ * A signed-off survey is read-only, and a submitted one waits for review: a hook for every
+ * service that changes a survey or its readings (409 with the reason).
+ */
+export function assertSurveyEditable(survey: Pick<SurveyRow, 'status' | 'name'>): void {
+  if (survey.status === 'signed_off') throw conflict(`Survey "${survey.name}" is signed off and read-only; start a new survey to record changes`);
+  if (survey.status === 'submitted') throw conflict(`Survey "${survey.name}" is submitted for review; it can change again only if a reviewer returns it`);
+}
+
+function userById(db: Db, id: number | null) {
+  return id === null ? undefined : db.select().from(users).where(eq(users.id, id)).get();
+}
+
+function state(db: Db, surveyId: number, notified: string[]): WorkflowState {
+  const s = db.select().from(surveys).where(eq(surveys.id, surveyId)).get()!;
+  return {
+    surveyId: s.id, status: s.status,
+    submittedAt: s.submittedAt ? new Date(s.submittedAt).toISOString() : null, submittedByName: userById(db, s.submittedBy)?.name ?? null,
+    signedOffAt: s.signedOffAt ? new Date(s.signedOffAt).toISOString() : null, signedOffByName: userById(db, s.signedOffBy)?.name ?? null,
+    reviewComment: s.reviewComment, notified,
+  };
+}
+
+/** Facility managers who may see the site (no site rows: every site), or the admins when there are none. */
+function reviewersOf(db: Db, organizationId: number, siteId: number): { email: string; name: string }[] {
+  const active = db.select().from(users).where(and(eq(users.organizationId, organizationId), eq(users.status, 'active'))).all();
+  const managers = active.filter((u) => u.role === 'facility_manager');
+  const links = managers.length ? db.select().from(userSites).where(inArray(userSites.userId, managers.map((m) => m.id))).all() : [];
+  const inScope = managers.filter((m) => {
+    const mine = links.filter((l) => l.userId === m.id);
+    return mine.length === 0 || mine.some((l) => l.siteId === siteId);
+  });
+  return (inScope.length ? inScope : active.filter((u) => u.role === 'admin')).map((u) => ({ email: u.email, name: u.name }));
+}
+
+/** The surveyor to tell about a review: who submitted it, else who created it. */
+function surveyorOf(db: Db, survey: SurveyRow) {
+  return userById(db, survey.submittedBy ?? survey.createdBy);
+}
+
+export async function submitSurvey(deps: Deps, actor: SessionUser, surveyId: number, body: SubmitSurveyBody): Promise<WorkflowState> {
+  const survey = getSurveyRow(deps.db, actor, surveyId);
+  if (!(SUBMITTABLE as readonly string[]).includes(survey.status)) {
+    throw conflict(`Survey "${survey.name}" is ${survey.status.replace('_', ' ')}: only a draft or a returned survey can be submitted`);
+  }
+  if (survey.activeDecodeId === null) throw conflict(`Survey "${survey.name}" has no decoded readings yet: upload a log before submitting`);
+  const now = deps.clock.now();
+  deps.db.transaction((tx) => {
+    const changed = tx.update(surveys).set({ status: 'submitted', submittedBy: actor.id, submittedAt: now, reviewComment: null })
+      .where(and(eq(surveys.id, survey.id), inArray(surveys.status, [...SUBMITTABLE]))).run();
+    if (changed.changes !== 1) throw conflict('Someone changed this survey at the same moment; reload it and try again');
+    recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'submitted', before: { status: survey.status }, after: { status: 'submitted', note: body.note ?? null }, at: now });
+  });
+  const reviewers = reviewersOf(deps.db, actor.organizationId, survey.siteId);
+  if (reviewers.length) {
+    await deps.mailer.send({
+      to: reviewers.map((r) => r.email), organizationId: actor.organizationId,
+      subject: `Survey submitted for review: ${survey.site.name}, ${survey.name}`,
+      text: `${actor.name} submitted "${survey.name}" at ${survey.site.name} for review.\n${body.note ? `\nTheir note:\n${body.note}\n` : ''}\nOpen it in Luxtrail to sign it off or return it with a comment.\n${deps.config.publicUrl}/compliance/surveys/${survey.id}\n`,
+    });
+  }
+  return state(deps.db, survey.id, reviewers.map((r) => r.email));
+}
+
+/**
+ * Signs a submitted survey off: freezes its verdicts, targets, coefficient sets and decision rule
+ * into surveys.frozen, records it, and e-mails the surveyor (and the signer) the PDF report.
+ */
+export async function signOffSurvey(deps: Deps, actor: SessionUser, surveyId: number, body: SignOffBody): Promise<WorkflowState> {
+  const survey = getSurveyRow(deps.db, actor, surveyId);
+  if (survey.status !== 'submitted') throw conflict(`Survey "${survey.name}" is ${survey.status.replace('_', ' ')}: only a submitted survey can be signed off`);
+  if (survey.submittedBy === actor.id) throw conflict('You submitted this survey; another reviewer must sign it off');
+  const now = deps.clock.now();
+  const frozen = buildFrozen(deps.db, actor.organizationId, survey, now);
+  const signed: SurveyRow = { ...survey, status: 'signed_off', signedOffBy: actor.id, signedOffAt: now, reviewComment: body.comment ?? null, frozen };
+  // Render before committing, so the attached report is exactly what was frozen.
+  const pdf = await surveyReportPdf(deps, signed);
+  deps.db.transaction((tx) => {
+    const changed = tx.update(surveys).set({ status: 'signed_off', signedOffBy: actor.id, signedOffAt: now, reviewComment: body.comment ?? null, frozen })
+      .where(and(eq(surveys.id, survey.id), eq(surveys.status, 'submitted'))).run();
+    if (changed.changes !== 1) throw conflict('Someone changed this survey at the same moment; reload it and try again');
+    recordAudit(tx, {
+      organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'signed_off',
+      before: { status: survey.status },
+      after: { status: 'signed_off', comment: body.comment ?? null, rule: frozen.rule, counts: countVerdicts(frozen.zones), decodeId: frozen.decodeId, targetIds: frozen.targets.map((t) => t.id), coefficientSetIds: frozen.coefficientSets.map((s) => s.id) },
+      at: now,
+    });
+  });
+  const surveyor = surveyorOf(deps.db, survey);
+  const to = [...new Set([surveyor?.email, actor.email].filter((e): e is string => !!e))];
+  const counts = countVerdicts(frozen.zones);
+  await deps.mailer.send({
+    to, organizationId: actor.organizationId,
+    subject: `Survey signed off: ${survey.site.name}, ${survey.name}`,
+    text: `${actor.name} signed off "${survey.name}" at ${survey.site.name}.\n${body.comment ? `\nComment:\n${body.comment}\n` : ''}\n`
+      + `${counts.meets} zone(s) ${VERDICT_LABELS.meets.toLowerCase()}, ${counts.falls_short} ${VERDICT_LABELS.falls_short.toLowerCase()}, ${counts.inconclusive} inconclusive, ${counts.not_assessed} not assessed (decision rule: ${frozen.rule}).\n`
+      + '\nThe signed-off report is attached. The survey is now read-only.\n',
+    attachments: [pdf],
+  });
+  return state(deps.db, survey.id, to);
+}
+
+/** Returns a submitted survey to the surveyor with a comment saying what to change. */
+export async function returnSurvey(deps: Deps, actor: SessionUser, surveyId: number, body: ReturnSurveyBody): Promise<WorkflowState> {
+  const survey = getSurveyRow(deps.db, actor, surveyId);
+  if (survey.status !== 'submitted') throw conflict(`Survey "${survey.name}" is ${survey.status.replace('_', ' ')}: only a submitted survey can be returned`);
+  const now = deps.clock.now();
+  deps.db.transaction((tx) => {
+    const changed = tx.update(surveys).set({ status: 'returned', reviewComment: body.comment }).where(and(eq(surveys.id, survey.id), eq(surveys.status, 'submitted'))).run();
+    if (changed.changes !== 1) throw conflict('Someone changed this survey at the same moment; reload it and try again');
+    recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'returned', before: { status: survey.status }, after: { status: 'returned', comment: body.comment }, at: now });
+  });
+  const surveyor = surveyorOf(deps.db, survey);
+  if (surveyor) {
+    await deps.mailer.send({
+      to: surveyor.email, organizationId: actor.organizationId,
+      subject: `Survey returned for changes: ${survey.site.name}, ${survey.name}`,
+      text: `${actor.name} returned "${survey.name}" at ${survey.site.name} for changes.\n\nComment:\n${body.comment}\n\nYou can add logs and submit it again.\n${deps.config.publicUrl}/compliance/surveys/${survey.id}\n`,
+    });
+  }
+  return state(deps.db, survey.id, surveyor ? [surveyor.email] : []);
+}

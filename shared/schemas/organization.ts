@@ -1,0 +1,23 @@
+import { z } from 'zod';
+
+export const DECISION_RULES = ['simple', 'guarded'] as const;
+export type DecisionRule = (typeof DECISION_RULES)[number];
+
+export const DECISION_RULE_LABELS: Record<DecisionRule, string> = {
+  simple: 'Simple acceptance',
+  guarded: 'Guarded by the expanded uncertainty',
+};
+
+export const organizationSchema = z.object({
+  id: z.number().int(),
+  name: z.string(),
+  decisionRule: z.enum(DECISION_RULES),
+  /** The rule in words (measurement core's RULE_TEXT), printed wherever a verdict is shown. */
+  ruleText: z.string(),
+});
+export type Organization = z.infer<typeof organizationSchema>;
+
+export const updateOrganizationBodySchema = z.object({
+  decisionRule: z.enum(DECISION_RULES, { message: 'Choose "simple" or "guarded"' }),
+});
+export type UpdateOrganizationBody = z.infer<typeof updateOrganizationBodySchema>;
