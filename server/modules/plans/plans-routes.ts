@@ -1,0 +1,44 @@
+import fs from 'node:fs';
+import type { Api } from '../../http/api';
+import type { Deps } from '../../deps';
+import { idParamsSchema } from '@shared/schemas/common';
+import { createPlanFieldsSchema, PLAN_IMAGE_MAX_BYTES, planListResponseSchema, planSchema, surveyMapQuerySchema, surveyMapResponseSchema, updatePlanBodySchema } from '@shared/schemas/plans';
+import { singleFileUpload } from '../../http/upload';
+import { createPlan, getPlan, listPlans, planImage, updatePlan } from './plans-service';
+import { surveyMap } from './survey-map-service';
+
+export function registerPlanRoutes(api: Api, deps: Deps) {
+  api.route({ method: 'get', path: '/sites/:id/plans', access: 'sites.read', tag: 'plans', summary: 'Plans of a site', params: idParamsSchema, response: planListResponseSchema },
+    ({ user, params }) => ({ items: listPlans(deps.db, user, params.id) }));
+
+  api.route({
+    method: 'post', path: '/sites/:id/plans', access: 'plans.write', tag: 'plans', summary: 'Upload a plan image (PNG, JPEG or WebP), optionally with its width in metres',
+    params: idParamsSchema, body: createPlanFieldsSchema, status: 201, response: planSchema,
+    before: singleFileUpload(deps, 'file', Math.min(PLAN_IMAGE_MAX_BYTES, deps.config.uploadLimitBytes)),
+    multipart: { file: 'file', name: 'string', widthM: 'string' },
+  }, ({ user, params, body, req }) => createPlan(deps, user, params.id, req.file!, body));
+
+  api.route({ method: 'get', path: '/plans/:id', access: 'sites.read', tag: 'plans', summary: 'One plan', params: idParamsSchema, response: planSchema },
+    ({ user, params }) => getPlan(deps.db, user, params.id));
+
+  api.route({ method: 'patch', path: '/plans/:id', access: 'plans.write', tag: 'plans', summary: 'Rename a plan or set its scale (width in metres, or two image points and their distance)', params: idParamsSchema, body: updatePlanBodySchema, response: planSchema },
+    ({ user, params, body }) => updatePlan(deps, user, params.id, body));
+
+  api.route({ method: 'get', path: '/plans/:id/image', access: 'sites.read', tag: 'plans', summary: 'The plan image (ETag is its SHA-256)', params: idParamsSchema, produces: 'image/*' },
+    ({ user, params, req, res }) => {
+      const image = planImage(deps, user, params.id);
+      // The image of a plan never changes (a new image is a new plan): revalidation is cheap.
+      res.setHeader('ETag', `"${image.sha256}"`);
+      res.setHeader('Cache-Control', 'private, max-age=3600');
+      res.setHeader('Vary', 'Cookie');
+      if (req.fresh) { res.status(304).end(); return; }
+      res.setHeader('Content-Type', image.contentType);
+      res.setHeader('Content-Length', String(image.size));
+      return new Promise<void>((resolve, reject) => {
+        fs.createReadStream(image.filePath).on('error', reject).pipe(res).on('finish', () => resolve()).on('error', reject);
+      });
+    });
+
+  api.route({ method: 'get', path: '/surveys/:id/map', access: 'surveys.read', tag: 'plans', summary: 'A survey\'s readings on a plan, with zone and wall-band marks and zone averages', params: idParamsSchema, query: surveyMapQuerySchema, response: surveyMapResponseSchema },
+    ({ user, params, query }) => surveyMap(deps.db, user, params.id, query.planId));
+}
