@@ -1,3 +1,5 @@
+import fs from 'node:fs';
+import path from 'node:path';
 import { eq } from 'drizzle-orm';
 import type { Deps } from '../deps';
 import { SEED_STEPS, type SeedContext } from './seed';
@@ -6,6 +8,10 @@ import { DEMO_SITE } from './demo/library-layout';
 import { createSite } from '../modules/sites/sites-service';
 import { createSurvey } from '../modules/surveys/surveys-service';
 import type { SessionUser } from '@shared/schemas/auth';
+import { simulateDemoWalk, toLogCsv } from './demo/simulate-log';
+import { DEMO_ANALOG_PROBE, DEMO_COUNTING_PROBES } from './demo/demo-probes';
+import { loadDecodingCalibration } from '../modules/probes/probe-calibration';
+import { uploadLog } from '../modules/imports/imports-service';
 
 /** The demo surveyor, as the seed's actor. */
 function seedActor(ctx: SeedContext, email: string, organizationId: number): SessionUser {
@@ -24,11 +30,27 @@ export async function seedSurveys(deps: Deps, ctx: SeedContext) {
   createSurvey(deps, otherAdmin, { siteId: works.id, name: 'Assembly hall check', startedOn: '2026-09-02', conditions: { daylightExcluded: true } });
 
   const walkthroughs = [
-    { name: 'Spring walk-through 2026', startedOn: '2026-04-15' },
-    { name: 'Autumn walk-through 2026', startedOn: '2026-10-14' },
+    { name: 'Spring walk-through 2026', startedOn: '2026-04-15', startIso: '2026-04-15T08:30:00Z', seed: 415, levelFactor: 1.04, outdoorLux: 18000 },
+    { name: 'Autumn walk-through 2026', startedOn: '2026-10-14', startIso: '2026-10-14T08:30:00Z', seed: 1014, levelFactor: 1, outdoorLux: 11000 },
   ];
+  const serials = [DEMO_COUNTING_PROBES[0].serial, DEMO_COUNTING_PROBES[1].serial, DEMO_ANALOG_PROBE.serial];
+  const calibration = loadDecodingCalibration(deps.db, ctx.demoOrgId);
+  const missing = serials.filter((s) => !calibration.has(s));
   for (const w of walkthroughs) {
     const s = createSurvey(deps, surveyor, { siteId: library.id, name: w.name, startedOn: w.startedOn, conditions: { daylightExcluded: false, notes: 'Overcast; blinds open; roof reference probe logging' } });
+    if (missing.length === 0) {
+      // Through the real import path, so the demo's readings are real decodes.
+      const csv = toLogCsv(simulateDemoWalk({ startMs: Date.parse(w.startIso), seed: w.seed, levelFactor: w.levelFactor, outdoorLux: w.outdoorLux }), DEMO_SITE.timeZone);
+      const dir = path.join(deps.config.dataDir, 'uploads');
+      fs.mkdirSync(dir, { recursive: true });
+      const tmp = path.join(dir, `seed-${s.id}.csv`);
+      fs.writeFileSync(tmp, csv);
+      const { done } = await uploadLog(deps, surveyor, s.id, { path: tmp, originalname: `${w.startedOn}-library-walk.csv`, size: csv.length });
+      const outcome = await done;
+      if (outcome.status !== 'done') console.warn(`Demo log of "${w.name}" was rejected: ${outcome.errors.slice(0, 3).map((e) => `line ${e.line} ${e.column}: ${e.message}`).join('; ')}`);
+    } else {
+      console.warn(`Demo surveys have no logs: probes ${missing.join(', ')} are not seeded (calibration seed step missing?)`);
+    }
     deps.db.update(surveys).set({ status: 'submitted', submittedBy: surveyor.id, submittedAt: ctx.now }).where(eq(surveys.id, s.id)).run();
   }
   createSurvey(deps, surveyor, { siteId: library.id, name: 'Winter evening check 2026', startedOn: '2026-12-10', conditions: { daylightExcluded: true, notes: 'After dark, electric lighting only' } });

@@ -1,0 +1,255 @@
+import fs from 'node:fs';
+import Papa from 'papaparse';
+import type { DecodingCalibration } from '../probes/probe-calibration';
+import { createLogDecoder, type DecodedReading, type LogSample, type SampleProblem } from './log-decoder';
+import { createTimestampParser } from './log-time';
+
+/** The log format's columns (README, "Survey logs and the log format"). */
+export const LOG_COLUMNS = ['timestamp', 'probe', 'point', 'gain', 'counts', 'ma', 'volts', 'x_m', 'y_m', 'int_ms', 'temp_c', 'role', 'note'] as const;
+export const REQUIRED_COLUMNS = ['timestamp', 'probe', 'point'] as const;
+type Column = (typeof LOG_COLUMNS)[number];
+
+export const MAX_REPORTED_ERRORS = 200;
+export const MAX_POINT_LENGTH = 120;
+export const MAX_NOTE_LENGTH = 1000;
+
+export type ImportProblem = SampleProblem;
+export type ImportWarning = { line: number | null; column: string | null; message: string };
+
+/** Values per row of the flat arrays a batch carries (see writeBatch in import-runner.ts). */
+export const SAMPLE_WIDTH = 14;
+export const READING_WIDTH = 16;
+
+export type WorkerToMain =
+  | { type: 'batch'; samples: unknown[]; readings: unknown[] }
+  | { type: 'progress'; bytesRead: number; rowsRead: number }
+  | { type: 'end'; rowsRead: number; readingCount: number; warnings: ImportWarning[]; errors: ImportProblem[]; errorCount: number }
+  | { type: 'crash'; message: string };
+
+export type ParseLogInput = {
+  filePath: string;
+  timeZone: string;
+  calibration: ReadonlyMap<string, DecodingCalibration>;
+  /** Samples per batch sent for writing. */
+  batchRows?: number;
+};
+
+export type ParseLogSink = { post(m: WorkerToMain): void; drain(): Promise<void> };
+
+const NUMBER = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
+
+/** Comma, semicolon or tab: whichever occurs most in the header line outside quotes (comma on a tie). */
+export function detectDelimiter(headerLine: string): ',' | ';' | '\t' {
+  const n = { ',': 0, ';': 0, '\t': 0 };
+  let quoted = false;
+  for (const ch of headerLine) {
+    if (ch === '"') quoted = !quoted;
+    else if (!quoted && (ch === ',' || ch === ';' || ch === '\t')) n[ch]++;
+  }
+  if (n[';'] > n[','] && n[';'] >= n['\t']) return ';';
+  if (n['\t'] > n[',']) return '\t';
+  return ',';
+}
+
+function firstLine(filePath: string): string {
+  const fd = fs.openSync(filePath, 'r');
+  try {
+    const buf = Buffer.alloc(64 * 1024);
+    const n = fs.readSync(fd, buf, 0, buf.length, 0);
+    const text = buf.subarray(0, n).toString('utf8').replace(/^\uFEFF/, '');
+    const end = text.search(/\r?\n/);
+    return end < 0 ? text : text.slice(0, end);
+  } finally {
+    fs.closeSync(fd);
+  }
+}
+
+/**
+ * Streams one log file through papaparse, validates each row, decodes with the measurement
+ * core and posts accepted rows in batches. After the first error no batch is posted (the
+ * file will be rejected), but reading goes on to report up to MAX_REPORTED_ERRORS problems.
+ */
+export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Promise<void> {
+  const warnings: ImportWarning[] = [];
+  const errors: ImportProblem[] = [];
+  let errorCount = 0;
+  let rowsRead = 0;
+  let readingCount = 0;
+  const addError = (p: ImportProblem) => {
+    errorCount++;
+    if (errors.length < MAX_REPORTED_ERRORS) errors.push(p);
+  };
+  const end = () => sink.post({ type: 'end', rowsRead, readingCount, warnings, errors, errorCount });
+
+  const size = fs.statSync(input.filePath).size;
+  const header = firstLine(input.filePath);
+  if (size === 0 || header.trim() === '') {
+    addError({ line: 1, column: '', value: '', message: 'The file is empty: it needs a header row and one sample per row' });
+    return end();
+  }
+  const delimiter = detectDelimiter(header);
+  const decimalComma = delimiter === ';';
+  const parseTime = createTimestampParser(input.timeZone);
+  const batchRows = input.batchRows ?? 8192;
+
+  let samples: unknown[] = [];
+  let readings: unknown[] = [];
+  const decoder = createLogDecoder(input.calibration, (r: DecodedReading) => {
+    readingCount++;
+    if (errorCount > 0) return;
+    readings.push(r.point, r.xM, r.yM, r.role, r.timeMs, r.probeId, r.lux, r.uLux, r.luxBound, r.flag, r.gainCode, r.samples, r.chosenSample, r.coefficientSetId, JSON.stringify(r.budget), r.note);
+  }, addError);
+
+  const col: Record<Column, number> = Object.fromEntries(LOG_COLUMNS.map((c) => [c, -1])) as Record<Column, number>;
+  let headerWidth = 0;
+  let nextLine = 1;
+  let headerDone = false;
+  const warnedProbes = new Set<string>();
+
+  const num = (row: string[], c: Column, line: number): number | undefined | null => {
+    const i = col[c];
+    if (i < 0 || i >= row.length) return undefined;
+    let v = row[i].trim();
+    if (v === '') return undefined;
+    if (decimalComma) v = v.replace(',', '.');
+    if (!NUMBER.test(v)) {
+      addError({ line, column: c, value: row[i], message: `${c} "${row[i]}" is not a number${decimalComma ? ' (with semicolons, write decimals as 12,5 or 12.5)' : ''}` });
+      return null;
+    }
+    return Number(v);
+  };
+  const text = (row: string[], c: Column) => (col[c] >= 0 && col[c] < row.length ? row[col[c]].trim() : '');
+
+  function readHeader(row: string[]): boolean {
+    headerWidth = row.length;
+    const seen = new Set<string>();
+    row.forEach((raw, i) => {
+      const name = raw.replace(/^\uFEFF/, '').trim().toLowerCase();
+      if (name === '') return;
+      if (seen.has(name)) addError({ line: 1, column: name, value: raw, message: `Column "${name}" appears twice in the header` });
+      seen.add(name);
+      if ((LOG_COLUMNS as readonly string[]).includes(name)) col[name as Column] = i;
+      else warnings.push({ line: 1, column: name, message: `Unknown column "${raw.trim()}" was kept in the file but not imported` });
+    });
+    for (const c of REQUIRED_COLUMNS) {
+      if (col[c] < 0) addError({ line: 1, column: c, value: '', message: `The header has no "${c}" column (required: ${REQUIRED_COLUMNS.join(', ')}); found: ${row.map((r) => r.trim()).join(', ')}` });
+    }
+    if ((col.x_m < 0) !== (col.y_m < 0)) {
+      const missing = col.x_m < 0 ? 'x_m' : 'y_m';
+      addError({ line: 1, column: missing, value: '', message: `The header has ${missing === 'x_m' ? 'y_m' : 'x_m'} but no ${missing}: give both plan coordinates or neither` });
+    }
+    return errorCount === 0;
+  }
+
+  function readRow(row: string[], line: number) {
+    rowsRead++;
+    if (row.length > headerWidth && row.slice(headerWidth).some((f) => f.trim() !== '')) {
+      return addError({ line, column: '', value: row.slice(headerWidth).join(delimiter), message: `The row has ${row.length} fields but the header has ${headerWidth}` });
+    }
+    if (row.length < headerWidth) {
+      return addError({ line, column: '', value: row.join(delimiter), message: `The row has ${row.length} fields but the header has ${headerWidth}` });
+    }
+    const before = errorCount;
+    const ts = text(row, 'timestamp');
+    const probe = text(row, 'probe');
+    const point = text(row, 'point');
+    const timeMs = ts === '' ? null : parseTime(ts);
+    if (ts === '') addError({ line, column: 'timestamp', value: '', message: 'timestamp is empty' });
+    else if (timeMs === null) addError({ line, column: 'timestamp', value: ts, message: `timestamp "${ts}" is not an ISO 8601 time such as 2026-11-20T09:15:00 or 2026-11-20T09:15:00+01:00` });
+    if (probe === '') addError({ line, column: 'probe', value: '', message: 'probe is empty: give the probe\'s serial' });
+    if (point === '') addError({ line, column: 'point', value: '', message: 'point is empty: give the point\'s label' });
+    else if (point.length > MAX_POINT_LENGTH) addError({ line, column: 'point', value: point.slice(0, 40), message: `point label is longer than ${MAX_POINT_LENGTH} characters` });
+    const gainCode = num(row, 'gain', line);
+    const counts = num(row, 'counts', line);
+    const ma = num(row, 'ma', line);
+    const volts = num(row, 'volts', line);
+    const intMs = num(row, 'int_ms', line);
+    const tempC = num(row, 'temp_c', line);
+    const xM = num(row, 'x_m', line);
+    const yM = num(row, 'y_m', line);
+    if ((xM === undefined) !== (yM === undefined) && xM !== null && yM !== null) {
+      const missing = xM === undefined ? 'x_m' : 'y_m';
+      addError({ line, column: missing, value: '', message: `${missing === 'x_m' ? 'y_m' : 'x_m'} is given but ${missing} is empty: give both plan coordinates or neither` });
+    }
+    const roleText = text(row, 'role').toLowerCase();
+    if (roleText !== '' && roleText !== 'task' && roleText !== 'reference') addError({ line, column: 'role', value: text(row, 'role'), message: 'role must be task or reference' });
+    if (errorCount > before) return;
+    const note = text(row, 'note');
+    const sample: LogSample = {
+      line, timeMs: timeMs!, probe, point,
+      gainCode: gainCode ?? undefined, counts: counts ?? undefined, ma: ma ?? undefined, volts: volts ?? undefined,
+      intMs: intMs ?? undefined, tempC: tempC ?? undefined, xM: xM ?? null, yM: yM ?? null,
+      role: roleText === 'reference' ? 'reference' : 'task', note: note === '' ? null : note.slice(0, MAX_NOTE_LENGTH),
+    };
+    const cal = input.calibration.get(probe);
+    if (cal && cal.status !== 'in_service' && !warnedProbes.has(probe)) {
+      warnedProbes.add(probe);
+      warnings.push({ line, column: 'probe', message: `Probe ${probe} is marked ${cal.status.replace(/_/g, ' ')}; its samples were decoded all the same` });
+    }
+    decoder.push(sample);
+    if (errorCount > before || errorCount > 0) return;
+    samples.push(line, sample.timeMs, cal!.probeId, point, sample.gainCode ?? null, sample.counts ?? null, sample.ma ?? null, sample.volts ?? null,
+      sample.intMs ?? null, sample.tempC ?? null, sample.xM, sample.yM, sample.role, sample.note);
+  }
+
+  const flush = () => {
+    if (errorCount > 0) {
+      samples = [];
+      readings = [];
+      return;
+    }
+    if (samples.length === 0 && readings.length === 0) return;
+    sink.post({ type: 'batch', samples, readings });
+    samples = [];
+    readings = [];
+  };
+
+  const stream = fs.createReadStream(input.filePath, { encoding: 'utf8', highWaterMark: 1 << 20 });
+  await new Promise<void>((resolve, reject) => {
+    Papa.parse<string[]>(stream as unknown as File, {
+      delimiter,
+      header: false,
+      skipEmptyLines: false,
+      chunk(results, parser) {
+        for (const row of results.data) {
+          const line = nextLine;
+          nextLine++;
+          for (const f of row) if (f.length > 0 && f.includes('\n')) nextLine += f.split('\n').length - 1;
+          if (!headerDone) {
+            headerDone = true;
+            if (!readHeader(row)) {
+              parser.abort();
+              return;
+            }
+            continue;
+          }
+          if (row.length === 1 && row[0].trim() === '') continue; // blank line
+          readRow(row, line);
+        }
+        for (const e of results.errors) {
+          if (e.type === 'Quotes') addError({ line: nextLine, column: '', value: '', message: `A quoted field is not closed (${e.message})` });
+        }
+        if (samples.length >= batchRows * SAMPLE_WIDTH || errorCount > 0) flush();
+        sink.post({ type: 'progress', bytesRead: stream.bytesRead, rowsRead });
+        // Hold both the parser and the file stream until the writer has caught up.
+        parser.pause();
+        stream.pause();
+        sink.drain().then(() => {
+          stream.resume();
+          parser.resume();
+        }, reject);
+      },
+      complete: () => resolve(),
+      error: (err: Error) => reject(err),
+    });
+  });
+  stream.destroy();
+  if (headerDone && errorCount === 0 && rowsRead === 0) {
+    addError({ line: 2, column: '', value: '', message: 'The file has a header but no samples' });
+  }
+  if (errorCount === 0) {
+    decoder.finish();
+    flush();
+  }
+  end();
+}

@@ -1,0 +1,35 @@
+import { z } from 'zod';
+
+export const IMPORT_STATUSES = ['queued', 'running', 'done', 'failed'] as const;
+
+/** One problem with a log file: where (line in the file, column) and what is wrong with which value. */
+export const importProblemSchema = z.object({
+  /** 1 is the header row; 0 means the file as a whole. */
+  line: z.number().int(),
+  column: z.string(),
+  value: z.string(),
+  message: z.string(),
+});
+export type ImportProblem = z.infer<typeof importProblemSchema>;
+
+export const importWarningSchema = z.object({ line: z.number().int().nullable(), column: z.string().nullable(), message: z.string() });
+export type ImportWarning = z.infer<typeof importWarningSchema>;
+
+export const uploadLogResponseSchema = z.object({ importId: z.number().int() });
+
+export const importStatusSchema = z.object({
+  id: z.number().int(),
+  surveyId: z.number().int(),
+  filename: z.string(),
+  status: z.enum(IMPORT_STATUSES),
+  /** 0..1: the share of the file read so far. */
+  progress: z.number().min(0).max(1),
+  rowsRead: z.number().int(),
+  readings: z.number().int(),
+  warnings: z.array(importWarningSchema),
+  /** Up to 200 problems; a file with any is rejected whole. */
+  errors: z.array(importProblemSchema),
+  createdAt: z.string(),
+  finishedAt: z.string().nullable(),
+});
+export type ImportStatus = z.infer<typeof importStatusSchema>;
