@@ -17,6 +17,7 @@ import { registerUserRoutes } from './modules/users/users-routes';
 import { registerOutboxRoutes } from './modules/outbox/outbox-routes';
 import { registerAuditRoutes } from './modules/audit/audit-routes';
 import { registerHealthRoutes } from './modules/health/health-routes';
+import { registerCalibrationRoutes } from './modules/calibration/calibration-routes';
 import { registerPlanRoutes } from './modules/plans/plans-routes';
 import { registerZoneRoutes } from './modules/zones/zones-routes';
 import { registerSurveyFeatureRoutes } from './modules/surveys/survey-feature-routes';
@@ -77,6 +78,7 @@ export function createApp(deps: Deps, options: AppOptions = {}) {
   registerUserRoutes(api, deps);
   registerOutboxRoutes(api, deps);
   registerAuditRoutes(api, deps);
+  registerCalibrationRoutes(api, deps);
   registerPlanRoutes(api, deps);
   registerZoneRoutes(api, deps);
   registerSurveyFeatureRoutes(api, deps);

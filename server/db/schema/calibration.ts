@@ -2,7 +2,8 @@ import { sqliteTable, integer, text, real, uniqueIndex, index } from 'drizzle-or
 import { organizations, users, storedFiles } from './organizations';
 
 export type GainStepRow = { code: number; nominalGain: number };
-export type GainCoefficientsRow = { code: number; darkCounts: number; luxPerCount: number; uRel: number };
+/** uDarkCounts: standard uncertainty of the dark offset, counts (from a bench fit); absent: the core's default. */
+export type GainCoefficientsRow = { code: number; darkCounts: number; luxPerCount: number; uRel: number; uDarkCounts?: number };
 
 export const probes = sqliteTable('probes', {
   id: integer('id').primaryKey({ autoIncrement: true }),

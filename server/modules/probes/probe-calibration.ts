@@ -45,7 +45,7 @@ export function toCoreCoefficientSet(row: CoefficientSetRow): CoefficientSet {
     tRefMs: row.tRefMs,
     alphaPerK: row.alphaPerK,
     tCalC: row.tCalC,
-    gains: row.gains.map((g) => ({ code: g.code, darkCounts: g.darkCounts, luxPerCount: g.luxPerCount, uRel: g.uRel })),
+    gains: row.gains.map((g) => ({ code: g.code, darkCounts: g.darkCounts, luxPerCount: g.luxPerCount, uRel: g.uRel, ...(g.uDarkCounts !== undefined ? { uDarkCounts: g.uDarkCounts } : {}) })),
     approved: row.status === 'approved',
   };
 }

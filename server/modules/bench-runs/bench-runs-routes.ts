@@ -1,0 +1,25 @@
+import type { Api } from '../../http/api';
+import type { Deps } from '../../deps';
+import { singleFileUpload } from '../../http/upload';
+import { idParamsSchema } from '@shared/schemas/common';
+import { BENCH_MAX_BYTES, benchRunDetailSchema, benchRunFieldsSchema, benchRunListResponseSchema } from '@shared/schemas/bench-runs';
+import { sendStoredFile } from '../coefficient-sets/coefficient-sets-routes';
+import { benchRunFile, getBenchRun, listBenchRuns, uploadBenchRun } from './bench-runs-service';
+
+export function registerBenchRunRoutes(api: Api, deps: Deps) {
+  api.route({
+    method: 'post', path: '/probes/:id/bench-runs', access: 'probes.write', tag: 'calibration',
+    summary: 'Upload a bench CSV (gain, reference_lux, counts, int_ms, temp_c) and fit it per gain code; 422 with row-level errors and nothing stored if any row is bad',
+    params: idParamsSchema, body: benchRunFieldsSchema, response: benchRunDetailSchema, status: 201,
+    before: singleFileUpload(deps, 'file', BENCH_MAX_BYTES), multipart: { file: 'file', tRefMs: 'string', referenceURel: 'string', alphaPerK: 'string', tCalC: 'string' },
+  }, ({ user, params, body, req }) => uploadBenchRun(deps, user, params.id, req.file!, body));
+
+  api.route({ method: 'get', path: '/probes/:id/bench-runs', access: 'coefficients.read', tag: 'calibration', summary: 'Bench runs of a probe, newest first', params: idParamsSchema, response: benchRunListResponseSchema },
+    ({ user, params }) => ({ items: listBenchRuns(deps, user, params.id) }));
+
+  api.route({ method: 'get', path: '/bench-runs/:id', access: 'coefficients.read', tag: 'calibration', summary: 'A bench run with its rows and fit', params: idParamsSchema, response: benchRunDetailSchema },
+    ({ user, params }) => getBenchRun(deps, user, params.id));
+
+  api.route({ method: 'get', path: '/bench-runs/:id/file', access: 'coefficients.read', tag: 'calibration', summary: 'Download the raw bench file as uploaded', params: idParamsSchema, produces: 'text/csv' },
+    ({ user, params, res }) => sendStoredFile(res, benchRunFile(deps, user, params.id), 'text/csv; charset=utf-8'));
+}
