@@ -175,8 +175,12 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
   const range = doc.bufferedPageRange();
   for (let i = range.start; i < range.start + range.count; i++) {
     doc.switchToPage(i);
+    // Writing inside the bottom margin would make pdfkit start a new page: lift the margin while writing.
+    const bottom = doc.page.margins.bottom;
+    doc.page.margins.bottom = 0;
     doc.font('body').fontSize(8).fillColor(MUTED)
       .text(`${data.site.name} - ${data.survey.name} - page ${i + 1} of ${range.count}`, MARGIN, A4.height - MARGIN + 14, { width: CONTENT_W, align: 'center', lineBreak: false });
+    doc.page.margins.bottom = bottom;
   }
   doc.end();
   return done;

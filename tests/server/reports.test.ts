@@ -1,0 +1,135 @@
+import { describe, it, expect, beforeEach } from 'vitest';
+import { eq } from 'drizzle-orm';
+import Papa from 'papaparse';
+import { PDFParse } from 'pdf-parse';
+import { createTestApp, DEMO, type TestApp } from './helpers';
+import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './compliance-fixtures';
+import { outboxAttachments } from '@server/db/schema/organizations';
+import { RULE_TEXT } from '@shared/core/decision';
+import { GRID_RULE } from '@shared/core/zone-stats';
+
+let t: TestApp;
+beforeEach(async () => { t = await createTestApp(); });
+
+async function pdfText(buf: Buffer): Promise<string> {
+  const parser = new PDFParse({ data: new Uint8Array(buf) });
+  try {
+    return (await parser.getText()).text.replace(/\s+/g, ' ');
+  } finally {
+    await parser.destroy();
+  }
+}
+
+/** supertest parser that keeps a binary body as a Buffer. */
+const binary = (res: unknown, cb: (err: Error | null, body: Buffer) => void) => {
+  const stream = res as NodeJS.ReadableStream;
+  const chunks: Buffer[] = [];
+  stream.on('data', (c: Buffer) => chunks.push(c));
+  stream.on('end', () => cb(null, Buffer.concat(chunks)));
+};
+
+describe('GET /api/surveys/:id/report.pdf', () => {
+  it('a survey report, when generated, is a PDF whose text holds the summary values, method, probes and cautions', async () => {
+    const { surveyId } = buildSurvey(t, { ownerEmail: DEMO.surveyor, surveyName: 'Report check', zones: OFFICE_AND_CORRIDOR, readings: officeAndCorridorReadings() });
+    const compliance = (await (await t.signIn(DEMO.facility_manager)).get(`/api/surveys/${surveyId}/compliance`)).body;
+    const c = await t.signIn(DEMO.facility_manager);
+    const res = await c.get(`/api/surveys/${surveyId}/report.pdf`).buffer(true).parse(binary);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toBe('application/pdf');
+    expect(res.headers['content-disposition']).toMatch(/luxtrail-report-\d+-report-check\.pdf/);
+    const text = await pdfText(res.body);
+    const corridor = compliance.zones.find((z: { name: string }) => z.name === 'Fixture corridor');
+    const office = compliance.zones.find((z: { name: string }) => z.name === 'Fixture office');
+    // Summary values as the compliance answer gives them, formatted as the report prints them.
+    expect(text).toContain(`${corridor.eavg.toFixed(1)} lx +/- ${corridor.uEavg.toFixed(2)} lx`);
+    expect(text).toContain(`${office.eavg.toFixed(0)} lx +/- ${office.uEavg.toFixed(1)} lx`);
+    expect(text).toContain(`${corridor.points} / ${corridor.requiredPoints}`);
+    expect(text).toContain('Falls short');
+    expect(text).toContain('Meets target');
+    expect(text).toContain('Fixture site');
+    expect(text).toContain(GRID_RULE);
+    expect(text).toContain(RULE_TEXT.guarded.slice(0, 60));
+    expect(text).toMatch(/FX-CERT-\d+/);
+    expect(text).toContain('Not signed off');
+    // DOMAIN.md section 7 cautions.
+    expect(text).toContain('does not certify emergency lighting');
+    expect(text).toContain('Local codes and regulations take precedence');
+    expect(text).toMatch(/k = 2/);
+  });
+
+  it('a report in foot-candles, when asked for, prints the target in fc', async () => {
+    const { surveyId } = buildSurvey(t, { ownerEmail: DEMO.surveyor, zones: OFFICE_AND_CORRIDOR, readings: officeAndCorridorReadings() });
+    const c = await t.signIn(DEMO.surveyor);
+    const res = await c.get(`/api/surveys/${surveyId}/report.pdf?unit=fc`).buffer(true).parse(binary);
+    const text = await pdfText(res.body);
+    // 100 lx = 9.29 fc (1 fc = 10.7639 lx).
+    expect(text).toContain('9.29 fc');
+    expect(text).toContain('foot-candles');
+  });
+
+  it('a signed-off survey, when its report is generated, names who signed it off', async () => {
+    const { surveyId } = buildSurvey(t, { ownerEmail: DEMO.surveyor, zones: OFFICE_AND_CORRIDOR, readings: officeAndCorridorReadings() });
+    const fm = await t.signIn(DEMO.facility_manager);
+    await fm.post(`/api/surveys/${surveyId}/sign-off`).send({});
+    const text = await pdfText((await fm.get(`/api/surveys/${surveyId}/report.pdf`).buffer(true).parse(binary)).body);
+    expect(text).toContain('Signed off by Marguerite Oakhurst');
+    expect(text).not.toContain('Not signed off');
+  });
+});
+
+describe('CSV exports', () => {
+  it('the zone table, when exported, holds each zone\'s figures and neutralises formula-like names', async () => {
+    const zones = [{ ...OFFICE_AND_CORRIDOR[0], name: '=HYPERLINK("http://x.test","office")' }, OFFICE_AND_CORRIDOR[1]];
+    const { surveyId } = buildSurvey(t, { ownerEmail: DEMO.surveyor, zones, readings: officeAndCorridorReadings() });
+    const c = await t.signIn(DEMO.facility_manager);
+    const res = await c.get(`/api/surveys/${surveyId}/compliance/zones.csv`);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toMatch(/text\/csv/);
+    const rows = Papa.parse<Record<string, string>>(res.text, { header: true, skipEmptyLines: true }).data;
+    expect(rows.map((r) => r.zone)).toEqual(['Fixture corridor', '\'=HYPERLINK("http://x.test","office")']);
+    expect(rows[0]).toMatchObject({ use_type: 'corridor', em_lx: '100', eavg_lx: '85', verdict: 'Falls short', decision_rule: 'guarded' });
+  });
+
+  it('the readings, when exported, carry their zone and neutralise point labels that start a formula', async () => {
+    const readings = officeAndCorridorReadings();
+    readings[0] = { ...readings[0], point: '@SUM(1+1)' };
+    readings[1] = { ...readings[1], point: '-2+3' };
+    const { surveyId } = buildSurvey(t, { ownerEmail: DEMO.surveyor, zones: OFFICE_AND_CORRIDOR, readings });
+    const c = await t.signIn(DEMO.surveyor);
+    const res = await c.get(`/api/surveys/${surveyId}/compliance/readings.csv`);
+    const rows = Papa.parse<Record<string, string>>(res.text, { header: true, skipEmptyLines: true }).data;
+    expect(rows).toHaveLength(readings.length);
+    expect(rows[0]).toMatchObject({ point: '\'@SUM(1+1)', zone: 'Fixture office', in_wall_band: 'no' });
+    expect(rows[1].point).toBe('\'-2+3');
+    expect(rows.find((r) => r.point === 'wall-dark')).toMatchObject({ zone: 'Fixture office', in_wall_band: 'yes', lux: '30' });
+  });
+});
+
+describe('POST /api/surveys/:id/report/send', () => {
+  it('a report, when sent to two recipients, lands in the outbox with the PDF attached and is audited', async () => {
+    const { surveyId } = buildSurvey(t, { ownerEmail: DEMO.surveyor, zones: OFFICE_AND_CORRIDOR, readings: officeAndCorridorReadings() });
+    const fm = await t.signIn(DEMO.facility_manager);
+    const res = await fm.post(`/api/surveys/${surveyId}/report/send`).send({ recipients: ['Board@Fernmoor.test', 'estates@fernmoor.test'], message: 'For Thursday\'s meeting' });
+    expect(res.status).toBe(202);
+    expect(res.body.sentTo).toEqual(['board@fernmoor.test', 'estates@fernmoor.test']);
+    const mail = t.lastMail()!;
+    expect(mail.to).toBe('board@fernmoor.test, estates@fernmoor.test');
+    expect(mail.text).toContain('For Thursday\'s meeting');
+    const [att] = t.db.select().from(outboxAttachments).where(eq(outboxAttachments.messageId, mail.id)).all();
+    expect(att).toMatchObject({ contentType: 'application/pdf', filename: res.body.filename, size: res.body.size });
+    const admin = await t.signIn(DEMO.admin);
+    const outbox = await admin.get('/api/outbox');
+    expect(outbox.body.items[0].attachments[0]).toMatchObject({ filename: res.body.filename });
+    const audit = await admin.get(`/api/audit?surveyId=${surveyId}`);
+    expect(audit.body.items[0]).toMatchObject({ action: 'report_sent' });
+  });
+
+  it('a recipient list with a bad address, when posted, answers 400 naming it and sends nothing', async () => {
+    const { surveyId } = buildSurvey(t, { ownerEmail: DEMO.surveyor, zones: OFFICE_AND_CORRIDOR, readings: officeAndCorridorReadings() });
+    const before = t.lastMail()?.id;
+    const res = await (await t.signIn(DEMO.facility_manager)).post(`/api/surveys/${surveyId}/report/send`).send({ recipients: ['ok@fernmoor.test', 'not-an-address'] });
+    expect(res.status).toBe(400);
+    expect(res.body.error.message).toMatch(/recipients\.1/);
+    expect(t.lastMail()?.id).toBe(before);
+  });
+});
