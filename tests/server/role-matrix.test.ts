@@ -6,9 +6,10 @@ import type { RouteExamples, ExampleRequest } from './route-examples/types';
 import { foundationExamples } from './route-examples/foundation';
 import { surveyExamples } from './route-examples/surveys';
 import { planExamples } from './route-examples/plans';
+import { calibrationExamples } from './route-examples/calibration';
 
 // Every feature adds its examples here; a route without one fails the first test.
-const EXAMPLES: RouteExamples = { ...foundationExamples, ...surveyExamples, ...planExamples };
+const EXAMPLES: RouteExamples = { ...foundationExamples, ...surveyExamples, ...planExamples, ...calibrationExamples };
 
 const ROLE_ACCOUNT: Record<Role, string> = {
   admin: DEMO.admin, surveyor: DEMO.surveyor, calibration: DEMO.calibration, facility_manager: DEMO.facility_manager,
