@@ -11,7 +11,8 @@ import { getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
 import { siteConditions } from '../sites/sites-service';
 import { decisionRuleOf } from '../organization/organization-service';
 import { getVisibleTarget, presentTarget } from '../targets/targets-service';
-import { judgeZones, type JudgedZone } from './judge-zones';
+import { judgeZones, worstFirst, type JudgedZone, type JudgeResult } from './judge-zones';
+import { attributeToPlans } from './plan-attribution';
 import { loadCurrentReadings, loadReadingsById, loadSitePlans, loadUsedCoefficientSets, type UsedCoefficientSet } from './compliance-repository';
 
 /** What a sign-off keeps in surveys.frozen: later target, rule or calibration changes never alter it. */
@@ -34,8 +35,18 @@ export type FrozenCompliance = {
 export function liveCompliance(db: Db, organizationId: number, survey: SurveyRow, rule: AcceptanceRule = decisionRuleOf(db, organizationId)) {
   const plans = loadSitePlans(db, organizationId, survey.siteId);
   const allReadings = loadCurrentReadings(db, survey);
-  // Zones of every plan of the site share the site frame of the log's x_m, y_m (issue 5).
-  const result = judgeZones({ zones: plans.flatMap((p) => p.zones), readings: allReadings, rule, daylightExcluded: survey.conditions?.daylightExcluded ?? false });
+  const { byPlan, note } = attributeToPlans(allReadings, plans);
+  const reference = allReadings.filter((r) => r.role === 'reference');
+  const daylightExcluded = survey.conditions?.daylightExcluded ?? false;
+  const perPlan = plans.map((p) => judgeZones({ zones: p.zones, readings: [...byPlan.get(p.planId)!, ...reference], rule, daylightExcluded }));
+  const unplaced = plans.length === 0 ? allReadings.filter((r) => r.role === 'task').length : 0;
+  const result: JudgeResult = {
+    zones: worstFirst(perPlan.flatMap((r) => r.zones)),
+    unassignedPoints: perPlan.reduce((n, r) => n + r.unassignedPoints, unplaced),
+    hasDaylightReference: reference.some((r) => r.lux !== null),
+    warnings: [...new Set(perPlan.flatMap((r) => r.warnings))],
+  };
+  if (note) result.warnings.unshift(note);
   if (plans.length === 0) result.warnings.unshift('This site has no plan with zones yet: draw zones to get verdicts.');
   if (survey.activeDecodeId === null) result.warnings.unshift('This survey has no decoded readings yet.');
   return { rule, result, readings: allReadings };

@@ -149,7 +149,9 @@ export function judgeZones(input: {
       reasons.unshift(`No target in the library for use type "${z.useType}".`);
     } else if (stats.validPoints < MIN_ASSESSABLE_POINTS) {
       verdict = 'not_assessed';
-      reasons.unshift(`Only ${stats.validPoints} valid point(s) outside the wall band; at least ${MIN_ASSESSABLE_POINTS} are needed to judge a zone.`);
+      reasons.unshift(stats.validPoints === 0
+        ? 'No valid reading in this zone (outside its wall band).'
+        : `Only ${stats.validPoints} valid point(s) outside the wall band; at least ${MIN_ASSESSABLE_POINTS} are needed to judge a zone.`);
     } else {
       const v = decideZone(stats, { emLux: z.target.emLux, ...(z.target.u0Min !== null ? { u0Min: z.target.u0Min } : {}) }, input.rule, { gridAdequate: grid.adequate });
       verdict = v.verdict;
