@@ -241,6 +241,12 @@ describe('coefficient sets: drafts, four-eyes approval, immutability', () => {
     expect(t.db.select().from(coefficientSets).where(eq(coefficientSets.id, d.body.id)).get()).toEqual(before);
   });
 
+  it('refuses a direct UPDATE or DELETE of an approved set, when attempted below the API, by a database trigger', () => {
+    const approved = t.db.select().from(coefficientSets).where(eq(coefficientSets.status, 'approved')).get()!;
+    expect(() => t.db.update(coefficientSets).set({ dueDate: approved.dueDate + 1 }).where(eq(coefficientSets.id, approved.id)).run()).toThrow(/immutable/);
+    expect(() => t.db.delete(coefficientSets).where(eq(coefficientSets.id, approved.id)).run()).toThrow(/immutable/);
+  });
+
   it('discards a draft, when asked, and records it', async () => {
     const c = await t.signIn(DEMO.calibration);
     const p = await createCountingProbe(c);
