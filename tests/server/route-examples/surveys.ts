@@ -25,3 +25,44 @@ export const surveyExamples: RouteExamples = {
   'POST /surveys': async (t) => ({ path: '/api/surveys', body: { siteId: await demoSiteId(t), name: `Example survey ${unique()}` }, okStatus: 201 }),
   'GET /surveys/:id': async (t) => ({ path: `/api/surveys/${await draftSurveyId(t)}` }),
 };
+
+const LOG_HEADER = 'timestamp,probe,point,gain,counts';
+
+/** A small log unique to each call, so duplicate detection never answers 409 here. */
+function uniqueLog(serial: string): Buffer {
+  const at = new Date(Date.parse('2026-11-19T07:00:00Z') + (n++) * 60_000).toISOString();
+  return Buffer.from(`${LOG_HEADER}\n${at},${serial},EX-${unique()},2,16000\n`);
+}
+
+const withLog = new WeakMap<TestApp, Promise<{ surveyId: number; importId: number }>>();
+
+/** A survey with one accepted log, imported through the API once per test app (read-only examples share it). */
+function surveyWithLog(t: TestApp): Promise<{ surveyId: number; importId: number }> {
+  let p = withLog.get(t);
+  if (!p) withLog.set(t, (p = importOneLog(t)));
+  return p;
+}
+
+async function importOneLog(t: TestApp): Promise<{ surveyId: number; importId: number }> {
+  const { createTestProbes, TEST_SERIALS } = await import('../support/survey-log-factories');
+  const { waitForImport } = await import('@server/modules/imports/imports-service');
+  createTestProbes(t);
+  const surveyId = await draftSurveyId(t);
+  const admin = await t.signIn(DEMO.admin);
+  const res = await admin.post(`/api/surveys/${surveyId}/logs`).attach('file', uniqueLog(TEST_SERIALS.tripod), { filename: 'ex.csv', contentType: 'text/csv' });
+  await waitForImport(t.deps, res.body.importId);
+  return { surveyId, importId: res.body.importId };
+}
+
+Object.assign(surveyExamples, {
+  'POST /surveys/:id/logs': async (t: TestApp) => {
+    const { createTestProbes, TEST_SERIALS } = await import('../support/survey-log-factories');
+    createTestProbes(t);
+    return { path: `/api/surveys/${await draftSurveyId(t)}/logs`, files: { file: { content: uniqueLog(TEST_SERIALS.tripod), filename: 'ex.csv', contentType: 'text/csv' } }, okStatus: 202 };
+  },
+  'GET /imports/:id': async (t: TestApp) => ({ path: `/api/imports/${(await surveyWithLog(t)).importId}` }),
+  'GET /surveys/:id/readings': async (t: TestApp) => ({ path: `/api/surveys/${(await surveyWithLog(t)).surveyId}/readings` }),
+  'GET /surveys/:id/readings/series': async (t: TestApp) => ({ path: `/api/surveys/${(await surveyWithLog(t)).surveyId}/readings/series` }),
+  'GET /surveys/:id/readings.csv': async (t: TestApp) => ({ path: `/api/surveys/${(await surveyWithLog(t)).surveyId}/readings.csv` }),
+  'POST /surveys/:id/redecode': async (t: TestApp) => ({ path: `/api/surveys/${(await surveyWithLog(t)).surveyId}/redecode` }),
+} satisfies RouteExamples);

@@ -1,0 +1,87 @@
+import { setImmediate as yieldToEventLoop } from 'node:timers/promises';
+import { and, asc, eq, gt, inArray, sql } from 'drizzle-orm';
+import type { Deps } from '../../deps';
+import { decodes, logImports, readings, samples, surveys } from '../../db/schema/surveys';
+import { coefficientSets } from '../../db/schema/calibration';
+import type { SessionUser } from '@shared/schemas/auth';
+import type { RedecodeResponse } from '@shared/schemas/readings';
+import { conflict, unprocessable } from '../../http/errors';
+import { loadDecodingCalibration } from '../probes/probe-calibration';
+import { recordAudit } from '../audit/audit-service';
+import { getSurveyRow } from '../surveys/surveys-service';
+import { createLogDecoder, type DecodedReading, type SampleProblem } from './log-decoder';
+import { surveysBeingRedecoded } from './imports-service';
+
+const PAGE = 5000;
+
+/**
+ * Re-decodes every kept sample of a survey's accepted imports with the approved coefficient sets
+ * in force now, into a new decode that becomes active; the previous decode and its readings stay
+ * recorded, and the audit trail names who did it. Runs in slices that yield to the event loop.
+ */
+export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: number, reason = 'redecode'): Promise<RedecodeResponse> {
+  const survey = getSurveyRow(deps.db, actor, surveyId);
+  const busy = deps.db.select({ id: logImports.id }).from(logImports).where(and(eq(logImports.surveyId, survey.id), inArray(logImports.status, ['queued', 'running']))).get();
+  if (busy || surveysBeingRedecoded.has(survey.id)) throw conflict('A log of this survey is being imported or re-decoded; try again when it has finished');
+  const imports = deps.db.select({ id: logImports.id }).from(logImports).where(and(eq(logImports.surveyId, survey.id), eq(logImports.status, 'done'))).orderBy(asc(logImports.id)).all();
+  if (imports.length === 0) throw conflict('This survey has no accepted log to re-decode');
+
+  surveysBeingRedecoded.add(survey.id);
+  const decode = deps.db.insert(decodes).values({ surveyId: survey.id, reason, createdBy: actor.id, createdAt: deps.clock.now() }).returning().get();
+  try {
+    const calibration = loadDecodingCalibration(deps.db, actor.organizationId);
+    const serialOf = new Map([...calibration.values()].map((c) => [c.probeId, c.serial]));
+    const insert = deps.db.$client.prepare(`insert into readings (survey_id, decode_id, import_id, point, x_m, y_m, role, time_ms, probe_id, lux, u_lux, lux_bound, flag, gain_code, sample_count, chosen_sample, coefficient_set_id, budget, note)
+      values (${survey.id}, ${decode.id}, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`);
+    const writeMany = deps.db.$client.transaction((importId: number, rs: DecodedReading[]) => {
+      for (const r of rs) insert.run(importId, r.point, r.xM, r.yM, r.role, r.timeMs, r.probeId, r.lux, r.uLux, r.luxBound, r.flag, r.gainCode, r.samples, r.chosenSample, r.coefficientSetId, JSON.stringify(r.budget), r.note);
+    });
+    let count = 0;
+    const problems: SampleProblem[] = [];
+    for (const imp of imports) {
+      let out: DecodedReading[] = [];
+      const decoder = createLogDecoder(calibration, (r) => out.push(r), (p) => { if (problems.length < 200) problems.push(p); });
+      let lastId = 0;
+      for (;;) {
+        const page = deps.db.select().from(samples).where(and(eq(samples.importId, imp.id), gt(samples.id, lastId))).orderBy(asc(samples.id)).limit(PAGE).all();
+        if (page.length === 0) break;
+        for (const s of page) {
+          decoder.push({
+            line: s.line, timeMs: s.timeMs, probe: serialOf.get(s.probeId) ?? `#${s.probeId}`, point: s.point,
+            gainCode: s.gainCode ?? undefined, counts: s.counts ?? undefined, ma: s.ma ?? undefined, volts: s.volts ?? undefined,
+            intMs: s.intMs ?? undefined, tempC: s.tempC ?? undefined, xM: s.xM, yM: s.yM, role: s.role, note: s.note,
+          });
+        }
+        lastId = page[page.length - 1].id;
+        if (problems.length === 0) writeMany(imp.id, out);
+        count += out.length;
+        out = [];
+        await yieldToEventLoop();
+      }
+      decoder.finish();
+      if (problems.length === 0) writeMany(imp.id, out);
+      count += out.length;
+    }
+    if (problems.length > 0) {
+      throw unprocessable(`The current coefficient sets cannot decode this survey's samples (first: line ${problems[0].line}, ${problems[0].column}: ${problems[0].message}); nothing was changed`, problems);
+    }
+    const lapsed = deps.db.select({ n: sql<number>`count(*)` }).from(readings).innerJoin(coefficientSets, eq(coefficientSets.id, readings.coefficientSetId))
+      .where(and(eq(readings.decodeId, decode.id), sql`${readings.timeMs} > ${coefficientSets.dueDate}`)).get()!.n;
+    const now = deps.clock.now();
+    deps.db.transaction((tx) => {
+      tx.update(surveys).set({ activeDecodeId: decode.id }).where(eq(surveys.id, survey.id)).run();
+      recordAudit(tx, {
+        organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'redecoded',
+        before: { decodeId: survey.activeDecodeId }, after: { decodeId: decode.id, readings: count, calibrationLapsed: lapsed }, at: now,
+      });
+    });
+    return { decodeId: decode.id, previousDecodeId: survey.activeDecodeId, readings: count, calibrationLapsed: lapsed };
+  } catch (err) {
+    const del = deps.db.$client.prepare('delete from readings where rowid in (select rowid from readings where decode_id = ? limit 5000)');
+    while (del.run(decode.id).changes > 0) await yieldToEventLoop();
+    deps.db.delete(decodes).where(eq(decodes.id, decode.id)).run();
+    throw err;
+  } finally {
+    surveysBeingRedecoded.delete(survey.id);
+  }
+}

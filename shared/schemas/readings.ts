@@ -1,0 +1,66 @@
+import { z } from 'zod';
+
+export const READING_FLAGS = ['ok', 'over_range', 'under_range', 'fault', 'calibration_lapsed', 'low_confidence'] as const;
+export type ReadingFlag = (typeof READING_FLAGS)[number];
+
+export const READING_FLAG_LABELS: Record<ReadingFlag, string> = {
+  ok: 'OK',
+  over_range: 'Over range',
+  under_range: 'Under range',
+  fault: 'Signal fault',
+  calibration_lapsed: 'Calibration lapsed',
+  low_confidence: 'Low confidence',
+};
+
+export const READING_SORTS = ['time', 'point', 'lux', 'flag', 'probe'] as const;
+
+export const readingsQuerySchema = z.object({
+  limit: z.coerce.number().int().min(1).max(5000).default(100),
+  offset: z.coerce.number().int().min(0).default(0),
+  flag: z.enum(READING_FLAGS).optional(),
+  /** Readings whose point label contains this text (case-insensitive). */
+  point: z.string().trim().max(120).optional(),
+  sort: z.enum(READING_SORTS).default('time'),
+  order: z.enum(['asc', 'desc']).default('asc'),
+});
+export type ReadingsQuery = z.input<typeof readingsQuerySchema>;
+
+export const budgetPartSchema = z.object({ name: z.string(), uRel: z.number() });
+
+export const readingSchema = z.object({
+  id: z.number().int(),
+  point: z.string(),
+  xM: z.number().nullable(),
+  yM: z.number().nullable(),
+  role: z.enum(['task', 'reference']),
+  timestamp: z.string(),
+  probe: z.string(),
+  /** Lux; for over/under range the bound (see luxBound); null for a fault. */
+  lux: z.number().nullable(),
+  /** Expanded uncertainty U (k = 2), lux. */
+  uLux: z.number().nullable(),
+  luxBound: z.enum(['exact', 'lower', 'upper']),
+  flag: z.enum(READING_FLAGS),
+  gainCode: z.number().int().nullable(),
+  samples: z.number().int(),
+  /** Index (from 0) of the sample chosen within the burst. */
+  chosenSample: z.number().int().nullable(),
+  /** Relative standard uncertainties (k = 1) that make up uLux. */
+  budget: z.array(budgetPartSchema),
+});
+export type Reading = z.infer<typeof readingSchema>;
+
+export const readingsResponseSchema = z.object({ items: z.array(readingSchema), total: z.number().int() });
+export type ReadingsResponse = z.infer<typeof readingsResponseSchema>;
+
+/** The walk over time, thinned for a chart: every flagged reading is kept. */
+export const readingSeriesSchema = z.object({
+  items: z.array(z.object({ t: z.number(), lux: z.number().nullable(), gainCode: z.number().int().nullable(), flag: z.enum(READING_FLAGS), role: z.enum(['task', 'reference']), point: z.string() })),
+  total: z.number().int(),
+});
+export type ReadingSeries = z.infer<typeof readingSeriesSchema>;
+
+export const readingsExportQuerySchema = z.object({ unit: z.enum(['lux', 'fc']).default('lux') });
+
+export const redecodeResponseSchema = z.object({ decodeId: z.number().int(), previousDecodeId: z.number().int().nullable(), readings: z.number().int(), calibrationLapsed: z.number().int() });
+export type RedecodeResponse = z.infer<typeof redecodeResponseSchema>;

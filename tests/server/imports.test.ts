@@ -1,0 +1,256 @@
+import { describe, it, expect, beforeAll } from 'vitest';
+import { and, eq } from 'drizzle-orm';
+import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
+import { createTestProbes, newDraftSurvey, tableCounts, testWalkCsv, TEST_SERIALS, uploadAndWait } from './support/survey-log-factories';
+import { logImports, surveys } from '@server/db/schema/surveys';
+
+let t: TestApp;
+let c: TestClient;
+beforeAll(async () => {
+  t = await createTestApp();
+  createTestProbes(t);
+  c = await t.signIn(DEMO.surveyor);
+});
+
+const HEADER = 'timestamp,probe,point,gain,counts,x_m,y_m';
+let minute = 0;
+/** A valid counting row at a fresh time (LX-4102 coefficients: 16,000 counts at gain 2 is about 500 lx). */
+function row(o: Partial<Record<'timestamp' | 'probe' | 'point' | 'gain' | 'counts' | 'x_m' | 'y_m', string>> = {}) {
+  minute++;
+  const ts = o.timestamp ?? new Date(Date.parse('2026-11-01T08:00:00Z') + minute * 60_000).toISOString();
+  return [ts, o.probe ?? TEST_SERIALS.tripod, o.point ?? `A${minute}`, o.gain ?? '2', o.counts ?? '16000', o.x_m ?? '1.5', o.y_m ?? '2.5'].join(',');
+}
+const file = (...lines: string[]) => `${lines.join('\n')}\n`;
+
+/**
+ * Uploads a file that must be rejected and checks that the only rows added anywhere are the
+ * failed import's record (which carries the errors) and its stored file.
+ */
+async function expectRejected(content: string, expected: { line: number; column: string; message: RegExp }) {
+  const surveyId = await newDraftSurvey(t, c);
+  const before = tableCounts(t);
+  const { upload, status } = await uploadAndWait(t, c, surveyId, content);
+  expect(upload.status).toBe(202);
+  expect(status.status).toBe('failed');
+  expect(status.readings).toBe(0);
+  const hit = status.errors.find((e: { line: number; column: string; message: string }) => e.line === expected.line && e.column === expected.column && expected.message.test(e.message));
+  expect(hit, JSON.stringify(status.errors.slice(0, 5))).toBeDefined();
+  const after = tableCounts(t);
+  expect({ ...after, log_imports: after.log_imports - 1, stored_files: after.stored_files - 1 }).toEqual(before);
+  const survey = t.db.select().from(surveys).where(eq(surveys.id, surveyId)).get()!;
+  expect(survey.activeDecodeId).toBeNull();
+  const detail = await c.get(`/api/surveys/${surveyId}`);
+  expect(detail.body.readingCount).toBe(0);
+  return status;
+}
+
+describe('log import: accepted files', () => {
+  it('decodes the demo walk, when every row is valid, into readings with one over-range point', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const { upload, status } = await uploadAndWait(t, c, surveyId, testWalkCsv(Date.parse('2026-11-19T09:00:00Z')));
+    expect(upload.status).toBe(202);
+    expect(status).toMatchObject({ status: 'done', progress: 1, errors: [], warnings: [] });
+    expect(status.rowsRead).toBeGreaterThan(status.readings);
+    const detail = (await c.get(`/api/surveys/${surveyId}`)).body;
+    expect(detail.flagCounts.over_range).toBe(1);
+    expect(detail.readingCount).toBe(status.readings);
+    const over = (await c.get(`/api/surveys/${surveyId}/readings?flag=over_range`)).body;
+    expect(over.total).toBe(1);
+    // Over range reports the lux that saturationCounts means at the lowest gain, as a lower bound (DOMAIN.md 2).
+    expect(over.items[0]).toMatchObject({ point: 'RR-06', luxBound: 'lower', flag: 'over_range', gainCode: 0, chosenSample: null });
+    expect(over.items[0].samples).toBeGreaterThan(1);
+  });
+
+  it('answers the readings in the documented shape, when paged, with U as k = 2 times the combined budget', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    await uploadAndWait(t, c, surveyId, testWalkCsv(Date.parse('2026-11-18T09:00:00Z'), 2));
+    const page = (await c.get(`/api/surveys/${surveyId}/readings?limit=5&offset=2`)).body;
+    expect(page.items).toHaveLength(5);
+    expect(page.total).toBeGreaterThan(100);
+    const r = page.items.find((x: { flag: string }) => x.flag === 'ok');
+    expect(Object.keys(r).sort()).toEqual(['budget', 'chosenSample', 'flag', 'gainCode', 'id', 'lux', 'luxBound', 'point', 'probe', 'role', 'samples', 'timestamp', 'uLux', 'xM', 'yM'].sort());
+    const uc = Math.sqrt(r.budget.reduce((s: number, p: { uRel: number }) => s + p.uRel ** 2, 0));
+    expect(r.uLux).toBeCloseTo(2 * uc * r.lux, 6); // GUM: U = k u_c, k = 2
+    const sorted = (await c.get(`/api/surveys/${surveyId}/readings?sort=lux&order=desc&limit=3&flag=ok`)).body.items;
+    expect(sorted[0].lux).toBeGreaterThanOrEqual(sorted[1].lux);
+    const carPark = (await c.get(`/api/surveys/${surveyId}/readings?point=cp-&limit=1000`)).body;
+    expect(carPark.total).toBeGreaterThan(0);
+    expect(carPark.items.every((x: { point: string }) => x.point.startsWith('CP-'))).toBe(true);
+    const ref = (await c.get(`/api/surveys/${surveyId}/readings?point=ROOF&limit=1`)).body.items[0];
+    expect(ref).toMatchObject({ role: 'reference', probe: TEST_SERIALS.reference, gainCode: null, samples: 1 });
+  });
+
+  it('decodes a 500 lx sample, when given by hand, to the value of the decoding model', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    // LX-4102 gain 2: dark 61, luxPerCount 2/64 * 0.997 (demo-probes.ts); no temperature, t = tRef.
+    const { status } = await uploadAndWait(t, c, surveyId, file(HEADER, row({ counts: '16061', point: 'HAND-1' })));
+    expect(status.status).toBe(200 > 0 ? 'done' : '');
+    const r = (await c.get(`/api/surveys/${surveyId}/readings`)).body.items[0];
+    expect(r.lux).toBeCloseTo(16000 * (2 / 64) * 0.997, 6);
+    expect(r.budget.map((p: { name: string }) => p.name)).toContain('temperature');
+  });
+
+  it('reads a time without offset in the site time zone (Europe/London, summer time)', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const { status } = await uploadAndWait(t, c, surveyId, file(HEADER, row({ timestamp: '2026-07-01T09:00:00', point: 'TZ-1' })));
+    expect(status.status).toBe('done');
+    const r = (await c.get(`/api/surveys/${surveyId}/readings`)).body.items[0];
+    expect(r.timestamp).toBe('2026-07-01T08:00:00.000Z'); // BST = UTC+1
+  });
+
+  it('accepts semicolons with decimal commas, a BOM and CRLF, decoding as the comma file does', async () => {
+    const a = await newDraftSurvey(t, c);
+    const b = await newDraftSurvey(t, c);
+    const comma = 'timestamp,probe,point,gain,counts,x_m,y_m,temp_c\n2026-11-19T07:00:00Z,T-4102,S-1,2,15000,1.25,2.5,24.5\n';
+    const semi = '\uFEFFTimestamp;PROBE;Point;Gain;Counts;X_M;Y_M;Temp_C\r\n2026-11-19T07:00:00Z;T-4102;"S-1";2;15000;1,25;2,5;24,5\r\n';
+    expect((await uploadAndWait(t, c, a, comma)).status.status).toBe('done');
+    const s = await uploadAndWait(t, c, b, semi);
+    expect(s.status).toMatchObject({ status: 'done', errors: [] });
+    const ra = (await c.get(`/api/surveys/${a}/readings`)).body.items[0];
+    const rb = (await c.get(`/api/surveys/${b}/readings`)).body.items[0];
+    expect(rb).toMatchObject({ point: 'S-1', xM: 1.25, yM: 2.5 });
+    expect(rb.lux).toBe(ra.lux);
+  });
+
+  it('keeps an unknown column as a warning, not an error', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const { status } = await uploadAndWait(t, c, surveyId, `${HEADER},operator\n${row()},Wren\n`);
+    expect(status.status).toBe('done');
+    expect(status.warnings).toEqual([expect.objectContaining({ line: 1, column: 'operator' })]);
+  });
+
+  it('stores a loop current outside NE 43, when the file is otherwise valid, as a fault reading without a value', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    // NE 43: at or below 3.6 mA the transmitter signals a failure (secondary sources, DOMAIN.md 2).
+    const csv = file('timestamp,probe,point,ma,role', `2026-11-19T06:00:00Z,${TEST_SERIALS.reference},ROOF,3.2,reference`, `2026-11-19T06:01:00Z,${TEST_SERIALS.reference},ROOF,12,reference`);
+    const { status } = await uploadAndWait(t, c, surveyId, csv);
+    expect(status.status).toBe('done');
+    const items = (await c.get(`/api/surveys/${surveyId}/readings`)).body.items;
+    expect(items[0]).toMatchObject({ flag: 'fault', lux: null, uLux: null });
+    expect(items[1].flag).toBe('ok');
+    expect(items[1].lux).toBeGreaterThan(1);
+  });
+
+  it('flags readings of a probe past its due date as calibration lapsed and counts them on the survey', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const { status } = await uploadAndWait(t, c, surveyId, file(HEADER, row({ probe: TEST_SERIALS.lapsed }), row({ probe: TEST_SERIALS.lapsed }), row()));
+    expect(status.status).toBe('done');
+    const detail = (await c.get(`/api/surveys/${surveyId}`)).body;
+    expect(detail.calibrationLapsedCount).toBe(2);
+    expect(detail.flagCounts.calibration_lapsed).toBe(2);
+  });
+
+  it('stores a label starting with = as text and exports it neutralised', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const { status } = await uploadAndWait(t, c, surveyId, file(HEADER, row({ point: '=HYPERLINK("http://x.invalid")' }).replace('=HYPERLINK("http://x.invalid")', '"=HYPERLINK(""http://x.invalid"")"')));
+    expect(status.status).toBe('done');
+    const r = (await c.get(`/api/surveys/${surveyId}/readings`)).body.items[0];
+    expect(r.point).toBe('=HYPERLINK("http://x.invalid")');
+    const csv = await c.get(`/api/surveys/${surveyId}/readings.csv?unit=fc`);
+    expect(csv.status).toBe(200);
+    expect(csv.headers['content-type']).toMatch(/text\/csv/);
+    const [head, line] = csv.text.trim().split('\r\n');
+    expect(head).toContain('illuminance_fc');
+    // OWASP CSV injection: a leading apostrophe makes the cell text.
+    expect(line).toContain(`"'=HYPERLINK(""http://x.invalid"")"`);
+    const fc = Number(line.split(',').at(-8));
+    expect(fc).toBeCloseTo(r.lux / 10.7639104167, 1); // 1 fc = 1/0.3048^2 lx (exact)
+  });
+});
+
+describe('log import: rejected files leave nothing behind', () => {
+  it('rejects an empty file', () => expectRejected('', { line: 1, column: '', message: /empty/ }));
+  it('rejects a header with no samples', () => expectRejected(`${HEADER}\n`, { line: 2, column: '', message: /no samples/ }));
+  it('rejects a missing required column, naming it', () => expectRejected(file('timestamp,probe,gain,counts', '2026-11-19T06:00:00Z,T-4102,2,16000'), { line: 1, column: 'point', message: /no "point" column/ }));
+  it('rejects non-numeric counts', () => expectRejected(file(HEADER, row(), row({ counts: 'lots' })), { line: 3, column: 'counts', message: /not a number/ }));
+  it('rejects negative counts', () => expectRejected(file(HEADER, row({ counts: '-5' })), { line: 2, column: 'counts', message: /outside 0\.\.65535/ }));
+  it('rejects fractional counts', () => expectRejected(file(HEADER, row({ counts: '1200.5' })), { line: 2, column: 'counts', message: /whole number/ }));
+  it('rejects counts over full scale', () => expectRejected(file(HEADER, row({ counts: '70000' })), { line: 2, column: 'counts', message: /outside 0\.\.65535/ }));
+  it('rejects an unknown gain code', () => expectRejected(file(HEADER, row({ gain: '7' })), { line: 2, column: 'gain', message: /Gain code 7 is not known/ }));
+  it('rejects an unknown probe', () => expectRejected(file(HEADER, row(), row({ probe: 'ZZ-999' })), { line: 3, column: 'probe', message: /ZZ-999 is not registered/ }));
+  it('rejects a probe with no approved coefficient set', () => expectRejected(file(HEADER, row({ probe: TEST_SERIALS.undecoded })), { line: 2, column: 'timestamp', message: /no approved coefficient set in force/ }));
+  it('rejects a sample before the first approved set took effect', () => expectRejected(file(HEADER, row({ timestamp: '2020-01-01T09:00:00Z' })), { line: 2, column: 'timestamp', message: /no approved coefficient set in force at 2020-01-01/ }));
+  it('rejects a malformed timestamp', () => expectRejected(file(HEADER, row({ timestamp: '19/11/2026 09:00' })), { line: 2, column: 'timestamp', message: /not an ISO 8601 time/ }));
+  it('rejects x_m without y_m', () => expectRejected(file(HEADER, row({ y_m: '' })), { line: 2, column: 'y_m', message: /give both plan coordinates/ }));
+  it('rejects a counting row for an analog probe', () => expectRejected(file(HEADER, row({ probe: TEST_SERIALS.reference })), { line: 2, column: 'ma', message: /4-20 mA probe: the row needs a ma value/ }));
+  it('rejects an analog row for a counting probe', () => expectRejected(file('timestamp,probe,point,ma', `2026-11-19T06:00:00Z,${TEST_SERIALS.tripod},P,12`), { line: 2, column: 'gain', message: /counting probe: the row needs gain and counts/ }));
+  it('rejects a file whose last row is bad, after earlier batches were written', async () => {
+    const lines = [HEADER];
+    for (let i = 0; i < 20_000; i++) lines.push(row({ timestamp: new Date(Date.parse('2026-11-10T00:00:00Z') + i * 15_000).toISOString(), point: `B${i}` }));
+    lines.push(row({ counts: 'x' }));
+    await expectRejected(file(...lines), { line: 20_002, column: 'counts', message: /not a number/ });
+  });
+  it('lists at most 200 errors and says how many more there were', async () => {
+    const lines = [HEADER];
+    for (let i = 0; i < 250; i++) lines.push(row({ counts: 'bad' }));
+    const status = await expectRejected(file(...lines), { line: 2, column: 'counts', message: /not a number/ });
+    expect(status.errors, JSON.stringify(status.errors.slice(0, 3))).toHaveLength(201);
+    expect(status.errors[200].message).toMatch(/50 more problems/);
+  });
+});
+
+describe('log upload: refused before import', () => {
+  const expectNothingAdded = async (send: () => Promise<{ status: number; body: { error: { message: string; details?: unknown } } }>, statusCode: number) => {
+    const before = tableCounts(t);
+    const res = await send();
+    expect(res.status).toBe(statusCode);
+    expect(tableCounts(t)).toEqual(before);
+    return res;
+  };
+
+  it('answers 415 to a binary file', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const png = Buffer.from('89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d4944415478da63f8cfc0f01f0005000201a3e0c1a40000000049454e44ae426082', 'hex');
+    const res = await expectNothingAdded(() => c.post(`/api/surveys/${surveyId}/logs`).attach('file', png, { filename: 'walk.csv', contentType: 'text/csv' }), 415);
+    expect(res.body.error.message).toMatch(/not a text CSV/);
+  });
+
+  it('answers 413 to a file over the upload limit', async () => {
+    const small = await createTestApp({ uploadLimitBytes: 1024 });
+    createTestProbes(small);
+    const sc = await small.signIn(DEMO.surveyor);
+    const surveyId = await newDraftSurvey(small, sc);
+    const before = tableCounts(small);
+    const res = await sc.post(`/api/surveys/${surveyId}/logs`).attach('file', Buffer.from(file(HEADER, ...Array.from({ length: 100 }, () => row()))), { filename: 'big.csv', contentType: 'text/csv' });
+    expect(res.status).toBe(413);
+    expect(tableCounts(small)).toEqual(before);
+  });
+
+  it('answers 409 to the same bytes uploaded to the same survey again, naming the earlier import', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const csv = file(HEADER, row());
+    const first = await uploadAndWait(t, c, surveyId, csv);
+    expect(first.status.status, JSON.stringify(first.status.errors)).toBe('done');
+    const res = await expectNothingAdded(() => c.post(`/api/surveys/${surveyId}/logs`).attach('file', Buffer.from(csv), { filename: 'again.csv', contentType: 'text/csv' }), 409);
+    expect(res.body.error.message).toContain(`import ${first.upload.body.importId}`);
+    expect(res.body.error.details).toEqual({ importId: first.upload.body.importId });
+  });
+
+  it('answers 409 to an upload to a signed-off survey', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    t.db.update(surveys).set({ status: 'signed_off' }).where(eq(surveys.id, surveyId)).run();
+    const res = await expectNothingAdded(() => c.post(`/api/surveys/${surveyId}/logs`).attach('file', Buffer.from(file(HEADER, row())), { filename: 'late.csv', contentType: 'text/csv' }), 409);
+    expect(res.body.error.message).toMatch(/signed off/);
+  });
+
+  it('answers 404 to another organisation uploading to, or reading, this organisation\'s survey', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const { upload } = await uploadAndWait(t, c, surveyId, file(HEADER, row()));
+    const other = await t.signIn(DEMO.otherAdmin);
+    await expectNothingAdded(() => other.post(`/api/surveys/${surveyId}/logs`).attach('file', Buffer.from(file(HEADER, row())), { filename: 'x.csv', contentType: 'text/csv' }), 404);
+    expect((await other.get(`/api/surveys/${surveyId}/readings`)).status).toBe(404);
+    expect((await other.get(`/api/surveys/${surveyId}/readings.csv`)).status).toBe(404);
+    expect((await other.get(`/api/imports/${upload.body.importId}`)).status).toBe(404);
+  });
+
+  it('keeps the failed import visible with its errors, and accepts the same bytes again after the cause is fixed', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const csv = file(HEADER, row({ probe: 'NEW-PROBE' }));
+    const first = await uploadAndWait(t, c, surveyId, csv);
+    expect(first.status.status).toBe('failed');
+    const again = await c.post(`/api/surveys/${surveyId}/logs`).attach('file', Buffer.from(csv), { filename: 'x.csv', contentType: 'text/csv' });
+    expect(again.status).toBe(202);
+    const imp = t.db.select().from(logImports).where(and(eq(logImports.surveyId, surveyId), eq(logImports.status, 'failed'))).all();
+    expect(imp.length).toBeGreaterThanOrEqual(1);
+  });
+});
