@@ -100,6 +100,7 @@ export type MapZoneSummary = z.infer<typeof mapZoneSummarySchema>;
 export const surveyMapResponseSchema = z.object({
   surveyId: z.number().int(),
   surveyName: z.string(),
+  siteId: z.number().int(),
   planId: z.number().int(),
   readings: z.array(mapReadingSchema),
   zones: z.array(mapZoneSummarySchema),

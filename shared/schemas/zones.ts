@@ -38,7 +38,7 @@ export const ZONE_USE_TYPES = [
 export type ZoneUseType = (typeof ZONE_USE_TYPES)[number]['value'];
 const USE_TYPE_VALUES = ZONE_USE_TYPES.map((u) => u.value) as [ZoneUseType, ...ZoneUseType[]];
 
-export function useTypeLabel(value: string): string {
+export function labelOfUseType(value: string): string {
   return ZONE_USE_TYPES.find((u) => u.value === value)?.label ?? value;
 }
 

@@ -11,6 +11,14 @@ import { TokenPasswordRoute } from './routes/auth/token-password';
 import { HomeRoute } from './routes/home';
 import { UsersRoute } from './routes/admin/users';
 import { OutboxRoute } from './routes/admin/outbox';
+import { PlansIndexRoute } from './routes/plans/plans-index';
+import { PlanDetailRoute } from './routes/plans/plan-detail';
+import { SurveyMapRoute } from './routes/plans/survey-map';
+import { ComplianceOverviewRoute } from './routes/compliance/compliance-overview';
+import { SurveyComplianceRoute } from './routes/compliance/survey-compliance';
+import { ZoneComplianceRoute } from './routes/compliance/zone-compliance';
+import { TargetsRoute } from './routes/compliance/targets';
+import { SettingsRoute } from './routes/compliance/settings';
 
 /** The signed-in shell's loader: no user, no shell (back to sign-in, then here again). */
 async function requireUser({ request }: LoaderFunctionArgs) {
@@ -35,6 +43,14 @@ const appRoutes: RouteObject[] = [
   { index: true, element: <HomeRoute /> },
   { path: 'users', element: <Gate capability="users.manage"><UsersRoute /></Gate> },
   { path: 'outbox', element: <Gate capability="outbox.read"><OutboxRoute /></Gate> },
+  { path: 'plans', element: <Gate capability="sites.read"><PlansIndexRoute /></Gate> },
+  { path: 'plans/:planId', element: <Gate capability="sites.read"><PlanDetailRoute /></Gate> },
+  { path: 'surveys/:surveyId/map', element: <Gate capability="surveys.read"><SurveyMapRoute /></Gate> },
+  { path: 'compliance', element: <Gate capability="surveys.read"><ComplianceOverviewRoute /></Gate> },
+  { path: 'compliance/surveys/:surveyId', element: <Gate capability="surveys.read"><SurveyComplianceRoute /></Gate> },
+  { path: 'compliance/surveys/:surveyId/zones/:zoneId', element: <Gate capability="surveys.read"><ZoneComplianceRoute /></Gate> },
+  { path: 'targets', element: <Gate capability="targets.read"><TargetsRoute /></Gate> },
+  { path: 'settings', element: <Gate capability="organization.settings"><SettingsRoute /></Gate> },
 ];
 
 export const routes: RouteObject[] = [

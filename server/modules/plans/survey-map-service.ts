@@ -38,7 +38,7 @@ export function surveyMap(db: Db, user: SessionUser, surveyId: number, planId: n
     plan = db.select().from(plans).where(eq(plans.siteId, survey.siteId)).orderBy(asc(plans.id)).get();
     if (!plan) throw notFound('A plan of this survey\'s site');
   }
-  const base = { surveyId, surveyName: survey.name, planId: plan.id };
+  const base = { surveyId, surveyName: survey.name, siteId: survey.siteId, planId: plan.id };
   const extent = planExtent(plan);
   const rows = survey.activeDecodeId === null ? [] : db.select({
     id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, role: readings.role, lux: readings.lux, uLux: readings.uLux,

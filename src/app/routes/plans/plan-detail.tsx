@@ -1,0 +1,97 @@
+import { useState } from 'react';
+import { Link, useParams } from 'react-router';
+import { PenLine, Plus } from 'lucide-react';
+import { can } from '@shared/policy';
+import type { Zone } from '@shared/schemas/zones';
+import type { PlanPoint } from '@shared/spatial/polygon';
+import { useCurrentUser } from '@/app/current-user';
+import { usePlan } from '@/features/plans/api/get-plan';
+import { useZones } from '@/features/plans/api/get-zones';
+import { useSiteSurveys } from '@/features/plans/api/get-site-surveys';
+import { PlanEditorMap, type EditorMode } from '@/features/plans/components/plan-editor-map';
+import { ScaleForm, type ScalePick } from '@/features/plans/components/scale-form';
+import { ZoneForm } from '@/features/plans/components/zone-form';
+import { ZoneList } from '@/features/plans/components/zone-list';
+import { Page, PageHeader } from '@/components/ui/page';
+import { Card, CardBody, CardHeader } from '@/components/ui/card';
+import { Button } from '@/components/ui/button';
+import { EmptyState, QueryState } from '@/components/ui/states';
+
+/** One plan: set its scale, draw and edit its zones, open a survey on it. */
+export function PlanDetailRoute() {
+  const planId = Number(useParams().planId);
+  const user = useCurrentUser();
+  const canEdit = can(user.role, 'plans.write');
+  const plan = usePlan(planId);
+  const zones = useZones(planId);
+  const surveys = useSiteSurveys(plan.data?.siteId, can(user.role, 'surveys.read'));
+  const [mode, setMode] = useState<EditorMode>({ kind: 'view' });
+  const [scalePick, setScalePick] = useState<ScalePick>({ active: false, points: [] });
+  const [editing, setEditing] = useState<{ zone: Zone | null; corners: PlanPoint[] | null } | null>(null);
+
+  const startZone = () => { setEditing({ zone: null, corners: null }); setMode({ kind: 'draw' }); };
+  const editZone = (z: Zone) => { setEditing({ zone: z, corners: z.polygon }); setMode({ kind: 'edit', zoneId: z.id }); };
+  const finish = () => { setEditing(null); setMode({ kind: 'view' }); };
+  const onScalePick = (p: ScalePick) => { setScalePick(p); setMode(p.active ? { kind: 'scale' } : { kind: 'view' }); };
+
+  return (
+    <Page>
+      <QueryState query={plan}>
+        {(p) => (
+          <>
+            <PageHeader eyebrow={<Link to={`/plans?site=${p.siteId}`} className="hover:underline">Plans</Link>} title={p.name}
+              description={p.widthM && p.heightM ? `${Math.round(p.widthM * 10) / 10} × ${Math.round(p.heightM * 10) / 10} m · ${p.widthPx} × ${p.heightPx} px` : 'The scale is not set yet: set it before drawing zones.'} />
+            <div className="grid gap-6 xl:grid-cols-[1fr_24rem]">
+              <div className="min-w-0 space-y-2">
+                <PlanEditorMap plan={p} zones={zones.data?.items ?? []} mode={mode} scalePick={scalePick} onScalePick={onScalePick}
+                  onOutline={(corners) => setEditing((e) => ({ zone: e?.zone ?? null, corners }))} editingCorners={editing?.corners ?? null} />
+                <p className="text-xs text-ink-600" aria-live="polite">
+                  {mode.kind === 'draw' ? 'Click the corners of the zone on the plan; click the first corner again to close it. Or type the corners in the form.'
+                    : mode.kind === 'edit' ? 'Drag the corners to move them; drag a middle handle to add a corner. Save in the form.'
+                      : mode.kind === 'scale' ? 'Click two points on the plan whose distance you know.' : 'Plan coordinates: metres from the lower-left corner, y upwards.'}
+                </p>
+              </div>
+              <div className="space-y-6">
+                {canEdit && (
+                  <Card>
+                    <CardHeader title="Scale" description="Type the plan's width, or click two points and give the distance between them." />
+                    <CardBody><ScaleForm plan={p} pick={scalePick} onPickChange={onScalePick} /></CardBody>
+                  </Card>
+                )}
+                <Card>
+                  <CardHeader title="Zones" description="Rooms, task areas and outdoor areas. Readings belong to the smallest zone that contains them."
+                    actions={canEdit && p.widthM && !editing ? <Button size="sm" onClick={startZone}><Plus className="h-4 w-4" aria-hidden />Add zone</Button> : undefined} />
+                  <CardBody className="space-y-4">
+                    {editing && p.widthM && p.heightM && (
+                      <ZoneForm key={editing.zone?.id ?? 'new'} planId={p.id} extent={{ widthM: p.widthM, heightM: p.heightM }} zone={editing.zone} corners={editing.corners} onDone={finish} />
+                    )}
+                    <QueryState query={zones} isEmpty={(d) => d.items.length === 0}
+                      empty={<EmptyState title="No zones yet" icon={<PenLine className="h-6 w-6" aria-hidden />}>{canEdit ? (p.widthM ? 'Add a zone and draw it on the plan.' : 'Set the scale, then draw zones.') : 'A surveyor draws the zones.'}</EmptyState>}>
+                      {(d) => <ZoneList zones={d.items} canEdit={canEdit && !editing} onEdit={editZone} />}
+                    </QueryState>
+                  </CardBody>
+                </Card>
+                {can(user.role, 'surveys.read') && (
+                  <Card>
+                    <CardHeader title="Surveys on this plan" description="Open a survey's readings on this plan." />
+                    <CardBody>
+                      <QueryState query={surveys} isEmpty={(d) => d.items.length === 0} empty={<EmptyState title="No survey of this site yet" />}>
+                        {(d) => (
+                          <ul className="space-y-1 text-sm">
+                            {d.items.map((s) => (
+                              <li key={s.id}><Link className="font-medium text-lamp-800 underline-offset-2 hover:underline" to={`/surveys/${s.id}/map?planId=${p.id}`}>{s.name}</Link> <span className="text-xs text-ink-500">· {s.readingCount} readings</span></li>
+                            ))}
+                          </ul>
+                        )}
+                      </QueryState>
+                    </CardBody>
+                  </Card>
+                )}
+              </div>
+            </div>
+          </>
+        )}
+      </QueryState>
+    </Page>
+  );
+}
