@@ -1,6 +1,7 @@
 import type { LucideIcon } from 'lucide-react';
 import { LayoutDashboard, Users, Mail } from 'lucide-react';
 import { Map as PlanIcon } from 'lucide-react';
+import { ClipboardList as SurveysIcon } from 'lucide-react';
 import { ClipboardCheck, Library, Settings } from 'lucide-react';
 import type { Capability } from '@shared/policy';
 
@@ -10,6 +11,7 @@ export type NavItem = { to: string; label: string; icon: LucideIcon; capability?
 export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Overview', icon: LayoutDashboard, group: 'work' },
   // Feature entries go here, in the order people use them.
+  { to: '/surveys', label: 'Surveys', icon: SurveysIcon, capability: 'surveys.read', group: 'work', description: 'Sites, walk-through surveys, meter logs and their readings.' },
   { to: '/plans', label: 'Plans', icon: PlanIcon, capability: 'sites.read', group: 'work', description: 'Plans to scale, zones, and survey points on the plan.' },
   { to: '/compliance', label: 'Verdicts', icon: ClipboardCheck, capability: 'surveys.read', group: 'work', description: 'Which rooms meet their lighting targets, sign-off and reports.' },
   { to: '/targets', label: 'Targets', icon: Library, capability: 'targets.read', group: 'work', description: 'The target library: Em and U0 per use type, with sources.' },

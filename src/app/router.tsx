@@ -14,6 +14,8 @@ import { OutboxRoute } from './routes/admin/outbox';
 import { PlansIndexRoute } from './routes/plans/plans-index';
 import { PlanDetailRoute } from './routes/plans/plan-detail';
 import { SurveyMapRoute } from './routes/plans/survey-map';
+import { SurveysIndexRoute } from './routes/surveys/surveys-index';
+import { SurveyDetailRoute } from './routes/surveys/survey-detail';
 import { ComplianceOverviewRoute } from './routes/compliance/compliance-overview';
 import { SurveyComplianceRoute } from './routes/compliance/survey-compliance';
 import { ZoneComplianceRoute } from './routes/compliance/zone-compliance';
@@ -45,6 +47,8 @@ const appRoutes: RouteObject[] = [
   { path: 'outbox', element: <Gate capability="outbox.read"><OutboxRoute /></Gate> },
   { path: 'plans', element: <Gate capability="sites.read"><PlansIndexRoute /></Gate> },
   { path: 'plans/:planId', element: <Gate capability="sites.read"><PlanDetailRoute /></Gate> },
+  { path: 'surveys', element: <Gate capability="surveys.read"><SurveysIndexRoute /></Gate> },
+  { path: 'surveys/:surveyId', element: <Gate capability="surveys.read"><SurveyDetailRoute /></Gate> },
   { path: 'surveys/:surveyId/map', element: <Gate capability="surveys.read"><SurveyMapRoute /></Gate> },
   { path: 'compliance', element: <Gate capability="surveys.read"><ComplianceOverviewRoute /></Gate> },
   { path: 'compliance/surveys/:surveyId', element: <Gate capability="surveys.read"><SurveyComplianceRoute /></Gate> },

@@ -1,3 +1,5 @@
+import fs from 'node:fs';
+import path from 'node:path';
 import { describe, it, expect, beforeAll } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
@@ -252,5 +254,18 @@ describe('log upload: refused before import', () => {
     expect(again.status).toBe(202);
     const imp = t.db.select().from(logImports).where(and(eq(logImports.surveyId, surveyId), eq(logImports.status, 'failed'))).all();
     expect(imp.length).toBeGreaterThanOrEqual(1);
+  });
+});
+
+describe('sample logs in public/samples', () => {
+  const read = (name: string) => fs.readFileSync(path.resolve(__dirname, '../../public/samples', name));
+  it('imports the sample walk and its semicolon twin with the demo probes, and rejects the broken one line by line', async () => {
+    const walk = await uploadAndWait(t, c, await newDraftSurvey(t, c), read('library-walk.csv'));
+    expect(walk.status).toMatchObject({ status: 'done', errors: [] });
+    const semi = await uploadAndWait(t, c, await newDraftSurvey(t, c), read('library-walk-semicolon.csv'));
+    expect(semi.status).toMatchObject({ status: 'done', errors: [] });
+    const broken = await uploadAndWait(t, c, await newDraftSurvey(t, c), read('broken-log.csv'));
+    expect(broken.status.status).toBe('failed');
+    expect(broken.status.errors.map((e: { line: number; column: string }) => [e.line, e.column])).toEqual([[3, 'counts'], [4, 'timestamp'], [5, 'probe'], [6, 'gain'], [7, 'y_m']]);
   });
 });

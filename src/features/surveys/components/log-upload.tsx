@@ -1,0 +1,76 @@
+import { useEffect, useRef, useState } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
+import { CheckCircle2, Upload } from 'lucide-react';
+import { useUploadLog } from '../api/upload-log';
+import { useImport } from '../api/get-import';
+import { surveyQueryOptions } from '../api/get-survey';
+import { surveyReadingsKey } from '../api/get-readings';
+import { ImportErrorsTable, ImportWarningsList } from './import-errors-table';
+import { Button } from '@/components/ui/button';
+import { ProgressBar } from '@/components/ui/progress-bar';
+import { FormError } from '@/components/ui/form-error';
+
+/**
+ * Upload of one log: the transfer's progress (XHR upload events), then the server's processing
+ * (polling the import), then the outcome: readings refreshed, or the file's problems as a table.
+ */
+export function LogUpload({ surveyId }: { surveyId: number }) {
+  const input = useRef<HTMLInputElement>(null);
+  const [file, setFile] = useState<File | null>(null);
+  const [transfer, setTransfer] = useState(0);
+  const [importId, setImportId] = useState<number | null>(null);
+  const upload = useUploadLog();
+  const imp = useImport(importId);
+  const qc = useQueryClient();
+  const status = imp.data?.status;
+
+  useEffect(() => {
+    if (status === 'done' || status === 'failed') {
+      void qc.invalidateQueries({ queryKey: surveyQueryOptions(surveyId).queryKey });
+      if (status === 'done') void qc.invalidateQueries({ queryKey: surveyReadingsKey(surveyId) });
+    }
+  }, [status, surveyId, qc]);
+
+  const start = () => {
+    if (!file) return;
+    setImportId(null);
+    setTransfer(0);
+    upload.mutate({ surveyId, file, onProgress: (p) => setTransfer(p.fraction) }, { onSuccess: (r) => { setTransfer(1); setImportId(r.importId); } });
+  };
+
+  return (
+    <div className="flex flex-col gap-4">
+      <div className="flex flex-wrap items-end gap-3">
+        <div>
+          <label htmlFor="log-file" className="mb-1 block text-sm font-medium text-ink-800">Meter log (CSV)</label>
+          <input
+            id="log-file" ref={input} type="file" accept=".csv,.txt,text/csv"
+            className="block text-sm file:mr-3 file:rounded-lg file:border-0 file:bg-ink-100 file:px-3 file:py-2 file:text-sm file:font-medium hover:file:bg-ink-200"
+            onChange={(e) => setFile(e.target.files?.[0] ?? null)}
+          />
+        </div>
+        <Button onClick={start} disabled={!file} busy={upload.isPending}><Upload className="h-4 w-4" aria-hidden />Upload log</Button>
+        <a className="text-sm text-ink-600 underline underline-offset-2" href="/samples/library-walk.csv" download>Sample log</a>
+      </div>
+      {(upload.isPending || importId !== null) && (
+        <div className="grid gap-3 sm:grid-cols-2">
+          <ProgressBar label="Transfer" value={transfer} tone={transfer >= 1 ? 'good' : 'lamp'} />
+          <ProgressBar
+            label={status === 'done' ? 'Processing: done' : status === 'failed' ? 'Processing: rejected' : status === 'running' ? 'Processing' : 'Processing: waiting'}
+            value={imp.data ? imp.data.progress : 0}
+            tone={status === 'done' ? 'good' : status === 'failed' ? 'bad' : 'lamp'}
+          />
+        </div>
+      )}
+      <FormError error={upload.error ?? imp.error} />
+      {imp.data && status === 'done' && (
+        <p role="status" className="flex items-center gap-2 text-sm text-meets-700">
+          <CheckCircle2 className="h-4 w-4" aria-hidden />
+          {imp.data.filename}: {imp.data.rowsRead.toLocaleString('en-GB')} rows read, {imp.data.readings.toLocaleString('en-GB')} readings added.
+        </p>
+      )}
+      {imp.data && <ImportWarningsList warnings={imp.data.warnings} />}
+      {imp.data && status === 'failed' && <ImportErrorsTable errors={imp.data.errors} filename={imp.data.filename} />}
+    </div>
+  );
+}
