@@ -6,9 +6,16 @@ import { insertSite, insertSurveyWithReadings, orgOf, pngOf } from '../plans-fix
 let n = 0;
 const room = { name: 'Example room', kind: 'room', useType: 'office_writing', polygon: [[1, 1], [5, 1], [5, 4], [1, 4]] };
 
+// One admin session per test app: signing in (argon2) for every example would slow the matrix.
+const adminClients = new WeakMap<TestApp, ReturnType<TestApp['signIn']>>();
+function adminOf(t: TestApp) {
+  if (!adminClients.has(t)) adminClients.set(t, t.signIn(DEMO.admin));
+  return adminClients.get(t)!;
+}
+
 async function examplePlan(t: TestApp) {
   const siteId = insertSite(t, orgOf(t, DEMO.admin), `Example site ${n++}`);
-  const admin = await t.signIn(DEMO.admin);
+  const admin = await adminOf(t);
   const res = await admin.post(`/api/sites/${siteId}/plans`).attach('file', pngOf(100, 80, n), { filename: 'p.png', contentType: 'image/png' }).field('name', 'Example plan').field('widthM', '10');
   if (res.status !== 201) throw new Error(`example plan upload failed: ${res.status} ${JSON.stringify(res.body)}`);
   return { siteId, planId: res.body.id as number, admin };
