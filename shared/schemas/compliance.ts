@@ -73,7 +73,12 @@ export type ComplianceCounts = z.infer<typeof complianceCountsSchema>;
 export const complianceResponseSchema = z.object({
   surveyId: z.number().int(),
   surveyName: z.string(),
+  siteId: z.number().int(),
+  siteName: z.string(),
+  startedOn: z.string().nullable(),
   status: z.enum(['draft', 'submitted', 'signed_off', 'returned']),
+  /** The reviewer's comment (on return or sign-off). */
+  reviewComment: z.string().nullable(),
   rule: z.enum(DECISION_RULES),
   ruleText: z.string(),
   gridRule: z.string(),

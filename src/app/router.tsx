@@ -14,6 +14,11 @@ import { OutboxRoute } from './routes/admin/outbox';
 import { PlansIndexRoute } from './routes/plans/plans-index';
 import { PlanDetailRoute } from './routes/plans/plan-detail';
 import { SurveyMapRoute } from './routes/plans/survey-map';
+import { ComplianceOverviewRoute } from './routes/compliance/compliance-overview';
+import { SurveyComplianceRoute } from './routes/compliance/survey-compliance';
+import { ZoneComplianceRoute } from './routes/compliance/zone-compliance';
+import { TargetsRoute } from './routes/compliance/targets';
+import { SettingsRoute } from './routes/compliance/settings';
 import { SurveysIndexRoute } from './routes/surveys/surveys-index';
 import { SurveyDetailRoute } from './routes/surveys/survey-detail';
 import { ComplianceOverviewRoute } from './routes/compliance/compliance-overview';
@@ -50,6 +55,11 @@ const appRoutes: RouteObject[] = [
   { path: 'surveys', element: <Gate capability="surveys.read"><SurveysIndexRoute /></Gate> },
   { path: 'surveys/:surveyId', element: <Gate capability="surveys.read"><SurveyDetailRoute /></Gate> },
   { path: 'surveys/:surveyId/map', element: <Gate capability="surveys.read"><SurveyMapRoute /></Gate> },
+  { path: 'compliance', element: <Gate capability="surveys.read"><ComplianceOverviewRoute /></Gate> },
+  { path: 'compliance/surveys/:surveyId', element: <Gate capability="surveys.read"><SurveyComplianceRoute /></Gate> },
+  { path: 'compliance/surveys/:surveyId/zones/:zoneId', element: <Gate capability="surveys.read"><ZoneComplianceRoute /></Gate> },
+  { path: 'targets', element: <Gate capability="targets.read"><TargetsRoute /></Gate> },
+  { path: 'settings', element: <Gate capability="organization.settings"><SettingsRoute /></Gate> },
   { path: 'compliance', element: <Gate capability="surveys.read"><ComplianceOverviewRoute /></Gate> },
   { path: 'compliance/surveys/:surveyId', element: <Gate capability="surveys.read"><SurveyComplianceRoute /></Gate> },
   { path: 'compliance/surveys/:surveyId/zones/:zoneId', element: <Gate capability="surveys.read"><ZoneComplianceRoute /></Gate> },

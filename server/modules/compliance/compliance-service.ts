@@ -83,6 +83,8 @@ export function previousSignedOff(db: Db, survey: SurveyRow): SurveyRow | null {
   return candidates.find((c) => key(c) < key(survey)) ?? null;
 }
 
+const siteNameOf = (db: Db, siteId: number) => db.select({ name: sites.name }).from(sites).where(eq(sites.id, siteId)).get()?.name ?? '';
+
 const strip = ({ polygon: _p, readingIds: _r, wallBandReadingIds: _w, ...zone }: JudgedZone): ZoneCompliance => zone;
 
 /** The verdicts and judged zones of a survey: frozen if signed off, else live. */
@@ -112,7 +114,8 @@ export function complianceOf(db: Db, survey: SurveyRow): ComplianceResponse {
     };
   });
   return {
-    surveyId: survey.id, surveyName: survey.name, status: survey.status, rule: v.rule, ruleText: RULE_TEXT[v.rule], gridRule: v.frozen?.gridRule ?? GRID_RULE,
+    surveyId: survey.id, surveyName: survey.name, siteId: survey.siteId, siteName: siteNameOf(db, survey.siteId), startedOn: survey.startedOn,
+    status: survey.status, reviewComment: survey.reviewComment, rule: v.rule, ruleText: RULE_TEXT[v.rule], gridRule: v.frozen?.gridRule ?? GRID_RULE,
     frozen: v.frozen !== null, frozenAt: v.frozen ? new Date(v.frozen.frozenAt).toISOString() : null, hasDaylightReference: v.hasDaylightReference,
     counts: countVerdicts(zones), zones, unassignedPoints: v.unassignedPoints,
     previous: prev ? { surveyId: prev.id, name: prev.name, signedOffAt: prev.signedOffAt ? new Date(prev.signedOffAt).toISOString() : null } : null,

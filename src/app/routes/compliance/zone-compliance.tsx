@@ -1,0 +1,47 @@
+import { Link, useParams } from 'react-router';
+import { can } from '@shared/policy';
+import { useCurrentUser } from '@/app/current-user';
+import { useZoneCompliance } from '@/features/compliance/api/get-zone-compliance';
+import { useInvalidateCompliance } from '@/features/compliance/api/use-invalidate-compliance';
+import { ZonePointsTable, ZoneSummaryCards } from '@/features/compliance/components/zone-detail';
+import { RuleNote } from '@/features/compliance/components/rule-note';
+import { SafetyCaution } from '@/features/compliance/components/safety-caution';
+import { ZoneTargetPicker } from '@/features/targets/components/zone-target-picker';
+import { Card, CardBody, CardHeader } from '@/components/ui/card';
+import { Page, PageHeader } from '@/components/ui/page';
+import { EmptyState, QueryState } from '@/components/ui/states';
+
+/** One zone of a survey: its points, statistics, target and source. */
+export function ZoneComplianceRoute() {
+  const params = useParams();
+  const surveyId = Number(params.surveyId);
+  const zoneId = Number(params.zoneId);
+  const user = useCurrentUser();
+  const detail = useZoneCompliance(surveyId, zoneId);
+  const invalidate = useInvalidateCompliance();
+  return (
+    <Page>
+      <QueryState query={detail} loadingLabel="Loading the zone…">
+        {(d) => (
+          <div className="space-y-6">
+            <PageHeader eyebrow={<Link to={`/compliance/surveys/${surveyId}`} className="hover:underline">Back to the survey</Link>} title={d.zone.name}
+              description={`${d.zone.planName} · ${d.zone.kind.replace('_', ' ')} · use type ${d.zone.useType}`} />
+            <RuleNote rule={d.rule} ruleText={d.ruleText} frozen={d.frozen} />
+            <ZoneSummaryCards detail={d} />
+            {!d.frozen && can(user.role, 'plans.write') && (
+              <Card>
+                <CardHeader title="Which library entry applies" description="By default a zone is judged against the entry for its use type; choose another, e.g. a client's stricter specification." />
+                <CardBody><ZoneTargetPicker zoneId={zoneId} onChanged={() => invalidate(surveyId)} /></CardBody>
+              </Card>
+            )}
+            <Card>
+              <CardHeader title="Points" description="Points in the wall band are shown but left out of the statistics." />
+              {d.points.length === 0 ? <EmptyState title="No readings in this zone" /> : <ZonePointsTable detail={d} />}
+            </Card>
+            <SafetyCaution />
+          </div>
+        )}
+      </QueryState>
+    </Page>
+  );
+}

@@ -1,0 +1,18 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { api } from '@/lib/api-client';
+import type { SetZoneTargetBody, ZoneTargetResponse } from '@shared/schemas/targets';
+import { zoneTargetQueryOptions } from './get-zone-target';
+
+export const setZoneTarget = ({ zoneId, ...body }: SetZoneTargetBody & { zoneId: number }) => api.put<ZoneTargetResponse>(`/zones/${zoneId}/target`, body);
+
+/** `onChanged` lets the page refresh what depends on the choice (the survey's verdicts). */
+export function useSetZoneTarget(onChanged?: () => unknown) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: setZoneTarget,
+    onSuccess: async (z) => {
+      qc.setQueryData(zoneTargetQueryOptions(z.zoneId).queryKey, z);
+      await onChanged?.();
+    },
+  });
+}
