@@ -14,6 +14,13 @@ import { OutboxRoute } from './routes/admin/outbox';
 import { PlansIndexRoute } from './routes/plans/plans-index';
 import { PlanDetailRoute } from './routes/plans/plan-detail';
 import { SurveyMapRoute } from './routes/plans/survey-map';
+import { CalibrationDashboardRoute } from './routes/calibration/calibration-dashboard';
+import { ProbesIndexRoute } from './routes/calibration/probes-index';
+import { ProbeNewRoute } from './routes/calibration/probe-new';
+import { ProbeDetailRoute } from './routes/calibration/probe-detail';
+import { ProbeEditRoute } from './routes/calibration/probe-edit';
+import { BenchRunRoute } from './routes/calibration/bench-run';
+import { CalibrationAuditRoute } from './routes/calibration/calibration-audit';
 import { ComplianceOverviewRoute } from './routes/compliance/compliance-overview';
 import { SurveyComplianceRoute } from './routes/compliance/survey-compliance';
 import { ZoneComplianceRoute } from './routes/compliance/zone-compliance';
@@ -55,6 +62,13 @@ const appRoutes: RouteObject[] = [
   { path: 'surveys', element: <Gate capability="surveys.read"><SurveysIndexRoute /></Gate> },
   { path: 'surveys/:surveyId', element: <Gate capability="surveys.read"><SurveyDetailRoute /></Gate> },
   { path: 'surveys/:surveyId/map', element: <Gate capability="surveys.read"><SurveyMapRoute /></Gate> },
+  { path: 'calibration', element: <Gate capability="probes.read"><CalibrationDashboardRoute /></Gate> },
+  { path: 'calibration/probes', element: <Gate capability="probes.read"><ProbesIndexRoute /></Gate> },
+  { path: 'calibration/probes/new', element: <Gate capability="probes.write"><ProbeNewRoute /></Gate> },
+  { path: 'calibration/probes/:probeId', element: <Gate capability="probes.read"><ProbeDetailRoute /></Gate> },
+  { path: 'calibration/probes/:probeId/edit', element: <Gate capability="probes.write"><ProbeEditRoute /></Gate> },
+  { path: 'calibration/bench-runs/:benchRunId', element: <Gate capability="coefficients.read"><BenchRunRoute /></Gate> },
+  { path: 'calibration/audit', element: <Gate capability="audit.read"><CalibrationAuditRoute /></Gate> },
   { path: 'compliance', element: <Gate capability="surveys.read"><ComplianceOverviewRoute /></Gate> },
   { path: 'compliance/surveys/:surveyId', element: <Gate capability="surveys.read"><SurveyComplianceRoute /></Gate> },
   { path: 'compliance/surveys/:surveyId/zones/:zoneId', element: <Gate capability="surveys.read"><ZoneComplianceRoute /></Gate> },

@@ -1,0 +1,10 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { api } from '@/lib/api-client';
+import type { BenchRunDetailDto } from '@shared/schemas/bench-runs';
+
+export const getBenchRun = (id: number) => api.get<BenchRunDetailDto>(`/bench-runs/${id}`);
+export const benchRunQueryOptions = (id: number) => queryOptions({ queryKey: ['bench-runs', 'detail', id], queryFn: () => getBenchRun(id) });
+export const useBenchRun = (id: number) => useQuery(benchRunQueryOptions(id));
+
+/** The raw bench file as uploaded. */
+export const benchRunFileUrl = (id: number) => `/api/bench-runs/${id}/file`;

@@ -1,0 +1,7 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { api } from '@/lib/api-client';
+import type { BenchRunDto } from '@shared/schemas/bench-runs';
+
+export const getBenchRuns = (probeId: number) => api.get<{ items: BenchRunDto[] }>(`/probes/${probeId}/bench-runs`);
+export const benchRunsQueryOptions = (probeId: number) => queryOptions({ queryKey: ['bench-runs', 'probe', probeId], queryFn: () => getBenchRuns(probeId) });
+export const useBenchRuns = (probeId: number, enabled = true) => useQuery({ ...benchRunsQueryOptions(probeId), enabled });
