@@ -38,6 +38,13 @@ export type ParseLogSink = { post(m: WorkerToMain): void; drain(): Promise<void>
 
 const NUMBER = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
 
+/** The budget as JSON, built directly (names are the core's fixed identifiers; uRel a finite number). */
+function budgetJson(parts: DecodedReading['budget']): string {
+  let out = '[';
+  for (let i = 0; i < parts.length; i++) out += `${i ? ',' : ''}{"name":"${parts[i].name}","uRel":${Number.isFinite(parts[i].uRel) ? parts[i].uRel : 'null'}}`;
+  return `${out}]`;
+}
+
 /** Comma, semicolon or tab: whichever occurs most in the header line outside quotes (comma on a tie). */
 export function detectDelimiter(headerLine: string): ',' | ';' | '\t' {
   const n = { ',': 0, ';': 0, '\t': 0 };
@@ -90,14 +97,14 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
   const delimiter = detectDelimiter(header);
   const decimalComma = delimiter === ';';
   const parseTime = createTimestampParser(input.timeZone);
-  const batchRows = input.batchRows ?? 8192;
+  const batchRows = input.batchRows ?? 4096;
 
   let samples: unknown[] = [];
   let readings: unknown[] = [];
   const decoder = createLogDecoder(input.calibration, (r: DecodedReading) => {
     readingCount++;
     if (errorCount > 0) return;
-    readings.push(r.point, r.xM, r.yM, r.role, r.timeMs, r.probeId, r.lux, r.uLux, r.luxBound, r.flag, r.gainCode, r.samples, r.chosenSample, r.coefficientSetId, JSON.stringify(r.budget), r.note);
+    readings.push(r.point, r.xM, r.yM, r.role, r.timeMs, r.probeId, r.lux, r.uLux, r.luxBound, r.flag, r.gainCode, r.samples, r.chosenSample, r.coefficientSetId, budgetJson(r.budget), r.note);
   }, addError);
 
   const col: Record<Column, number> = Object.fromEntries(LOG_COLUMNS.map((c) => [c, -1])) as Record<Column, number>;
@@ -112,6 +119,13 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     let v = row[i].trim();
     if (v === '') return undefined;
     if (decimalComma) v = v.replace(',', '.');
+    // Fast path for plain decimals (digits, sign, point); anything else goes through the strict pattern.
+    const c0 = v.charCodeAt(0);
+    const c1 = v.length > 1 ? v.charCodeAt(1) : 48;
+    if (((c0 >= 48 && c0 <= 57) || c0 === 45 || c0 === 46) && ((c1 >= 48 && c1 <= 57) || c1 === 46)) {
+      const n = +v;
+      if (n === n) return n;
+    }
     if (!NUMBER.test(v)) {
       addError({ line, column: c, value: row[i], message: `${c} "${row[i]}" is not a number${decimalComma ? ' (with semicolons, write decimals as 12,5 or 12.5)' : ''}` });
       return null;

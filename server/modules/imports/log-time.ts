@@ -33,7 +33,38 @@ export function createZoneOffset(timeZone: string): (utcMs: number) => number {
  */
 export function createTimestampParser(timeZone: string): (text: string) => number | null {
   const offsetAt = createZoneOffset(timeZone);
+  let lastDay = '';
+  let lastDayMs = 0;
+  const digits = (t: string, i: number, n: number) => {
+    let v = 0;
+    for (let k = i; k < i + n; k++) {
+      const c = t.charCodeAt(k) - 48;
+      if (c < 0 || c > 9) return -1;
+      v = v * 10 + c;
+    }
+    return v;
+  };
   return (text) => {
+    // Fast path for the common YYYY-MM-DDTHH:MM:SS[.sss]Z: the day's epoch is cached.
+    if (text.length === 20 || text.length === 24) {
+      const last = text.charCodeAt(text.length - 1);
+      if (last === 90 && text.charCodeAt(10) === 84 && text.charCodeAt(13) === 58 && text.charCodeAt(16) === 58 && (text.length === 20 || text.charCodeAt(19) === 46)) {
+        if (!text.startsWith(lastDay) || lastDay === '') {
+          const y = digits(text, 0, 4), mo = digits(text, 5, 2), d = digits(text, 8, 2);
+          if (y >= 0 && mo >= 1 && mo <= 12 && d >= 1 && text.charCodeAt(4) === 45 && text.charCodeAt(7) === 45) {
+            const ms = Date.UTC(y, mo - 1, d);
+            if (new Date(ms).getUTCDate() === d) {
+              lastDay = text.slice(0, 11);
+              lastDayMs = ms;
+            }
+          }
+        }
+        if (lastDay !== '' && text.startsWith(lastDay)) {
+          const h = digits(text, 11, 2), mi = digits(text, 14, 2), sec = digits(text, 17, 2), frac = text.length === 24 ? digits(text, 20, 3) : 0;
+          if (h >= 0 && h <= 23 && mi >= 0 && mi <= 59 && sec >= 0 && sec <= 59 && frac >= 0) return lastDayMs + h * 3600_000 + mi * 60_000 + sec * 1000 + frac;
+        }
+      }
+    }
     const m = ISO.exec(text);
     if (m === null) return null;
     const [, y, mo, d, h, mi, s, frac, zone] = m;

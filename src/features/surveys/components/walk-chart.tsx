@@ -41,7 +41,7 @@ export function WalkChart({ surveyId }: { surveyId: number }) {
               <ResponsiveContainer width="100%" height="100%">
                 <LineChart data={gains} margin={{ top: 4, right: 16, bottom: 0, left: 8 }}>
                   <XAxis type="number" dataKey="t" domain={domain} tickFormatter={time} />
-                  <YAxis dataKey="g" allowDecimals={false} label={{ value: 'gain', angle: -90, position: 'insideLeft' }} width={64} />
+                  <YAxis dataKey="g" allowDecimals={false} domain={[0, 'dataMax']} label={{ value: 'gain', angle: -90, position: 'insideLeft' }} width={64} />
                   <Line type="stepAfter" dataKey="g" stroke="#334155" dot={false} isAnimationActive={false} />
                 </LineChart>
               </ResponsiveContainer>

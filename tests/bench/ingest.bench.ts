@@ -1,0 +1,155 @@
+// Ingest benchmark (`npm run bench:ingest`; INGEST_ROWS=200000 for a quicker run). Prints figures;
+// asserts nothing. Generates a log of N rows (bursts, saturations, two probes), uploads it over
+// HTTP to a server this script starts, waits for `done` while polling GET /api/health every 50 ms,
+// then times a baseline: papaparse streaming the same file and inserting N rows with one prepared
+// statement in one transaction. Targets (2-core machine): ratio <= 1.5, peak RSS <= 350 MB, health p99 <= 250 ms.
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import net from 'node:net';
+import { spawn } from 'node:child_process';
+import Database from 'better-sqlite3';
+import Papa from 'papaparse';
+import { benchLogLines, simProbe } from '../../server/db/demo/simulate-log';
+import { DEMO_COUNTING_PROBES } from '../../server/db/demo/demo-probes';
+
+const N = Number(process.env.INGEST_ROWS ?? 1_000_000);
+const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'luxtrail-ingest-'));
+const logPath = path.join(dir, 'bench-log.csv');
+const START = Date.parse('2026-11-10T00:00:00Z');
+const probes = [{ ...simProbe(DEMO_COUNTING_PROBES[0]), serial: 'BENCH-A' }, { ...simProbe(DEMO_COUNTING_PROBES[1]), serial: 'BENCH-B' }] as [ReturnType<typeof simProbe>, ReturnType<typeof simProbe>];
+
+async function writeLog() {
+  const out = fs.createWriteStream(logPath);
+  let buf: string[] = [];
+  for (const line of benchLogLines(N, probes, START)) {
+    buf.push(line);
+    if (buf.length >= 10_000) {
+      if (!out.write(`${buf.join('\n')}\n`)) await new Promise((r) => out.once('drain', r));
+      buf = [];
+    }
+  }
+  out.end(buf.length ? `${buf.join('\n')}\n` : '');
+  await new Promise((r) => out.once('finish', r));
+}
+
+const freePort = () => new Promise<number>((resolve) => {
+  const s = net.createServer().listen(0, '127.0.0.1', () => { const p = (s.address() as net.AddressInfo).port; s.close(() => resolve(p)); });
+});
+
+const pct = (xs: number[], p: number) => { const s = [...xs].sort((a, b) => a - b); return s[Math.min(s.length - 1, Math.ceil((p / 100) * s.length) - 1)]; };
+
+async function main() {
+  console.log(`Generating ${N.toLocaleString('en-GB')} rows…`);
+  await writeLog();
+  const bytes = fs.statSync(logPath).size;
+  console.log(`Log: ${(bytes / 1e6).toFixed(1)} MB`);
+
+  const port = await freePort();
+  const dbPath = path.join(dir, 'luxtrail.db');
+  const server = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+    env: { ...process.env, PORT: String(port), DATABASE_URL: dbPath, DATA_DIR: path.join(dir, 'data'), LOG_LEVEL: 'warn', NODE_ENV: 'test', UPLOAD_LIMIT_MB: '400' },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  let serverOut = '';
+  server.stdout.on('data', (d) => { serverOut += d; });
+  server.stderr.on('data', (d) => { serverOut += d; });
+  const base = `http://127.0.0.1:${port}`;
+  try {
+    for (let i = 0; ; i++) {
+      try { if ((await fetch(`${base}/api/health`)).ok) break; } catch { /* starting */ }
+      if (i > 600) throw new Error(`server did not start:\n${serverOut}`);
+      await new Promise((r) => setTimeout(r, 100));
+    }
+    // The benchmark's own probes, with the demo probes' coefficients.
+    const db = new Database(dbPath);
+    db.pragma('busy_timeout = 5000');
+    const orgId = (db.prepare("select organization_id as o from users where email = 'surveyor@luxtrail.test'").get() as { o: number }).o;
+    for (const p of probes) {
+      const id = db.prepare("insert into probes (organization_id, serial, kind, description, full_scale_counts, saturation_counts, floor_counts, gains, created_at, updated_at) values (?, ?, 'counts', 'bench', ?, ?, ?, ?, 0, 0)")
+        .run(orgId, p.serial, p.probe.fullScaleCounts, p.probe.saturationCounts, p.probe.floorCounts, JSON.stringify(p.probe.gains)).lastInsertRowid;
+      db.prepare("insert into coefficient_sets (probe_id, version, status, effective_from, due_date, t_ref_ms, alpha_per_k, t_cal_c, gains, certificate_number, created_at) values (?, 1, 'approved', ?, ?, ?, ?, ?, ?, 'BENCH', 0)")
+        .run(id, START - 86_400_000, START + 400 * 86_400_000, p.set.tRefMs, p.set.alphaPerK, p.set.tCalC, JSON.stringify(p.set.gains));
+    }
+    db.close();
+
+    const login = await fetch(`${base}/api/auth/login`, { method: 'POST', headers: { 'Content-Type': 'application/json', Origin: `http://localhost:${port}` }, body: JSON.stringify({ email: 'surveyor@luxtrail.test', password: 'luxtrail-demo' }) });
+    const cookie = (login.headers.get('set-cookie') ?? '').split(';')[0];
+    const headers = { Cookie: cookie, Origin: `http://localhost:${port}` };
+    const sites = await (await fetch(`${base}/api/sites`, { headers })).json() as { items: { id: number }[] };
+    const survey = await (await fetch(`${base}/api/surveys`, { method: 'POST', headers: { ...headers, 'Content-Type': 'application/json' }, body: JSON.stringify({ siteId: sites.items[0].id, name: 'Ingest benchmark' }) })).json() as { id: number };
+
+    const latencies: number[] = [];
+    let polling = true;
+    const poller = (async () => {
+      while (polling) {
+        const t0 = performance.now();
+        await fetch(`${base}/api/health`);
+        latencies.push(performance.now() - t0);
+        await new Promise((r) => setTimeout(r, 50));
+      }
+    })();
+
+    // Peak RSS of the import alone: reset the high-water mark after start-up and seeding (Linux clear_refs 5).
+    try { fs.writeFileSync(`/proc/${server.pid}/clear_refs`, '5'); } catch { /* not Linux: the peak includes start-up */ }
+    const t0 = performance.now();
+    const form = new FormData();
+    form.append('file', await fs.openAsBlob(logPath, { type: 'text/csv' }), 'bench-log.csv');
+    const up = await fetch(`${base}/api/surveys/${survey.id}/logs`, { method: 'POST', headers, body: form });
+    const { importId } = await up.json() as { importId: number };
+    if (!importId) throw new Error(`upload failed: ${up.status}`);
+    let status: { status: string; readings: number; rowsRead: number; errors: unknown[] };
+    for (;;) {
+      status = await (await fetch(`${base}/api/imports/${importId}`, { headers })).json() as typeof status;
+      if (status.status === 'done' || status.status === 'failed') break;
+      await new Promise((r) => setTimeout(r, 100));
+    }
+    const importMs = performance.now() - t0;
+    polling = false;
+    await poller;
+    const rssKb = Number(/VmHWM:\s+(\d+)/.exec(fs.readFileSync(`/proc/${server.pid}/status`, 'utf8'))?.[1] ?? 0);
+    if (status.status !== 'done') throw new Error(`import failed: ${JSON.stringify(status.errors.slice(0, 3))}`);
+
+    // Baseline: papaparse streaming + one prepared statement in one transaction, same row count.
+    const bdb = new Database(path.join(dir, 'baseline.db'));
+    bdb.pragma('journal_mode = WAL');
+    bdb.pragma('synchronous = NORMAL');
+    bdb.exec('create table samples (id integer primary key autoincrement, import_id integer not null, line integer, time_ms integer, probe text, point text, gain_code integer, counts integer, x_m real, y_m real, int_ms real, temp_c real, role text, note text); create index samples_import_idx on samples (import_id)');
+    const insert = bdb.prepare('insert into samples (import_id, line, time_ms, probe, point, gain_code, counts, x_m, y_m, int_ms, temp_c, role, note) values (1, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)');
+    const b0 = performance.now();
+    let rows = 0;
+    bdb.exec('begin');
+    await new Promise<void>((resolve, reject) => {
+      Papa.parse<string[]>(fs.createReadStream(logPath, { encoding: 'utf8', highWaterMark: 1 << 20 }) as unknown as File, {
+        chunk(res) {
+          for (const r of res.data) {
+            if (r.length < 12 || r[0] === 'timestamp') continue;
+            rows++;
+            insert.run(rows + 1, Date.parse(r[0]), r[1], r[2], Number(r[3]), Number(r[4]), Number(r[6]), Number(r[7]), Number(r[8]), Number(r[9]), r[10], r[11] || null);
+          }
+        },
+        complete: () => resolve(),
+        error: reject,
+      });
+    });
+    bdb.exec('commit');
+    const baselineMs = performance.now() - b0;
+    bdb.close();
+
+    console.log(`\nRows ${status.rowsRead.toLocaleString('en-GB')} -> readings ${status.readings.toLocaleString('en-GB')} (baseline inserted ${rows.toLocaleString('en-GB')} rows)`);
+    console.log(`Import wall time (upload to done): ${(importMs / 1000).toFixed(2)} s`);
+    console.log(`Baseline (papaparse + one prepared statement, one transaction): ${(baselineMs / 1000).toFixed(2)} s`);
+    console.log(`Ratio import / baseline: ${(importMs / baselineMs).toFixed(2)}  (target <= 1.5)`);
+    console.log(`Server peak RSS (VmHWM): ${(rssKb / 1024).toFixed(0)} MB  (target <= 350 MB)`);
+    console.log(`GET /api/health during import: n=${latencies.length}, p50 ${pct(latencies, 50).toFixed(1)} ms, p99 ${pct(latencies, 99).toFixed(1)} ms, max ${Math.max(...latencies).toFixed(1)} ms  (target p99 <= 250 ms)`);
+  } catch (err) {
+    console.error(serverOut.slice(-3000));
+    throw err;
+  } finally {
+    server.kill('SIGTERM');
+    await new Promise((r) => server.once('exit', r));
+    fs.rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+main().catch((err) => { console.error(err); process.exit(1); });
