@@ -3,7 +3,7 @@ import { and, eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp } from './helpers';
 import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './compliance-fixtures';
 import { outboxAttachments, outboxMessages } from '@server/db/schema/organizations';
-import { surveys } from '@server/db/schema/surveys';
+import { decodes, readings, surveys } from '@server/db/schema/surveys';
 import { RULE_TEXT } from '@shared/core/decision';
 
 let t: TestApp;
@@ -83,6 +83,22 @@ describe('POST /api/surveys/:id/sign-off', () => {
     const liveOffice = (await admin.get(`/api/surveys/${live.surveyId}/compliance`)).body.zones.find((z: { name: string }) => z.name === 'Fixture office');
     expect(liveOffice).toMatchObject({ targetLux: 750, verdict: 'falls_short' });
     expect((await admin.get(`/api/surveys/${live.surveyId}/compliance`)).body.rule).toBe('simple');
+  });
+
+  it('a signed-off survey, when re-decoded later into different readings, keeps its frozen verdicts and exports', async () => {
+    const f = buildSurvey(t, { ownerEmail: DEMO.surveyor, zones: OFFICE_AND_CORRIDOR, readings: officeAndCorridorReadings() });
+    const fm = await t.signIn(DEMO.facility_manager);
+    await fm.post(`/api/surveys/${f.surveyId}/sign-off`).send({});
+    const before = (await fm.get(`/api/surveys/${f.surveyId}/compliance`)).body;
+    const csvBefore = (await fm.get(`/api/surveys/${f.surveyId}/compliance/readings.csv`)).text;
+    // A later decode (e.g. corrected coefficients) becomes the active one with every reading at 10 lx.
+    const decode = t.db.insert(decodes).values({ surveyId: f.surveyId, reason: 'corrected set', createdAt: t.clock.now() }).returning().get();
+    const imp = t.db.select().from(readings).where(eq(readings.decodeId, f.decodeId)).get()!.importId;
+    t.db.insert(readings).values({ surveyId: f.surveyId, decodeId: decode.id, importId: imp, point: 'X', xM: 1, yM: 1, role: 'task', timeMs: t.clock.now(), probeId: f.probeId, lux: 10, uLux: 0.4, luxBound: 'exact', flag: 'ok', sampleCount: 1 }).run();
+    t.db.update(surveys).set({ activeDecodeId: decode.id }).where(eq(surveys.id, f.surveyId)).run();
+    const after = (await fm.get(`/api/surveys/${f.surveyId}/compliance`)).body;
+    expect(after.zones).toEqual(before.zones);
+    expect((await fm.get(`/api/surveys/${f.surveyId}/compliance/readings.csv`)).text).toBe(csvBefore);
   });
 
   it('a survey, when the person who submitted it tries to sign it off, answers 409', async () => {
