@@ -25,12 +25,12 @@ async function writeLog() {
   for (const line of benchLogLines(N, probes, START)) {
     buf.push(line);
     if (buf.length >= 10_000) {
-      if (!out.write(`${buf.join('\n')}\n`)) await new Promise((r) => out.once('drain', r));
+      if (!out.write(`${buf.join('\n')}\n`)) await new Promise<void>((r) => out.once('drain', () => r()));
       buf = [];
     }
   }
   out.end(buf.length ? `${buf.join('\n')}\n` : '');
-  await new Promise((r) => out.once('finish', r));
+  await new Promise<void>((r) => out.once('finish', () => r()));
 }
 
 const freePort = () => new Promise<number>((resolve) => {
