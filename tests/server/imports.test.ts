@@ -207,7 +207,7 @@ describe('log upload: refused before import', () => {
     expect(res.body.error.message).toMatch(/not a text CSV/);
   });
 
-  it('answers 413 to a file over the upload limit', async () => {
+  it('answers 413 to a file over the upload limit', { timeout: 30_000 }, async () => {
     const small = await createTestApp({ uploadLimitBytes: 1024 });
     createTestProbes(small);
     const sc = await small.signIn(DEMO.surveyor);
