@@ -62,7 +62,7 @@ export function AppShell() {
   );
 
   return (
-    <div className="min-h-screen lg:grid lg:grid-cols-[15rem_1fr]">
+    <div className="min-h-screen lg:grid lg:grid-cols-[15rem_1fr] lg:bg-[linear-gradient(to_right,#141b2d_15rem,transparent_15rem)]">
       <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-white focus:px-3 focus:py-2">Skip to content</a>
       <aside className="hidden bg-ink-900 lg:sticky lg:top-0 lg:flex lg:h-screen lg:flex-col lg:justify-between lg:p-4">
         <div className="flex flex-col gap-8">
