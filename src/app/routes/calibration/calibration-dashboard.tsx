@@ -1,5 +1,5 @@
 import { Link } from 'react-router';
-import { BellRing, Plus } from 'lucide-react';
+import { BellRing, List, Plus } from 'lucide-react';
 import { can } from '@shared/policy';
 import { useCurrentUser } from '@/app/current-user';
 import { useCalibrationDashboard } from '@/features/calibration/api/get-calibration-dashboard';
@@ -22,6 +22,7 @@ export function CalibrationDashboardRoute() {
         description="A reading taken after its set's due date is flagged as calibration lapsed. Reminders go to calibration staff for probes due within 14 days or overdue, at most once a week per probe."
         actions={(
           <>
+            <Link to="/calibration/probes" className="inline-flex items-center gap-2 rounded-lg bg-white px-4 py-2 text-sm font-medium text-ink-900 ring-1 ring-inset ring-ink-200 hover:bg-ink-50"><List className="h-4 w-4" aria-hidden />Probe list</Link>
             {can(user.role, 'reminders.run') && (
               <Button variant="secondary" busy={reminders.isPending} onClick={() => reminders.mutate()}><BellRing className="h-4 w-4" aria-hidden />Send reminders now</Button>
             )}
