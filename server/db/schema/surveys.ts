@@ -1,6 +1,7 @@
-import { sqliteTable, integer, text, real, index } from 'drizzle-orm/sqlite-core';
+import { sqliteTable, integer, text, real, index, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
 import { organizations, users, storedFiles } from './organizations';
 import { probes } from './calibration';
+import { plans } from './plans';
 
 export const sites = sqliteTable('sites', {
   id: integer('id').primaryKey({ autoIncrement: true }),
@@ -44,6 +45,8 @@ export const logImports = sqliteTable('log_imports', {
   readingCount: integer('reading_count').notNull().default(0),
   warnings: text('warnings', { mode: 'json' }).$type<unknown[]>().notNull().default([]),
   errors: text('errors', { mode: 'json' }).$type<unknown[]>().notNull().default([]),
+  /** The plan for rows whose `plan` column is empty (the upload's planId field); null: none given. */
+  planId: integer('plan_id').references((): AnySQLiteColumn => plans.id),
   createdBy: integer('created_by').references(() => users.id),
   createdAt: integer('created_at').notNull(),
   finishedAt: integer('finished_at'),
@@ -74,6 +77,8 @@ export const samples = sqliteTable('samples', {
   tempC: real('temp_c'),
   xM: real('x_m'),
   yM: real('y_m'),
+  /** The plan x_m, y_m refer to; null when the log does not say and the site has several plans. */
+  planId: integer('plan_id').references((): AnySQLiteColumn => plans.id),
   role: text('role', { enum: ['task', 'reference'] }).notNull().default('task'),
   note: text('note'),
 }, (t) => [index('samples_import_idx').on(t.importId)]);
@@ -86,6 +91,8 @@ export const readings = sqliteTable('readings', {
   point: text('point').notNull(),
   xM: real('x_m'),
   yM: real('y_m'),
+  /** The plan x_m, y_m refer to (from its samples); null: the reading cannot be placed. */
+  planId: integer('plan_id').references((): AnySQLiteColumn => plans.id),
   role: text('role', { enum: ['task', 'reference'] }).notNull(),
   timeMs: integer('time_ms').notNull(),
   probeId: integer('probe_id').notNull().references(() => probes.id),
