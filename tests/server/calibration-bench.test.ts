@@ -17,6 +17,13 @@ beforeAll(async () => {
 });
 
 const count = (table: typeof benchRuns | typeof storedFiles) => t.db.select({ n: sql<number>`count(*)` }).from(table).get()!.n;
+/** Collects a download's body as bytes (supertest would otherwise parse it as text). */
+const asBuffer: Parameters<ReturnType<TestClient['get']>['parse']>[0] = (res, cb) => {
+  const chunks: Buffer[] = [];
+  const stream = res as unknown as NodeJS.ReadableStream;
+  stream.on('data', (d: Buffer) => chunks.push(d));
+  stream.on('end', () => cb(null, Buffer.concat(chunks)));
+};
 const uploadsLeft = () => fs.readdirSync(path.join(t.config.dataDir, 'uploads'));
 const upload = (probeId: number, content: string | Buffer, fields: Record<string, string> = {}, filename = 'bench.csv') => {
   const req = cal.post(`/api/probes/${probeId}/bench-runs`).attach('file', Buffer.isBuffer(content) ? content : Buffer.from(content), filename);
@@ -46,7 +53,7 @@ describe('bench runs: upload and fit', () => {
     const sha = crypto.createHash('sha256').update(csv).digest('hex');
     expect(res.body.sha256).toBe(sha);
     expect(fs.readFileSync(storedPath(t.deps, sha), 'utf8')).toBe(csv);
-    const file = await cal.get(`/api/bench-runs/${res.body.id}/file`).buffer(true).parse((r, cb) => { const b: Buffer[] = []; r.on('data', (d: Buffer) => b.push(d)); r.on('end', () => cb(null, Buffer.concat(b))); });
+    const file = await cal.get(`/api/bench-runs/${res.body.id}/file`).buffer(true).parse(asBuffer);
     expect(file.status).toBe(200);
     expect(file.headers['content-type']).toMatch(/text\/csv/);
     expect((file.body as Buffer).toString('utf8')).toBe(csv);
@@ -186,7 +193,6 @@ describe('certificates', () => {
     const p = await createCountingProbe(cal);
     return { ...(await cal.post(`/api/probes/${p.id}/coefficient-sets`).send(manualDraftBody())).body as { id: number }, probeId: p.id };
   }
-  const asBuffer = (r: NodeJS.ReadableStream, cb: (e: Error | null, b: Buffer) => void) => { const b: Buffer[] = []; r.on('data', (d: Buffer) => b.push(d)); r.on('end', () => cb(null, Buffer.concat(b))); };
 
   it('attaches a PDF to a draft, when the content is a PDF, and serves it back unchanged', async () => {
     const d = await draft();
