@@ -13,8 +13,12 @@ export function singleFileUpload(deps: Deps, field: string, maxBytes: number): R
   const dir = path.join(deps.config.dataDir, 'uploads');
   fs.mkdirSync(dir, { recursive: true });
   const upload = multer({ dest: dir, limits: { fileSize: maxBytes, files: 1, fields: 20 } }).single(field);
-  const requireFile: RequestHandler = (req, _res, next) => {
+  const requireFile: RequestHandler = (req, res, next) => {
     if (!req.file) return next(badRequest(`Attach the file in the multipart field "${field}"`));
+    // Whatever the outcome (validation error, refusal, crash), no temporary upload outlives
+    // its request: services move what they keep into the file store before answering.
+    const tmpPath = req.file.path;
+    res.on('close', () => fs.rm(tmpPath, { force: true }, () => {}));
     next();
   };
   return [upload, requireFile];

@@ -33,7 +33,14 @@ export function recordAudit(tx: Tx, e: AuditEntry): void {
   }).run();
 }
 
-export function listAudit(db: Db, organizationId: number, filter: { probeId?: number; surveyId?: number; entityType?: string; limit: number; offset: number }) {
+/** Entity types whose before/after carry calibration coefficients. */
+const COEFFICIENT_ENTITIES = new Set(['coefficient_set', 'bench_run']);
+
+/**
+ * Lists the trail, newest first. `showCoefficients: false` (roles without coefficients.read)
+ * keeps the events but withholds the coefficient values in their before/after.
+ */
+export function listAudit(db: Db, organizationId: number, filter: { probeId?: number; surveyId?: number; entityType?: string; limit: number; offset: number; showCoefficients: boolean }) {
   const where: SQL[] = [eq(auditEvents.organizationId, organizationId)];
   if (filter.probeId) where.push(eq(auditEvents.probeId, filter.probeId));
   if (filter.surveyId) where.push(eq(auditEvents.surveyId, filter.surveyId));
@@ -44,5 +51,13 @@ export function listAudit(db: Db, organizationId: number, filter: { probeId?: nu
     createdAt: auditEvents.createdAt, actorName: users.name, actorEmail: users.email,
   }).from(auditEvents).leftJoin(users, eq(users.id, auditEvents.actorId)).where(and(...where))
     .orderBy(desc(auditEvents.createdAt), desc(auditEvents.id)).limit(filter.limit).offset(filter.offset).all()
-    .map((r) => ({ ...r, createdAt: new Date(r.createdAt).toISOString() }));
+    .map((r) => {
+      const withheld = !filter.showCoefficients && COEFFICIENT_ENTITIES.has(r.entityType);
+      return {
+        ...r,
+        before: withheld && r.before !== null ? { withheld: 'coefficient values are visible to calibration staff only' } : r.before,
+        after: withheld && r.after !== null ? { withheld: 'coefficient values are visible to calibration staff only' } : r.after,
+        createdAt: new Date(r.createdAt).toISOString(),
+      };
+    });
 }
