@@ -153,3 +153,18 @@ export const dashboardRowSchema = z.object({
 export type DashboardRow = z.infer<typeof dashboardRowSchema>;
 export const dashboardResponseSchema = z.object({ now: z.string(), dueSoonDays: z.number().int(), items: z.array(dashboardRowSchema) });
 export type DashboardResponse = z.infer<typeof dashboardResponseSchema>;
+
+/** A survey whose current readings used a probe, and how many of them a re-decode would change. */
+export const probeSurveySchema = z.object({
+  surveyId: z.number().int(),
+  name: z.string(),
+  siteName: z.string(),
+  status: z.enum(['draft', 'submitted', 'signed_off', 'returned']),
+  readings: z.number().int(),
+  /** Readings decoded with a set other than the approved set now in force at their time. */
+  staleReadings: z.number().int(),
+  /** Signed-off surveys are frozen: they are never re-decoded. */
+  canRedecode: z.boolean(),
+});
+export type ProbeSurvey = z.infer<typeof probeSurveySchema>;
+export const probeSurveysResponseSchema = z.object({ items: z.array(probeSurveySchema) });

@@ -27,6 +27,7 @@ export const calibrationExamples: RouteExamples = {
   'POST /probes': () => ({ path: '/api/probes', body: countingProbeBody(), okStatus: 201 }),
   'GET /probes/:id': (t) => ({ path: `/api/probes/${probeIdBySerial(t, 'LX-4102')}` }),
   'PATCH /probes/:id': async (t) => ({ path: `/api/probes/${await freshProbe(t)}`, body: { description: 'Relabelled' } }),
+  'GET /probes/:id/surveys': (t) => ({ path: `/api/probes/${probeIdBySerial(t, 'LX-4102')}/surveys` }),
   'GET /probes/:id/coefficient-sets': (t) => ({ path: `/api/probes/${probeIdBySerial(t, 'LX-4102')}/coefficient-sets` }),
   'POST /probes/:id/coefficient-sets': async (t) => ({ path: `/api/probes/${await freshProbe(t)}/coefficient-sets`, body: manualDraftBody(), okStatus: 201 }),
   'POST /coefficient-sets/:id/approve': async (t) => ({ path: `/api/coefficient-sets/${await colleagueDraft(t)}/approve` }),

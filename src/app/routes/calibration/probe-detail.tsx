@@ -11,6 +11,7 @@ import { CoefficientSetList } from '@/features/calibration/components/coefficien
 import { ManualDraftForm } from '@/features/calibration/components/manual-draft-form';
 import { BenchUploadForm } from '@/features/calibration/components/bench-upload-form';
 import { BenchRunList } from '@/features/calibration/components/bench-run-list';
+import { ProbeSurveysCard } from '@/features/calibration/components/probe-surveys-card';
 import { Page, PageHeader } from '@/components/ui/page';
 import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { Button } from '@/components/ui/button';
@@ -77,6 +78,7 @@ export function ProbeDetailRoute() {
                       </CardBody>
                     </Card>
                   )}
+                  {can(user.role, 'surveys.redecode') && <ProbeSurveysCard probeId={p.id} />}
                 </div>
               </div>
             </>
