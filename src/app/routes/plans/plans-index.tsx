@@ -2,7 +2,7 @@ import { useSearchParams } from 'react-router';
 import { Map as MapIcon } from 'lucide-react';
 import { can } from '@shared/policy';
 import { useCurrentUser } from '@/app/current-user';
-import { useSites } from '@/features/plans/api/get-sites';
+import { useSites } from '@/features/surveys/api/get-sites';
 import { useSitePlans } from '@/features/plans/api/get-site-plans';
 import { PlanList } from '@/features/plans/components/plan-list';
 import { PlanUploadForm } from '@/features/plans/components/plan-upload-form';

@@ -1,8 +1,0 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { SiteListResponse } from '@shared/schemas/sites';
-
-/** The organisation's sites, to choose whose plans to show. */
-export const getSites = () => api.get<SiteListResponse>('/sites');
-export const sitesQueryOptions = () => queryOptions({ queryKey: ['sites'], queryFn: getSites });
-export const useSites = () => useQuery(sitesQueryOptions());
