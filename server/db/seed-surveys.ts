@@ -1,6 +1,6 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import type { Deps } from '../deps';
 import { SEED_STEPS, type SeedContext } from './seed';
 import { surveys } from './schema/surveys';
@@ -18,9 +18,15 @@ function seedActor(ctx: SeedContext, email: string, organizationId: number): Ses
   return { id: ctx.usersByEmail[email], email, name: 'seed', role: 'surveyor', organizationId, organizationName: '' };
 }
 
+export const DEMO_WALKTHROUGHS = [
+  { name: 'Spring walk-through 2026', startedOn: '2026-04-15', startIso: '2026-04-15T08:30:00Z', seed: 415, levelFactor: 1.04, outdoorLux: 18000 },
+  { name: 'Autumn walk-through 2026', startedOn: '2026-10-14', startIso: '2026-10-14T08:30:00Z', seed: 1014, levelFactor: 1, outdoorLux: 11000 },
+];
+
 /**
- * Survey-log demo data: the library site with two submitted walk-throughs and a draft,
- * and a site of the second organisation so isolation can be seen.
+ * Survey-log demo data: the library site with two walk-throughs (their logs are imported by the
+ * survey-logs step, once the plans they name exist) and a draft, and a site of the second
+ * organisation so isolation can be seen.
  */
 export async function seedSurveys(deps: Deps, ctx: SeedContext) {
   const surveyor = seedActor(ctx, 'surveyor@luxtrail.test', ctx.demoOrgId);
@@ -29,17 +35,25 @@ export async function seedSurveys(deps: Deps, ctx: SeedContext) {
   const works = createSite(deps, otherAdmin, { name: 'Quillbank Works, assembly hall', address: '2 Millrace Yard, Quillbank', timeZone: 'Europe/Berlin' });
   createSurvey(deps, otherAdmin, { siteId: works.id, name: 'Assembly hall check', startedOn: '2026-09-02', conditions: { daylightExcluded: true } });
 
-  const walkthroughs = [
-    { name: 'Spring walk-through 2026', startedOn: '2026-04-15', startIso: '2026-04-15T08:30:00Z', seed: 415, levelFactor: 1.04, outdoorLux: 18000 },
-    { name: 'Autumn walk-through 2026', startedOn: '2026-10-14', startIso: '2026-10-14T08:30:00Z', seed: 1014, levelFactor: 1, outdoorLux: 11000 },
-  ];
+  for (const w of DEMO_WALKTHROUGHS) {
+    createSurvey(deps, surveyor, { siteId: library.id, name: w.name, startedOn: w.startedOn, conditions: { daylightExcluded: false, notes: 'Overcast; blinds open; roof reference probe logging' } });
+  }
+  createSurvey(deps, surveyor, { siteId: library.id, name: 'Winter evening check 2026', startedOn: '2026-12-10', conditions: { daylightExcluded: true, notes: 'After dark, electric lighting only' } });
+}
+
+/**
+ * Survey-logs step (after plans: each row names its plan): imports the walk-throughs' logs
+ * through the real import path, so the demo's readings are real decodes, and submits them.
+ */
+export async function seedSurveyLogs(deps: Deps, ctx: SeedContext) {
+  const surveyor = seedActor(ctx, 'surveyor@luxtrail.test', ctx.demoOrgId);
   const serials = [DEMO_COUNTING_PROBES[0].serial, DEMO_COUNTING_PROBES[1].serial, DEMO_ANALOG_PROBE.serial];
   const calibration = loadDecodingCalibration(deps.db, ctx.demoOrgId);
   const missing = serials.filter((s) => !calibration.has(s));
-  for (const w of walkthroughs) {
-    const s = createSurvey(deps, surveyor, { siteId: library.id, name: w.name, startedOn: w.startedOn, conditions: { daylightExcluded: false, notes: 'Overcast; blinds open; roof reference probe logging' } });
+  for (const w of DEMO_WALKTHROUGHS) {
+    const s = deps.db.select().from(surveys).where(and(eq(surveys.organizationId, ctx.demoOrgId), eq(surveys.name, w.name))).get();
+    if (!s) continue;
     if (missing.length === 0) {
-      // Through the real import path, so the demo's readings are real decodes.
       const csv = toLogCsv(simulateDemoWalk({ startMs: Date.parse(w.startIso), seed: w.seed, levelFactor: w.levelFactor, outdoorLux: w.outdoorLux }), DEMO_SITE.timeZone);
       const dir = path.join(deps.config.dataDir, 'uploads');
       fs.mkdirSync(dir, { recursive: true });
@@ -53,7 +67,6 @@ export async function seedSurveys(deps: Deps, ctx: SeedContext) {
     }
     deps.db.update(surveys).set({ status: 'submitted', submittedBy: surveyor.id, submittedAt: ctx.now }).where(eq(surveys.id, s.id)).run();
   }
-  createSurvey(deps, surveyor, { siteId: library.id, name: 'Winter evening check 2026', startedOn: '2026-12-10', conditions: { daylightExcluded: true, notes: 'After dark, electric lighting only' } });
 }
 
 SEED_STEPS.push({ name: 'surveys', run: seedSurveys });

@@ -15,12 +15,21 @@ export type ImportProblem = z.infer<typeof importProblemSchema>;
 export const importWarningSchema = z.object({ line: z.number().int().nullable(), column: z.string().nullable(), message: z.string() });
 export type ImportWarning = z.infer<typeof importWarningSchema>;
 
+/** The multipart text fields of a log upload (the file goes in the field `file`). */
+export const uploadLogFieldsSchema = z.object({
+  /** The plan for rows whose `plan` column is empty; omitted or empty: the log's plan column decides. */
+  planId: z.preprocess((v) => (v === '' || v === null ? undefined : v), z.coerce.number({ message: 'planId must be a plan id (a whole number)' }).int('planId must be a whole number').positive('planId must be a plan id').optional()),
+});
+export type UploadLogFields = z.infer<typeof uploadLogFieldsSchema>;
+
 export const uploadLogResponseSchema = z.object({ importId: z.number().int() });
 
 export const importStatusSchema = z.object({
   id: z.number().int(),
   surveyId: z.number().int(),
   filename: z.string(),
+  /** The plan chosen at upload for rows that name none, or null. */
+  planId: z.number().int().nullable(),
   status: z.enum(IMPORT_STATUSES),
   /** 0..1: the share of the file read so far. */
   progress: z.number().min(0).max(1),

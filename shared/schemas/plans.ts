@@ -104,8 +104,11 @@ export const surveyMapResponseSchema = z.object({
   planId: z.number().int(),
   readings: z.array(mapReadingSchema),
   zones: z.array(mapZoneSummarySchema),
-  /** Readings of the survey without a position, and with one outside this plan. */
+  /** Readings of the survey without a position (they cannot be drawn on any plan). */
   withoutPosition: z.number().int(),
+  /** Readings of the survey with a position but no plan (the log named none and the site has several plans). */
+  withoutPlan: z.number().int(),
+  /** Readings of this plan whose position lies beyond the plan's edge (or all of them while it has no scale). */
   outsidePlan: z.number().int(),
   /** Why nothing is placed (e.g. the plan has no scale yet). */
   notice: z.string().nullable(),

@@ -32,6 +32,8 @@ export const readingSchema = z.object({
   point: z.string(),
   xM: z.number().nullable(),
   yM: z.number().nullable(),
+  /** The plan xM, yM refer to; null when the log did not say and the site has several plans. */
+  planId: z.number().int().nullable(),
   role: z.enum(['task', 'reference']),
   timestamp: z.string(),
   probe: z.string(),

@@ -20,10 +20,10 @@ let t = 1_800_000_000_000;
 for (const z of zones) for (let k = 0; k < 500; k++) {
   const [x0, y0] = z.polygon[0];
   const lux = 420 + rnd() * 180;
-  readings.push({ id: readings.length + 1, point: `${z.name}-${k}`, xM: x0 + rnd() * 10, yM: y0 + rnd() * 10, role: 'task', timeMs: (t += 2000), probeId: 1, lux, uLux: lux * 0.04, luxBound: 'exact', flag: 'ok', budget: [{ name: 'calibration', uRel: 0.015 }, { name: 'quantisation', uRel: 0.001 }], coefficientSetId: 1 });
+  readings.push({ id: readings.length + 1, point: `${z.name}-${k}`, xM: x0 + rnd() * 10, yM: y0 + rnd() * 10, planId: 1, role: 'task', timeMs: (t += 2000), probeId: 1, lux, uLux: lux * 0.04, luxBound: 'exact', flag: 'ok', budget: [{ name: 'calibration', uRel: 0.015 }, { name: 'quantisation', uRel: 0.001 }], coefficientSetId: 1 });
 }
 const start = readings[0].timeMs - 60_000;
-for (let s = start; s <= t + 60_000; s += 60_000) readings.push({ id: readings.length + 1, point: 'REF', xM: null, yM: null, role: 'reference', timeMs: s, probeId: 2, lux: 12_000 + rnd() * 500, uLux: 300, luxBound: 'exact', flag: 'ok', budget: [], coefficientSetId: 2 });
+for (let s = start; s <= t + 60_000; s += 60_000) readings.push({ id: readings.length + 1, point: 'REF', xM: null, yM: null, planId: null, role: 'reference', timeMs: s, probeId: 2, lux: 12_000 + rnd() * 500, uLux: 300, luxBound: 'exact', flag: 'ok', budget: [], coefficientSetId: 2 });
 
 const result = judgeZones({ zones, readings, rule: 'guarded', daylightExcluded: false });
 const data: ReportData = {

@@ -137,12 +137,12 @@ describe('plans and the survey map in a real browser', () => {
     const file = db.prepare("INSERT INTO stored_files (organization_id, sha256, filename, content_type, size, created_at) VALUES (?, ?, 'bench.csv', 'text/csv', 1, ?) RETURNING id").get(probe.organization_id, '0'.repeat(64), now) as { id: number };
     const imp = db.prepare("INSERT INTO log_imports (survey_id, file_id, status, created_at) VALUES (?, ?, 'done', ?) RETURNING id").get(survey.id, file.id, now) as { id: number };
     const decode = db.prepare("INSERT INTO decodes (survey_id, reason, created_at) VALUES (?, 'benchmark', ?) RETURNING id").get(survey.id, now) as { id: number };
-    const insert = db.prepare("INSERT INTO readings (survey_id, decode_id, import_id, point, x_m, y_m, role, time_ms, probe_id, lux, u_lux, lux_bound, flag, gain_code, sample_count) VALUES (?, ?, ?, ?, ?, ?, 'task', ?, ?, ?, ?, 'exact', ?, 2, 1)");
+    const insert = db.prepare("INSERT INTO readings (survey_id, decode_id, import_id, point, x_m, y_m, plan_id, role, time_ms, probe_id, lux, u_lux, lux_bound, flag, gain_code, sample_count) VALUES (?, ?, ?, ?, ?, ?, ?, 'task', ?, ?, ?, ?, 'exact', ?, 2, 1)");
     db.transaction(() => {
       for (let i = 0; i < 20_000; i++) {
         const x = (i % 200) * 0.18 + 0.05, yM = Math.floor(i / 200) * 0.2 + 0.05;
         const lux = 80 + 600 * Math.exp(-((x - 10) ** 2 + (yM - 8) ** 2) / 60);
-        insert.run(survey.id, decode.id, imp.id, `B${i}`, x, yM, now + i, probe.id, lux, lux * 0.08, i % 97 === 0 ? 'low_confidence' : 'ok');
+        insert.run(survey.id, decode.id, imp.id, `B${i}`, x, yM, ground.id, now + i, probe.id, lux, lux * 0.08, i % 97 === 0 ? 'low_confidence' : 'ok');
       }
     })();
     db.prepare('UPDATE surveys SET active_decode_id = ? WHERE id = ?').run(decode.id, survey.id);

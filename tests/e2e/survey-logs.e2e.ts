@@ -19,6 +19,10 @@ describe('survey logs in a real browser', () => {
     await form.getByRole('button', { name: 'Start survey' }).click();
     await page.getByRole('heading', { name: 'Browser walk-through' }).waitFor();
 
+    // The sample log names each row's plan; the upload's plan choice stays on the log's column.
+    const planChoice = page.getByLabel('Plan of the readings');
+    await expect.poll(() => planChoice.locator('option').allTextContents(), { timeout: 10_000 }).toEqual(['From the log\'s plan column', 'Ground floor', 'First floor', 'Car park and entrance']);
+    expect(await planChoice.inputValue()).toBe('');
     await page.getByLabel('Meter log (CSV)').setInputFiles(sample('library-walk.csv'));
     await page.getByRole('button', { name: 'Upload log' }).click();
     await page.getByRole('progressbar', { name: 'Processing: done' }).waitFor({ timeout: 30_000 });
@@ -30,7 +34,7 @@ describe('survey logs in a real browser', () => {
     await readings.waitFor();
     await page.getByLabel('Flag', { exact: true }).selectOption('over_range');
     await page.getByRole('status').getByText('1 reading', { exact: true }).waitFor();
-    const row = readings.getByRole('row').filter({ hasText: 'RR-06' });
+    const row = readings.getByRole('row').filter({ hasText: 'EC-01' });
     await row.getByText('Over range').waitFor();
     const luxCell = await row.getByRole('cell').nth(4).textContent();
     expect(luxCell).toMatch(/^≥ /); // a lower bound, not a value
@@ -48,7 +52,7 @@ describe('survey logs in a real browser', () => {
     const problems = page.getByRole('table', { name: 'Problems in broken-log.csv' });
     await problems.waitFor({ timeout: 30_000 });
     const lines = await problems.locator('tbody tr td:first-child').allTextContents();
-    expect(lines).toEqual(['3', '4', '5', '6', '7']);
+    expect(lines).toEqual(['3', '4', '5', '6', '7', '8']);
     await problems.getByText(/LX-9999 is not registered/).waitFor();
     await page.screenshot({ path: path.join(screenshotDir(), 'survey-import-errors.png'), fullPage: true });
   });

@@ -9,7 +9,7 @@ let nextId = 1;
 function reading(x: number, y: number, lux: number | null, extra: Partial<JudgeReading> = {}): JudgeReading {
   const id = nextId++;
   return {
-    id, point: `P${id}`, xM: x, yM: y, role: 'task', timeMs: 1_800_000_000_000 + id * 10_000, probeId: 1, lux, uLux: lux === null ? null : lux * 0.1,
+    id, point: `P${id}`, xM: x, yM: y, planId: 1, role: 'task', timeMs: 1_800_000_000_000 + id * 10_000, probeId: 1, lux, uLux: lux === null ? null : lux * 0.1,
     luxBound: 'exact', flag: 'ok', budget: [{ name: 'calibration', uRel: 0.05 }], coefficientSetId: null, ...extra,
   };
 }

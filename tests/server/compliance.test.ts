@@ -1,7 +1,9 @@
 import { describe, it, expect, beforeEach } from 'vitest';
 import { createTestApp, DEMO, type TestApp } from './helpers';
-import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings, userId } from './compliance-fixtures';
-import { userSites } from '@server/db/schema/organizations';
+import { buildSurvey, gridReadings, OFFICE_AND_CORRIDOR, officeAndCorridorReadings, userId } from './compliance-fixtures';
+import { sites } from '@server/db/schema/surveys';
+import { plans, zones } from '@server/db/schema/plans';
+import { storedFiles, userSites } from '@server/db/schema/organizations';
 import { RULE_TEXT } from '@shared/core/decision';
 import { GRID_RULE } from '@shared/core/zone-stats';
 
@@ -75,6 +77,31 @@ describe('GET /api/surveys/:id/compliance', () => {
     expect(overview.body.items.map((s: { siteId: number }) => s.siteId)).toEqual([elsewhere.siteId]);
     expect(overview.body.items.map((s: { siteId: number }) => s.siteId)).not.toContain(siteId);
     expect(overview.body.items[0]).toMatchObject({ name: 'My site', counts: { meets: 1, falls_short: 1 }, rule: 'guarded' });
+  });
+});
+
+describe('GET /api/surveys/:id/compliance on a site with overlapping plans', () => {
+  it('two floors with the same room outline, when readings name their plan, judge each room on its own floor\'s readings and warn about unplaced ones', async () => {
+    const owner = userId(t, DEMO.surveyor);
+    const now = t.clock.now();
+    const siteId = t.db.insert(sites).values({ organizationId: owner.organizationId, name: 'Two-floor site', timeZone: 'Europe/London', createdAt: now }).returning().get().id;
+    const file = t.db.insert(storedFiles).values({ organizationId: owner.organizationId, sha256: 'e'.repeat(64), filename: 'upper.png', contentType: 'image/png', size: 1, createdAt: now }).returning().get();
+    const upper = t.db.insert(plans).values({ siteId, name: 'Upper floor', fileId: file.id, widthPx: 1000, heightPx: 1000, metresPerPixel: 0.05, createdAt: now }).returning().get();
+    t.db.insert(zones).values({ planId: upper.id, name: 'Upper office', kind: 'room', useType: 'office_writing', wallBandM: 0.5, polygon: OFFICE_AND_CORRIDOR[0].polygon, createdAt: now }).run();
+    const upperReadings = gridReadings(0, 0, 4, 4, 7, 7, () => 200).map((r) => ({ ...r, planId: upper.id }));
+    const { surveyId } = buildSurvey(t, {
+      ownerEmail: DEMO.surveyor, siteId, zones: OFFICE_AND_CORRIDOR,
+      readings: [...officeAndCorridorReadings(), ...upperReadings, { x: 2, y: 2, lux: 5, point: 'LOST', planId: null }],
+    });
+    const res = await (await t.signIn(DEMO.facility_manager)).get(`/api/surveys/${surveyId}/compliance`);
+    expect(res.status).toBe(200);
+    const byName = Object.fromEntries(res.body.zones.map((z: { name: string }) => [z.name, z]));
+    // Same outline on both floors: each office gets only the 49 grid points of its own floor.
+    expect(byName['Fixture office']).toMatchObject({ points: 49, verdict: 'meets' });
+    expect(byName['Fixture office'].eavg).toBeCloseTo(540, 6);
+    expect(byName['Upper office']).toMatchObject({ points: 49, eavg: 200, verdict: 'falls_short' });
+    expect(res.body.warnings.join(' ')).toMatch(/1 task reading\(s\) have a position but no plan/);
+    expect(res.body.warnings.join(' ')).not.toMatch(/walk/);
   });
 });
 

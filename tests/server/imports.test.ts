@@ -59,7 +59,7 @@ describe('log import: accepted files', () => {
     const over = (await c.get(`/api/surveys/${surveyId}/readings?flag=over_range`)).body;
     expect(over.total).toBe(1);
     // Over range reports the lux that saturationCounts means at the lowest gain, as a lower bound (DOMAIN.md 2).
-    expect(over.items[0]).toMatchObject({ point: 'RR-06', luxBound: 'lower', flag: 'over_range', gainCode: 0, chosenSample: null });
+    expect(over.items[0]).toMatchObject({ point: 'EC-01', luxBound: 'lower', flag: 'over_range', gainCode: 0, chosenSample: null });
     expect(over.items[0].samples).toBeGreaterThan(1);
   });
 
@@ -70,7 +70,7 @@ describe('log import: accepted files', () => {
     expect(page.items).toHaveLength(5);
     expect(page.total).toBeGreaterThan(100);
     const r = page.items.find((x: { flag: string }) => x.flag === 'ok');
-    expect(Object.keys(r).sort()).toEqual(['budget', 'chosenSample', 'flag', 'gainCode', 'id', 'lux', 'luxBound', 'point', 'probe', 'role', 'samples', 'timestamp', 'uLux', 'xM', 'yM'].sort());
+    expect(Object.keys(r).sort()).toEqual(['budget', 'chosenSample', 'flag', 'gainCode', 'id', 'lux', 'luxBound', 'planId', 'point', 'probe', 'role', 'samples', 'timestamp', 'uLux', 'xM', 'yM'].sort());
     const uc = Math.sqrt(r.budget.reduce((s: number, p: { uRel: number }) => s + p.uRel ** 2, 0));
     expect(r.uLux).toBeCloseTo(2 * uc * r.lux, 6); // GUM: U = k u_c, k = 2
     const sorted = (await c.get(`/api/surveys/${surveyId}/readings?sort=lux&order=desc&limit=3&flag=ok`)).body.items;
@@ -266,6 +266,6 @@ describe('sample logs in public/samples', () => {
     expect(semi.status).toMatchObject({ status: 'done', errors: [] });
     const broken = await uploadAndWait(t, c, await newDraftSurvey(t, c), read('broken-log.csv'));
     expect(broken.status.status).toBe('failed');
-    expect(broken.status.errors.map((e: { line: number; column: string }) => [e.line, e.column])).toEqual([[3, 'counts'], [4, 'timestamp'], [5, 'probe'], [6, 'gain'], [7, 'y_m']]);
+    expect(broken.status.errors.map((e: { line: number; column: string }) => [e.line, e.column])).toEqual([[3, 'counts'], [4, 'timestamp'], [5, 'probe'], [6, 'gain'], [7, 'y_m'], [8, 'plan']]);
   });
 });

@@ -28,10 +28,10 @@ export function insertSite(t: TestApp, organizationId: number, name = 'Test site
   return t.db.insert(sites).values({ organizationId, name, timeZone: 'Europe/London', createdAt: t.clock.now() }).returning().get().id;
 }
 
-export type SeedReading = { point: string; x: number | null; y: number | null; lux: number | null; role?: 'task' | 'reference'; flag?: typeof readings.$inferInsert['flag']; luxBound?: 'exact' | 'lower' | 'upper'; uLux?: number };
+export type SeedReading = { point: string; x: number | null; y: number | null; lux: number | null; /** Default: the planId argument for a positioned reading. */ plan?: number | null; role?: 'task' | 'reference'; flag?: typeof readings.$inferInsert['flag']; luxBound?: 'exact' | 'lower' | 'upper'; uLux?: number };
 
-/** A survey of the site with one decode holding the given readings (all tables written directly). */
-export function insertSurveyWithReadings(t: TestApp, organizationId: number, siteId: number, rows: SeedReading[], name = 'Test survey'): number {
+/** A survey of the site with one decode holding the given readings (all tables written directly), taken on plan `planId` unless a row says otherwise. */
+export function insertSurveyWithReadings(t: TestApp, organizationId: number, siteId: number, rows: SeedReading[], name = 'Test survey', planId: number | null = null): number {
   const now = t.clock.now();
   const probe = t.db.insert(probes).values({ organizationId, serial: `LX-${Math.random().toString(36).slice(2, 8)}`, kind: 'counts', createdAt: now, updatedAt: now }).returning().get();
   const survey = t.db.insert(surveys).values({ organizationId, siteId, name, createdAt: now }).returning().get();
@@ -40,7 +40,7 @@ export function insertSurveyWithReadings(t: TestApp, organizationId: number, sit
   const decode = t.db.insert(decodes).values({ surveyId: survey.id, reason: 'import', createdAt: now }).returning().get();
   rows.forEach((r, i) => {
     t.db.insert(readings).values({
-      surveyId: survey.id, decodeId: decode.id, importId: imp.id, point: r.point, xM: r.x, yM: r.y, role: r.role ?? 'task', timeMs: now + i * 1000, probeId: probe.id,
+      surveyId: survey.id, decodeId: decode.id, importId: imp.id, point: r.point, xM: r.x, yM: r.y, planId: r.plan !== undefined ? r.plan : r.x === null ? null : planId, role: r.role ?? 'task', timeMs: now + i * 1000, probeId: probe.id,
       lux: r.lux, uLux: r.uLux ?? (r.lux === null ? null : r.lux * 0.08), luxBound: r.luxBound ?? 'exact', flag: r.flag ?? 'ok', gainCode: 2, sampleCount: 1,
       budget: r.lux === null ? [] : [{ name: 'calibration', uRel: 0.04 }],
     }).run();

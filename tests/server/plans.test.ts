@@ -169,7 +169,7 @@ describe('PATCH /api/plans/:id', () => {
 });
 
 describe('GET /api/surveys/:id/map', () => {
-  it('map, for a survey with points in a room, a task area, the wall band and outside the plan, marks each', async () => {
+  it('map, for a survey with points in a room, a task area, the wall band and beyond the plan\'s edge, marks each', async () => {
     const plan = (await upload(surveyor, siteId, pngOf(200, 120, 21), { name: 'Map plan', widthM: '20' })).body; // 20 m x 12 m
     const room = (await surveyor.post(`/api/plans/${plan.id}/zones`).send({ name: 'Room', kind: 'room', useType: 'library_reading', polygon: [[0, 0], [20, 0], [20, 12], [0, 12]] })).body;
     const desk = (await surveyor.post(`/api/plans/${plan.id}/zones`).send({ name: 'Desk', kind: 'task_area', useType: 'office_writing', polygon: [[4, 3], [12, 3], [12, 8], [4, 8]] })).body;
@@ -181,7 +181,7 @@ describe('GET /api/surveys/:id/map', () => {
       { point: 'OUT', x: 50, y: 50, lux: 10 },
       { point: 'NOPOS', x: null, y: null, lux: 300 },
       { point: 'REF', x: 19, y: 11, lux: 12000, role: 'reference' },
-    ]);
+    ], 'Map survey', plan.id);
     const res = await surveyor.get(`/api/surveys/${surveyId}/map?planId=${plan.id}`);
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     const byPoint = Object.fromEntries(res.body.readings.map((r: { point: string }) => [r.point, r]));
@@ -192,10 +192,29 @@ describe('GET /api/surveys/:id/map', () => {
     expect(byPoint.REF).toMatchObject({ zoneId: null, role: 'reference' });
     expect(res.body.withoutPosition).toBe(1);
     expect(res.body.outsidePlan).toBe(1);
+    expect(res.body.withoutPlan).toBe(0);
     const roomSummary = res.body.zones.find((z: { zoneId: number }) => z.zoneId === room.id);
     // Wall-band point W1 is left out of the room's average: (400 + 600) / 2.
     expect(roomSummary).toMatchObject({ points: 2, wallBandPoints: 1, eavg: 500, eavgBound: null });
     expect(res.body.zones.find((z: { zoneId: number }) => z.zoneId === desk.id)).toMatchObject({ points: 1, eavg: 700 });
+  });
+
+  it('map, for two plans whose frames overlap, shows each plan only the readings taken on it and counts those with no plan', async () => {
+    const ground = (await upload(surveyor, siteId, pngOf(100, 100, 24), { name: 'Overlap ground', widthM: '10' })).body;
+    const upper = (await upload(surveyor, siteId, pngOf(100, 100, 25), { name: 'Overlap upper', widthM: '10' })).body;
+    const surveyId = insertSurveyWithReadings(t, orgOf(t, DEMO.surveyor), siteId, [
+      { point: 'G1', x: 2, y: 2, lux: 400, plan: ground.id },
+      { point: 'G2', x: 5, y: 5, lux: 420, plan: ground.id },
+      { point: 'U1', x: 2, y: 2, lux: 300, plan: upper.id },
+      { point: 'LOST', x: 3, y: 3, lux: 350, plan: null },
+      { point: 'NOPOS', x: null, y: null, lux: 10, plan: ground.id },
+    ], 'Overlap survey');
+    const onGround = (await surveyor.get(`/api/surveys/${surveyId}/map?planId=${ground.id}`)).body;
+    const onUpper = (await surveyor.get(`/api/surveys/${surveyId}/map?planId=${upper.id}`)).body;
+    // Same coordinates, different floors: the stored plan decides, never the position.
+    expect(onGround.readings.map((r: { point: string }) => r.point)).toEqual(['G1', 'G2']);
+    expect(onUpper.readings.map((r: { point: string }) => r.point)).toEqual(['U1']);
+    for (const m of [onGround, onUpper]) expect(m).toMatchObject({ withoutPlan: 1, withoutPosition: 1, outsidePlan: 0 });
   });
 
   it('map, for a plan of another site, answers 422 saying so', async () => {

@@ -12,7 +12,7 @@ import { DEMO_ANALOG_PROBE, DEMO_COUNTING_PROBES, type DemoCountingProbe } from 
 import { DEMO_PLANS, DEMO_REFERENCE_POINT, type DemoZone } from './library-layout';
 import { createZoneOffset } from '../../modules/imports/log-time';
 
-export const LOG_HEADER = ['timestamp', 'probe', 'point', 'gain', 'counts', 'ma', 'x_m', 'y_m', 'int_ms', 'temp_c', 'role', 'note'] as const;
+export const LOG_HEADER = ['timestamp', 'probe', 'point', 'gain', 'counts', 'ma', 'x_m', 'y_m', 'plan', 'int_ms', 'temp_c', 'role', 'note'] as const;
 
 export type SimRow = {
   timeMs: number;
@@ -23,6 +23,8 @@ export type SimRow = {
   ma?: number;
   xM?: number;
   yM?: number;
+  /** The plan x_m, y_m refer to, by its name in Luxtrail. */
+  plan?: string;
   intMs?: number;
   tempC?: number;
   role?: 'task' | 'reference';
@@ -119,21 +121,26 @@ export type DemoWalkOptions = {
   outdoorLux?: number;
 };
 
-const SHORT: Record<string, string> = { reading: 'RR', 'office-a': 'OA', 'office-b': 'OB', corridor: 'CO', toilets: 'WC', stairs: 'ST', store: 'BS', meeting: 'MR', carrels: 'SC', 'car-park': 'CP' };
+const SHORT: Record<string, string> = { reading: 'RR', 'office-a': 'OA', 'office-b': 'OB', corridor: 'CO', toilets: 'WC', stairs: 'ST', store: 'BS', meeting: 'MR', carrels: 'SC', archive: 'AR', staff: 'SR', landing: 'LD', 'car-park': 'CP' };
+
+/** Where the over-range burst is taken: under the glass entrance canopy, on the site plan, outside every zone. */
+export const DEMO_CANOPY_POINT: [number, number] = [47, 14];
 
 /**
- * The demo walk-through: grid points in each ground-floor room (study tables inside the reading
- * room take their own level) and the car park, with auto-ranging bursts from LX-4102 (rooms)
- * and LX-4107 (corridor, stairs, toilets, store), saturated samples where the highest gain is
- * too sensitive, one point under a sunlit rooflight that
- * saturates even at the lowest gain (over range), and the roof reference RF-20-07 logging
- * 4-20 mA every minute as role=reference while indoor points are taken.
+ * The demo walk-through: grid points in each ground-floor and first-floor room (study tables
+ * inside the reading room take their own level) and the car park, each row naming its plan, with
+ * auto-ranging bursts from LX-4102 (rooms) and LX-4107 (corridor, stairs, toilets, store,
+ * landing), saturated samples where the highest gain is too sensitive, one point in direct sun
+ * under the glass entrance canopy (outside every zone, taken on the way in) that saturates even
+ * at the lowest gain (over range), and the roof reference RF-20-07 logging 4-20 mA every minute as role=reference
+ * while indoor points are taken.
  */
 export function simulateDemoWalk(o: DemoWalkOptions): SimRow[] {
   const rnd = seededRandom(o.seed);
   const tripod = simProbe(DEMO_COUNTING_PROBES[0]);
   const handheld = simProbe(DEMO_COUNTING_PROBES[1]);
   const ground = DEMO_PLANS.find((p) => p.key === 'ground')!;
+  const first = DEMO_PLANS.find((p) => p.key === 'first')!;
   const outdoor = DEMO_PLANS.find((p) => p.key === 'outdoor')!;
   const study = ground.zones.find((z) => z.key === 'study')!;
   const rows: SimRow[] = [];
@@ -146,41 +153,43 @@ export function simulateDemoWalk(o: DemoWalkOptions): SimRow[] {
   const reference = (until: number) => {
     while (nextReference <= until) {
       const lux = outdoorLux * (1 + 0.15 * Math.sin((nextReference - o.startMs) / 1_800_000)) * (0.97 + 0.06 * rnd());
-      rows.push({ timeMs: nextReference, probe: DEMO_ANALOG_PROBE.serial, point: 'ROOF-REF', ma: Math.round(luxToCurrent(SIM_ANALOG, lux) * 1000) / 1000, xM: DEMO_REFERENCE_POINT[0], yM: DEMO_REFERENCE_POINT[1], role: 'reference' });
+      rows.push({ timeMs: nextReference, probe: DEMO_ANALOG_PROBE.serial, point: 'ROOF-REF', ma: Math.round(luxToCurrent(SIM_ANALOG, lux) * 1000) / 1000, xM: DEMO_REFERENCE_POINT[0], yM: DEMO_REFERENCE_POINT[1], plan: outdoor.name, role: 'reference' });
       nextReference += 60_000;
     }
   };
 
-  const walkZone = (zone: DemoZone, outdoorZone: boolean) => {
-    const probe = ['corridor', 'stairs', 'toilets', 'store'].includes(zone.key) ? handheld : tripod;
+  const point = (plan: string, probe: SimCountingProbe, label: string, x: number, y: number, lux: number, outdoorPoint: boolean, note?: string) => {
+    const tempC = outdoorPoint ? 8.5 + rnd() : 20.5 + rnd() * 1.5;
+    // The tripod probe starts every point at its highest gain and steps down; the handheld keeps its last gain.
+    const start = probe === tripod ? 3 : gainOf.get(probe.serial)!;
+    const burst = autoRangeBurst(probe, lux, start, rnd, 100, tempC);
+    gainOf.set(probe.serial, burst.endCode);
+    if (!outdoorPoint) reference(t);
+    for (const s of burst.samples) {
+      rows.push({ timeMs: t, probe: probe.serial, point: label, gain: s.gain, counts: s.counts, xM: Math.round(x * 100) / 100, yM: Math.round(y * 100) / 100, plan, intMs: 100, tempC: Math.round(tempC * 10) / 10, role: 'task', note });
+      t += 400;
+    }
+    t += 15_000 + Math.round(rnd() * 10_000);
+  };
+
+  const walkZone = (plan: string, zone: DemoZone, outdoorZone: boolean) => {
+    const probe = ['corridor', 'stairs', 'toilets', 'store', 'landing'].includes(zone.key) ? handheld : tripod;
     gridPoints(zone).forEach((pt, n) => {
       const inStudy = zone.key === 'reading' && inside(study.polygon, pt.x, pt.y);
-      let lux = demoLevelAt(inStudy ? study : zone, pt.x, pt.y) * (outdoorZone ? 1 : factor) * (0.96 + 0.08 * rnd());
-      const label = `${SHORT[zone.key] ?? zone.key.toUpperCase()}-${String(n + 1).padStart(2, '0')}`;
-      let note: string | undefined;
-      if (zone.key === 'reading' && n === 5) {
-        lux = 175_000; // a sun patch under the rooflight: beyond the probe's lowest gain
-        note = 'Under rooflight, direct sun patch';
-      }
-      const tempC = outdoorZone ? 8.5 + rnd() : 20.5 + rnd() * 1.5;
-      // The tripod probe starts every point at its highest gain and steps down; the handheld keeps its last gain.
-      const start = probe === tripod ? 3 : gainOf.get(probe.serial)!;
-      const burst = autoRangeBurst(probe, lux, start, rnd, 100, tempC);
-      gainOf.set(probe.serial, burst.endCode);
-      if (!outdoorZone) reference(t);
-      for (const s of burst.samples) {
-        rows.push({ timeMs: t, probe: probe.serial, point: label, gain: s.gain, counts: s.counts, xM: Math.round(pt.x * 100) / 100, yM: Math.round(pt.y * 100) / 100, intMs: 100, tempC: Math.round(tempC * 10) / 10, role: 'task', note });
-        t += 400;
-      }
-      t += 15_000 + Math.round(rnd() * 10_000);
+      const lux = demoLevelAt(inStudy ? study : zone, pt.x, pt.y) * (outdoorZone ? 1 : factor) * (0.96 + 0.08 * rnd());
+      point(plan, probe, `${SHORT[zone.key] ?? zone.key.toUpperCase()}-${String(n + 1).padStart(2, '0')}`, pt.x, pt.y, lux, outdoorZone);
     });
     t += 120_000; // to the next room
   };
 
-  for (const z of ground.zones) if (z.kind === 'room') walkZone(z, false);
+  // In through the entrance: sun on the glass canopy and its reflection, beyond the probe's lowest gain (over range).
+  point(outdoor.name, tripod, 'EC-01', DEMO_CANOPY_POINT[0], DEMO_CANOPY_POINT[1], 175_000, true, 'Glass entrance canopy, direct sun and its reflection');
+  t += 60_000;
+  for (const z of ground.zones) if (z.kind === 'room') walkZone(ground.name, z, false);
+  for (const z of first.zones) if (z.kind === 'room') walkZone(first.name, z, false);
   reference(t);
-  t += 7 * 3600_000; // the car park after dusk
-  walkZone(outdoor.zones.find((z) => z.key === 'car-park')!, true);
+  t += 3 * 3600_000; // the car park after dusk
+  walkZone(outdoor.name, outdoor.zones.find((z) => z.key === 'car-park')!, true);
   return rows;
 }
 
@@ -209,7 +218,7 @@ export function toLogCsv(rows: SimRow[], timeZone = 'UTC'): string {
   const time = localIso(timeZone);
   const lines = [LOG_HEADER.join(',')];
   for (const r of rows) {
-    lines.push([time(r.timeMs), r.probe, csvText(r.point), fmt(r.gain), fmt(r.counts), fmt(r.ma), fmt(r.xM), fmt(r.yM), fmt(r.intMs), fmt(r.tempC), r.role ?? 'task', csvText(r.note)].join(','));
+    lines.push([time(r.timeMs), r.probe, csvText(r.point), fmt(r.gain), fmt(r.counts), fmt(r.ma), fmt(r.xM), fmt(r.yM), csvText(r.plan), fmt(r.intMs), fmt(r.tempC), r.role ?? 'task', csvText(r.note)].join(','));
   }
   return `${lines.join('\n')}\n`;
 }
@@ -217,9 +226,9 @@ export function toLogCsv(rows: SimRow[], timeZone = 'UTC'): string {
 /**
  * A long log for the ingest benchmark: points at illuminances spread over six decades, two
  * counting probes, auto-ranging bursts (some saturate before a usable gain, some stay over
- * range). Yields CSV lines (header first) until `rows` sample rows.
+ * range). Yields CSV lines (header first) until `rows` sample rows; `plan` fills the plan column.
  */
-export function* benchLogLines(rows: number, probes: [SimCountingProbe, SimCountingProbe], startMs: number, seed = 7): Generator<string> {
+export function* benchLogLines(rows: number, probes: [SimCountingProbe, SimCountingProbe], startMs: number, seed = 7, plan = ''): Generator<string> {
   const rnd = seededRandom(seed);
   yield LOG_HEADER.join(',');
   const gain = [2, 2];
@@ -237,7 +246,7 @@ export function* benchLogLines(rows: number, probes: [SimCountingProbe, SimCount
     const y = (rnd() * 40).toFixed(2);
     for (const s of burst.samples) {
       if (n >= rows) break;
-      yield `${new Date(t).toISOString()},${p.serial},${label},${s.gain},${s.counts},,${x},${y},100,21.5,task,`;
+      yield `${new Date(t).toISOString()},${p.serial},${label},${s.gain},${s.counts},,${x},${y},${plan},100,21.5,task,`;
       n++;
       t += 400;
     }

@@ -30,7 +30,7 @@ export function loadSitePlans(db: Db, organizationId: number, siteId: number): P
 }
 
 const readingColumns = {
-  id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, role: readings.role, timeMs: readings.timeMs, probeId: readings.probeId,
+  id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, planId: readings.planId, role: readings.role, timeMs: readings.timeMs, probeId: readings.probeId,
   lux: readings.lux, uLux: readings.uLux, luxBound: readings.luxBound, flag: readings.flag, budget: readings.budget, coefficientSetId: readings.coefficientSetId,
 };
 

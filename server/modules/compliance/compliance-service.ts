@@ -11,8 +11,7 @@ import { getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
 import { siteConditions } from '../sites/sites-service';
 import { decisionRuleOf } from '../organization/organization-service';
 import { getVisibleTarget, presentTarget } from '../targets/targets-service';
-import { judgeZones, worstFirst, type JudgedZone, type JudgeResult } from './judge-zones';
-import { attributeToPlans } from './plan-attribution';
+import { judgeZones, worstFirst, type JudgedZone, type JudgeReading, type JudgeResult } from './judge-zones';
 import { loadCurrentReadings, loadReadingsById, loadSitePlans, loadUsedCoefficientSets, type UsedCoefficientSet } from './compliance-repository';
 
 /** What a sign-off keeps in surveys.frozen: later target, rule or calibration changes never alter it. */
@@ -35,18 +34,28 @@ export type FrozenCompliance = {
 export function liveCompliance(db: Db, organizationId: number, survey: SurveyRow, rule: AcceptanceRule = decisionRuleOf(db, organizationId)) {
   const plans = loadSitePlans(db, organizationId, survey.siteId);
   const allReadings = loadCurrentReadings(db, survey);
-  const { byPlan, note } = attributeToPlans(allReadings, plans);
+  // Each task reading is judged on the plan its log named (readings.planId); reference readings pair with every plan.
+  const byPlan = new Map<number, JudgeReading[]>(plans.map((p) => [p.planId, []]));
+  let withoutPlan = 0;
+  for (const r of allReadings) {
+    if (r.role !== 'task') continue;
+    const list = r.planId === null ? undefined : byPlan.get(r.planId);
+    if (list) list.push(r);
+    else if (r.xM !== null && plans.length > 0) withoutPlan++;
+  }
   const reference = allReadings.filter((r) => r.role === 'reference');
   const daylightExcluded = survey.conditions?.daylightExcluded ?? false;
   const perPlan = plans.map((p) => judgeZones({ zones: p.zones, readings: [...byPlan.get(p.planId)!, ...reference], rule, daylightExcluded }));
-  const unplaced = plans.length === 0 ? allReadings.filter((r) => r.role === 'task').length : 0;
+  const unplaced = plans.length === 0 ? allReadings.filter((r) => r.role === 'task').length : withoutPlan;
   const result: JudgeResult = {
     zones: worstFirst(perPlan.flatMap((r) => r.zones)),
     unassignedPoints: perPlan.reduce((n, r) => n + r.unassignedPoints, unplaced),
     hasDaylightReference: reference.some((r) => r.lux !== null),
     warnings: [...new Set(perPlan.flatMap((r) => r.warnings))],
   };
-  if (note) result.warnings.unshift(note);
+  if (withoutPlan > 0) {
+    result.warnings.unshift(`${withoutPlan} task reading(s) have a position but no plan (the log named none and this site has ${plans.length} plans), so they could not be placed in any zone: give logs a plan column, or choose the plan when uploading.`);
+  }
   if (plans.length === 0) result.warnings.unshift('This site has no plan with zones yet: draw zones to get verdicts.');
   if (survey.activeDecodeId === null) result.warnings.unshift('This survey has no decoded readings yet.');
   return { rule, result, readings: allReadings };

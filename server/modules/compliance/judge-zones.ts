@@ -17,6 +17,8 @@ export type JudgeReading = {
   point: string;
   xM: number | null;
   yM: number | null;
+  /** The plan the log named for this reading; null when it could not be placed. */
+  planId: number | null;
   role: 'task' | 'reference';
   timeMs: number;
   probeId: number;

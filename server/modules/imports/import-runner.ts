@@ -15,6 +15,9 @@ export type ImportJob = {
   filePath: string;
   fileSize: number;
   timeZone: string;
+  /** The site's plans (a row's `plan` names one) and the plan for rows that name none. */
+  plans: { id: number; name: string }[];
+  defaultPlanId: number | null;
 };
 
 export type ImportOutcome = { importId: number; status: 'done' | 'failed'; readings: number; errors: ImportProblem[] };
@@ -91,8 +94,8 @@ function batchWriter(deps: Deps, job: ImportJob, decodeId: number) {
   const client = deps.db.$client;
   const sampleRow = `(${job.importId},${job.surveyId},${Array(SAMPLE_WIDTH).fill('?').join(',')})`;
   const readingRow = `(${job.surveyId},${decodeId},${job.importId},${Array(READING_WIDTH).fill('?').join(',')})`;
-  const sampleSql = 'insert into samples (import_id, survey_id, line, time_ms, probe_id, point, gain_code, counts, ma, volts, int_ms, temp_c, x_m, y_m, role, note) values ';
-  const readingSql = 'insert into readings (survey_id, decode_id, import_id, point, x_m, y_m, role, time_ms, probe_id, lux, u_lux, lux_bound, flag, gain_code, sample_count, chosen_sample, coefficient_set_id, budget, note) values ';
+  const sampleSql = 'insert into samples (import_id, survey_id, line, time_ms, probe_id, point, gain_code, counts, ma, volts, int_ms, temp_c, x_m, y_m, plan_id, role, note) values ';
+  const readingSql = 'insert into readings (survey_id, decode_id, import_id, point, x_m, y_m, plan_id, role, time_ms, probe_id, lux, u_lux, lux_bound, flag, gain_code, sample_count, chosen_sample, coefficient_set_id, budget, note) values ';
   const stmts = {
     sampleMany: client.prepare(sampleSql + Array(MULTI_ROWS).fill(sampleRow).join(',')),
     sampleOne: client.prepare(sampleSql + sampleRow),
@@ -147,7 +150,7 @@ async function runImport(deps: Deps, job: ImportJob): Promise<ImportOutcome> {
     w.on('message', onMessage);
     w.on('error', onError);
     w.on('exit', onExit);
-    w.postMessage({ type: 'start', input: { filePath: job.filePath, timeZone: job.timeZone, calibration } });
+    w.postMessage({ type: 'start', input: { filePath: job.filePath, timeZone: job.timeZone, calibration, plans: job.plans, defaultPlanId: job.defaultPlanId } });
   });
 
   if (end.type === 'crash') {
@@ -202,7 +205,7 @@ export async function failInterruptedImports(deps: Deps) {
   for (const imp of stale) {
     if (pendingOf(deps.db).has(imp.id)) continue;
     const survey = deps.db.select().from(surveys).where(eq(surveys.id, imp.surveyId)).get()!;
-    const job: ImportJob = { importId: imp.id, surveyId: imp.surveyId, organizationId: survey.organizationId, actorId: imp.createdBy, filePath: '', fileSize: 0, timeZone: 'UTC' };
+    const job: ImportJob = { importId: imp.id, surveyId: imp.surveyId, organizationId: survey.organizationId, actorId: imp.createdBy, filePath: '', fileSize: 0, timeZone: 'UTC', plans: [], defaultPlanId: null };
     const decode = survey.activeDecodeId === null ? null : { decodeId: survey.activeDecodeId, created: true };
     await failImport(deps, job, decode, [{ line: 0, column: '', value: '', message: 'The server restarted during this import; upload the file again' }], [], imp.rowsRead);
   }

@@ -11,10 +11,11 @@ export function registerImportRoutes(api: Api, deps: Deps) {
 
   api.route({
     method: 'post', path: '/surveys/:id/logs', access: 'surveys.upload', tag: 'imports', status: 202,
-    summary: 'Upload a survey log (CSV, multipart field "file"); answers at once with the import to poll',
-    params: idParamsSchema, before: singleFileUpload(deps, 'file', deps.config.uploadLimitBytes), multipart: { file: 'file' }, response: uploadLogResponseSchema,
+    summary: 'Upload a survey log (CSV, multipart field "file"; optional "planId": the plan for rows whose plan column is empty); answers at once with the import to poll',
+    params: idParamsSchema, before: singleFileUpload(deps, 'file', deps.config.uploadLimitBytes), multipart: { file: 'file', planId: 'string' }, response: uploadLogResponseSchema,
   }, async ({ user, params, req }) => {
-    const { importId } = await uploadLog(deps, user, params.id, req.file!);
+    // Fields are checked in the service, which also removes the uploaded temporary file on refusal.
+    const { importId } = await uploadLog(deps, user, params.id, req.file!, { planId: (req.body as Record<string, unknown> | undefined)?.planId });
     return { importId };
   });
 

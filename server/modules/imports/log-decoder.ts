@@ -20,6 +20,8 @@ export type LogSample = {
   tempC?: number;
   xM: number | null;
   yM: number | null;
+  /** The plan xM, yM refer to; null when unknown. */
+  planId: number | null;
   role: 'task' | 'reference';
   note: string | null;
 };
@@ -29,6 +31,7 @@ export type DecodedReading = {
   point: string;
   xM: number | null;
   yM: number | null;
+  planId: number | null;
   role: 'task' | 'reference';
   note: string | null;
   timeMs: number;
@@ -61,13 +64,13 @@ function valueOf(sample: LogSample, column: string): string {
   return v[column] === undefined ? '' : String(v[column]);
 }
 
-type BurstMeta = Pick<LogSample, 'xM' | 'yM' | 'role' | 'note'>;
+type BurstMeta = Pick<LogSample, 'xM' | 'yM' | 'planId' | 'role' | 'note'>;
 
 /**
  * Decodes a log's samples in file order with the measurement core: counting probes through the
  * streaming burst assembler (auto-ranging), analog probes one sample per reading with NE 43 /
  * 0-10 V classification. Each sample uses the approved coefficient set in force at its time.
- * The reading's position, role and note are those of its burst's first sample.
+ * The reading's position, plan, role and note are those of its burst's first sample.
  */
 export function createLogDecoder(calibration: ReadonlyMap<string, DecodingCalibration>, onReading: (r: DecodedReading) => void, onProblem: (p: SampleProblem) => void) {
   const counting = new Map<string, { probe: Extract<DecodingCalibration['probe'], { kind: 'counts' }>; sets: DecodingCalibration['sets'] }>();
@@ -89,7 +92,7 @@ export function createLogDecoder(calibration: ReadonlyMap<string, DecodingCalibr
 
   const emit = (r: Reading, meta: BurstMeta) => {
     onReading({
-      probeId: calibration.get(r.probe)!.probeId, point: r.point, xM: meta.xM, yM: meta.yM, role: meta.role, note: meta.note,
+      probeId: calibration.get(r.probe)!.probeId, point: r.point, xM: meta.xM, yM: meta.yM, planId: meta.planId, role: meta.role, note: meta.note,
       timeMs: r.timeMs, lux: r.lux, uLux: r.lux === null ? null : r.uLux, luxBound: r.luxBound, flag: r.flag, gainCode: r.gainCode,
       samples: r.samples, chosenSample: r.chosenSample, coefficientSetId: r.coefficientSetId === null ? null : Number(r.coefficientSetId), budget: r.budget,
     });

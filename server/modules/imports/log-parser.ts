@@ -5,7 +5,7 @@ import { createLogDecoder, type DecodedReading, type LogSample, type SampleProbl
 import { createTimestampParser } from './log-time';
 
 /** The log format's columns (README, "Survey logs and the log format"). */
-export const LOG_COLUMNS = ['timestamp', 'probe', 'point', 'gain', 'counts', 'ma', 'volts', 'x_m', 'y_m', 'int_ms', 'temp_c', 'role', 'note'] as const;
+export const LOG_COLUMNS = ['timestamp', 'probe', 'point', 'gain', 'counts', 'ma', 'volts', 'x_m', 'y_m', 'plan', 'int_ms', 'temp_c', 'role', 'note'] as const;
 export const REQUIRED_COLUMNS = ['timestamp', 'probe', 'point'] as const;
 type Column = (typeof LOG_COLUMNS)[number];
 
@@ -17,8 +17,8 @@ export type ImportProblem = SampleProblem;
 export type ImportWarning = { line: number | null; column: string | null; message: string };
 
 /** Values per row of the flat arrays a batch carries (see writeBatch in import-runner.ts). */
-export const SAMPLE_WIDTH = 14;
-export const READING_WIDTH = 16;
+export const SAMPLE_WIDTH = 15;
+export const READING_WIDTH = 17;
 
 export type WorkerToMain =
   | { type: 'batch'; samples: unknown[]; readings: unknown[] }
@@ -30,6 +30,10 @@ export type ParseLogInput = {
   filePath: string;
   timeZone: string;
   calibration: ReadonlyMap<string, DecodingCalibration>;
+  /** The plans of the survey's site, which a row's `plan` column names (case-insensitive). */
+  plans: readonly { id: number; name: string }[];
+  /** The plan for rows with an empty `plan` (the upload's planId field), or null. */
+  defaultPlanId: number | null;
   /** Samples per batch sent for writing. */
   batchRows?: number;
 };
@@ -104,7 +108,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
   const decoder = createLogDecoder(input.calibration, (r: DecodedReading) => {
     readingCount++;
     if (errorCount > 0) return;
-    readings.push(r.point, r.xM, r.yM, r.role, r.timeMs, r.probeId, r.lux, r.uLux, r.luxBound, r.flag, r.gainCode, r.samples, r.chosenSample, r.coefficientSetId, budgetJson(r.budget), r.note);
+    readings.push(r.point, r.xM, r.yM, r.planId, r.role, r.timeMs, r.probeId, r.lux, r.uLux, r.luxBound, r.flag, r.gainCode, r.samples, r.chosenSample, r.coefficientSetId, budgetJson(r.budget), r.note);
   }, addError);
 
   const col: Record<Column, number> = Object.fromEntries(LOG_COLUMNS.map((c) => [c, -1])) as Record<Column, number>;
@@ -112,6 +116,14 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
   let nextLine = 1;
   let headerDone = false;
   const warnedProbes = new Set<string>();
+  const planByName = new Map<string, number | 'ambiguous'>();
+  for (const p of input.plans) {
+    const key = p.name.trim().toLowerCase();
+    planByName.set(key, planByName.has(key) ? 'ambiguous' : p.id);
+  }
+  const planNames = input.plans.map((p) => p.name).join(', ');
+  // Rows naming no plan: the upload's choice, else the site's only plan (for positioned rows).
+  const onlyPlanId = input.plans.length === 1 ? input.plans[0].id : null;
 
   const num = (row: string[], c: Column, line: number): number | undefined | null => {
     const i = col[c];
@@ -185,6 +197,16 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
       const missing = xM === undefined ? 'x_m' : 'y_m';
       addError({ line, column: missing, value: '', message: `${missing === 'x_m' ? 'y_m' : 'x_m'} is given but ${missing} is empty: give both plan coordinates or neither` });
     }
+    const planText = text(row, 'plan');
+    let planId: number | null = null;
+    if (planText !== '') {
+      const found = planByName.get(planText.toLowerCase());
+      if (found === undefined) {
+        addError({ line, column: 'plan', value: planText, message: input.plans.length === 0 ? `plan "${planText}" is not known: this site has no plans yet` : `plan "${planText}" is not a plan of this site (its plans: ${planNames})` });
+      } else if (found === 'ambiguous') {
+        addError({ line, column: 'plan', value: planText, message: `plan "${planText}" names more than one plan of this site: rename one of them` });
+      } else planId = found;
+    } else planId = input.defaultPlanId ?? (xM !== undefined && xM !== null ? onlyPlanId : null);
     const roleText = text(row, 'role').toLowerCase();
     if (roleText !== '' && roleText !== 'task' && roleText !== 'reference') addError({ line, column: 'role', value: text(row, 'role'), message: 'role must be task or reference' });
     if (errorCount > before) return;
@@ -192,7 +214,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     const sample: LogSample = {
       line, timeMs: timeMs!, probe, point,
       gainCode: gainCode ?? undefined, counts: counts ?? undefined, ma: ma ?? undefined, volts: volts ?? undefined,
-      intMs: intMs ?? undefined, tempC: tempC ?? undefined, xM: xM ?? null, yM: yM ?? null,
+      intMs: intMs ?? undefined, tempC: tempC ?? undefined, xM: xM ?? null, yM: yM ?? null, planId,
       role: roleText === 'reference' ? 'reference' : 'task', note: note === '' ? null : note.slice(0, MAX_NOTE_LENGTH),
     };
     const cal = input.calibration.get(probe);
@@ -203,7 +225,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     decoder.push(sample);
     if (errorCount > before || errorCount > 0) return;
     samples.push(line, sample.timeMs, cal!.probeId, point, sample.gainCode ?? null, sample.counts ?? null, sample.ma ?? null, sample.volts ?? null,
-      sample.intMs ?? null, sample.tempC ?? null, sample.xM, sample.yM, sample.role, sample.note);
+      sample.intMs ?? null, sample.tempC ?? null, sample.xM, sample.yM, sample.planId, sample.role, sample.note);
   }
 
   const flush = () => {

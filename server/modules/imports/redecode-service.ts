@@ -31,10 +31,10 @@ export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: n
   try {
     const calibration = loadDecodingCalibration(deps.db, actor.organizationId);
     const serialOf = new Map([...calibration.values()].map((c) => [c.probeId, c.serial]));
-    const insert = deps.db.$client.prepare(`insert into readings (survey_id, decode_id, import_id, point, x_m, y_m, role, time_ms, probe_id, lux, u_lux, lux_bound, flag, gain_code, sample_count, chosen_sample, coefficient_set_id, budget, note)
-      values (${survey.id}, ${decode.id}, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`);
+    const insert = deps.db.$client.prepare(`insert into readings (survey_id, decode_id, import_id, point, x_m, y_m, plan_id, role, time_ms, probe_id, lux, u_lux, lux_bound, flag, gain_code, sample_count, chosen_sample, coefficient_set_id, budget, note)
+      values (${survey.id}, ${decode.id}, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`);
     const writeMany = deps.db.$client.transaction((importId: number, rs: DecodedReading[]) => {
-      for (const r of rs) insert.run(importId, r.point, r.xM, r.yM, r.role, r.timeMs, r.probeId, r.lux, r.uLux, r.luxBound, r.flag, r.gainCode, r.samples, r.chosenSample, r.coefficientSetId, JSON.stringify(r.budget), r.note);
+      for (const r of rs) insert.run(importId, r.point, r.xM, r.yM, r.planId, r.role, r.timeMs, r.probeId, r.lux, r.uLux, r.luxBound, r.flag, r.gainCode, r.samples, r.chosenSample, r.coefficientSetId, JSON.stringify(r.budget), r.note);
     });
     let count = 0;
     const problems: SampleProblem[] = [];
@@ -49,7 +49,7 @@ export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: n
           decoder.push({
             line: s.line, timeMs: s.timeMs, probe: serialOf.get(s.probeId) ?? `#${s.probeId}`, point: s.point,
             gainCode: s.gainCode ?? undefined, counts: s.counts ?? undefined, ma: s.ma ?? undefined, volts: s.volts ?? undefined,
-            intMs: s.intMs ?? undefined, tempC: s.tempC ?? undefined, xM: s.xM, yM: s.yM, role: s.role, note: s.note,
+            intMs: s.intMs ?? undefined, tempC: s.tempC ?? undefined, xM: s.xM, yM: s.yM, planId: s.planId, role: s.role, note: s.note,
           });
         }
         lastId = page[page.length - 1].id;

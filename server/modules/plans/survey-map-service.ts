@@ -1,4 +1,4 @@
-import { and, asc, eq } from 'drizzle-orm';
+import { and, asc, eq, isNotNull, isNull, sql } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { plans, zones } from '../../db/schema/plans';
 import { readings, surveys } from '../../db/schema/surveys';
@@ -24,9 +24,11 @@ function findVisibleSurvey(db: Db, user: SessionUser, surveyId: number) {
 }
 
 /**
- * The survey's current readings that have a position on the plan, each with its zone and
+ * The survey's current readings taken on this plan (readings.planId, from the log's plan column
+ * or the upload's choice) that have a position, each with its zone and
  * wall-band mark (shared/spatial), and each zone's average over the points its statistics
- * use (task points outside the wall band; shared/core zoneStats).
+ * use (task points outside the wall band; shared/core zoneStats). Positioned readings that name
+ * no plan are counted, never guessed onto one.
  */
 export function surveyMap(db: Db, user: SessionUser, surveyId: number, planId: number | undefined): SurveyMapResponse {
   const survey = findVisibleSurvey(db, user, surveyId);
@@ -40,18 +42,21 @@ export function surveyMap(db: Db, user: SessionUser, surveyId: number, planId: n
   }
   const base = { surveyId, surveyName: survey.name, siteId: survey.siteId, planId: plan.id };
   const extent = planExtent(plan);
+  const current = and(eq(readings.decodeId, survey.activeDecodeId ?? -1), eq(readings.surveyId, surveyId));
+  const count = (where: ReturnType<typeof and>) => db.select({ n: sql<number>`count(*)` }).from(readings).where(and(current, where)).get()!.n;
+  const withoutPosition = survey.activeDecodeId === null ? 0 : count(isNull(readings.xM));
+  const withoutPlan = survey.activeDecodeId === null ? 0 : count(and(isNotNull(readings.xM), isNull(readings.planId)));
   const rows = survey.activeDecodeId === null ? [] : db.select({
     id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, role: readings.role, lux: readings.lux, uLux: readings.uLux,
     luxBound: readings.luxBound, flag: readings.flag, timeMs: readings.timeMs, gainCode: readings.gainCode, budget: readings.budget,
     probe: probes.serial,
   }).from(readings).innerJoin(probes, eq(probes.id, readings.probeId))
-    .where(and(eq(readings.decodeId, survey.activeDecodeId), eq(readings.surveyId, surveyId)))
+    .where(and(current, eq(readings.planId, plan.id), isNotNull(readings.xM), isNotNull(readings.yM)))
     .orderBy(asc(readings.timeMs), asc(readings.id)).all();
 
-  const placed = rows.filter((r) => r.xM !== null && r.yM !== null);
-  const withoutPosition = rows.length - placed.length;
+  const placed = rows;
   if (!extent) {
-    return { ...base, readings: [], zones: [], withoutPosition, outsidePlan: placed.length, notice: 'Set the plan\'s scale to place the readings on it.' };
+    return { ...base, readings: [], zones: [], withoutPosition, withoutPlan, outsidePlan: placed.length, notice: 'Set the plan\'s scale to place the readings on it.' };
   }
   const onPlan = placed.filter((r) => r.xM! >= -EDGE_TOLERANCE_M && r.yM! >= -EDGE_TOLERANCE_M && r.xM! <= extent.widthM + EDGE_TOLERANCE_M && r.yM! <= extent.heightM + EDGE_TOLERANCE_M);
 
@@ -77,7 +82,7 @@ export function surveyMap(db: Db, user: SessionUser, surveyId: number, planId: n
     };
   });
 
-  return { ...base, readings: mapReadings, zones: summaries, withoutPosition, outsidePlan: placed.length - onPlan.length, notice: null };
+  return { ...base, readings: mapReadings, zones: summaries, withoutPosition, withoutPlan, outsidePlan: placed.length - onPlan.length, notice: null };
 }
 
 /** The stored reading in the core's shape, for zoneStats (uRel is U / (k * E) by definition of U). */

@@ -4,6 +4,7 @@ import { and, asc, desc, eq, sql, type SQL } from 'drizzle-orm';
 import type { Deps } from '../../deps';
 import { readings } from '../../db/schema/surveys';
 import { probes } from '../../db/schema/calibration';
+import { plans } from '../../db/schema/plans';
 import type { SessionUser } from '@shared/schemas/auth';
 import type { Reading, ReadingSeries, ReadingsResponse } from '@shared/schemas/readings';
 import { readingsQuerySchema, type ReadingsQuery } from '@shared/schemas/readings';
@@ -12,18 +13,18 @@ import { luxToFootcandles } from '@shared/core/units';
 import { currentReadingConditions, getSurveyRow } from '../surveys/surveys-service';
 
 const columns = {
-  id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, role: readings.role, timeMs: readings.timeMs, probe: probes.serial,
+  id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, planId: readings.planId, role: readings.role, timeMs: readings.timeMs, probe: probes.serial,
   lux: readings.lux, uLux: readings.uLux, luxBound: readings.luxBound, flag: readings.flag, gainCode: readings.gainCode,
   samples: readings.sampleCount, chosenSample: readings.chosenSample, budget: readings.budget, note: readings.note,
 };
 type Row = {
-  id: number; point: string; xM: number | null; yM: number | null; role: Reading['role']; timeMs: number; probe: string; lux: number | null; uLux: number | null;
+  id: number; point: string; xM: number | null; yM: number | null; planId: number | null; role: Reading['role']; timeMs: number; probe: string; lux: number | null; uLux: number | null;
   luxBound: Reading['luxBound']; flag: Reading['flag']; gainCode: number | null; samples: number; chosenSample: number | null; budget: unknown; note: string | null;
 };
 
 function present(r: Row): Reading {
   return {
-    id: r.id, point: r.point, xM: r.xM, yM: r.yM, role: r.role, timestamp: new Date(r.timeMs).toISOString(), probe: r.probe,
+    id: r.id, point: r.point, xM: r.xM, yM: r.yM, planId: r.planId, role: r.role, timestamp: new Date(r.timeMs).toISOString(), probe: r.probe,
     lux: r.lux, uLux: r.uLux, luxBound: r.luxBound, flag: r.flag, gainCode: r.gainCode, samples: r.samples, chosenSample: r.chosenSample,
     budget: (r.budget as Reading['budget'] | null) ?? [],
   };
@@ -79,17 +80,17 @@ export async function exportReadingsCsv(db: Deps['db'], user: SessionUser, surve
   const safeName = survey.name.replace(/[^A-Za-z0-9 _-]+/g, '').trim().replace(/\s+/g, '-') || 'survey';
   res.setHeader('Content-Type', 'text/csv; charset=utf-8');
   res.setHeader('Content-Disposition', `attachment; filename="${safeName}-readings-${u}.csv"`);
-  const header = ['timestamp_utc', 'point', 'x_m', 'y_m', 'role', 'probe', `illuminance_${u}`, `expanded_uncertainty_${u}_k2`, 'bound', 'flag', 'gain', 'samples', 'chosen_sample', 'note'];
+  const header = ['timestamp_utc', 'point', 'x_m', 'y_m', 'plan', 'role', 'probe', `illuminance_${u}`, `expanded_uncertainty_${u}_k2`, 'bound', 'flag', 'gain', 'samples', 'chosen_sample', 'note'];
   res.write(`${Papa.unparse([header], { newline: '\r\n' })}\r\n`);
   if (survey.activeDecodeId !== null) {
     let after = { t: Number.MIN_SAFE_INTEGER, id: 0 };
     for (;;) {
       const where = [...currentReadingConditions(survey), sql`(${readings.timeMs} > ${after.t} or (${readings.timeMs} = ${after.t} and ${readings.id} > ${after.id}))`];
-      const rows = db.select(columns).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).where(and(...where))
-        .orderBy(asc(readings.timeMs), asc(readings.id)).limit(EXPORT_PAGE).all();
+      const rows = db.select({ ...columns, planName: plans.name }).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).leftJoin(plans, eq(plans.id, readings.planId))
+        .where(and(...where)).orderBy(asc(readings.timeMs), asc(readings.id)).limit(EXPORT_PAGE).all();
       if (rows.length === 0) break;
       const data = rows.map((r) => [
-        new Date(r.timeMs).toISOString(), neutraliseCell(r.point), r.xM ?? '', r.yM ?? '', r.role, neutraliseCell(r.probe),
+        new Date(r.timeMs).toISOString(), neutraliseCell(r.point), r.xM ?? '', r.yM ?? '', r.planName === null ? '' : neutraliseCell(r.planName), r.role, neutraliseCell(r.probe),
         r.lux === null ? '' : round(convert(r.lux)), r.uLux === null ? '' : round(convert(r.uLux)), r.luxBound, r.flag, r.gainCode ?? '', r.samples,
         r.chosenSample ?? '', r.note === null ? '' : neutraliseCell(r.note),
       ]);

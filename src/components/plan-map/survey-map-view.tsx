@@ -126,7 +126,8 @@ export function SurveyMapView({ plan, zones, map, compareWith, zoneFill, zoneLeg
         <ul className="space-y-1 text-xs text-ink-600">
           <li>{map.readings.length} point(s) on this plan.</li>
           {map.withoutPosition > 0 && <li>{map.withoutPosition} reading(s) have no position in the log and are not shown.</li>}
-          {map.outsidePlan > 0 && <li>{map.outsidePlan} reading(s) lie outside this plan (another floor?) and are not shown.</li>}
+          {map.withoutPlan > 0 && <li>{map.withoutPlan} reading(s) could not be placed: their log names no plan and this site has several (give logs a plan column, or choose the plan when uploading).</li>}
+          {map.outsidePlan > 0 && map.notice === null && <li>{map.outsidePlan} reading(s) of this plan lie beyond its edge and are not shown.</li>}
           {difference && <li>{difference.points.length} point(s) matched by label; {difference.onlyAfter.length} new, {difference.onlyBefore.length} no longer measured.</li>}
         </ul>
         {safetyZones.length > 0 && (

@@ -44,7 +44,7 @@ export const planExamples: RouteExamples = {
   'DELETE /zones/:id': async (t) => ({ path: `/api/zones/${await exampleZone(t)}`, okStatus: 204 }),
   'GET /surveys/:id/map': async (t) => {
     const { siteId, planId } = await examplePlan(t);
-    const surveyId = insertSurveyWithReadings(t, orgOf(t, DEMO.admin), siteId, [{ point: 'P1', x: 2, y: 2, lux: 480 }, { point: 'P2', x: 4, y: 3, lux: 520 }]);
+    const surveyId = insertSurveyWithReadings(t, orgOf(t, DEMO.admin), siteId, [{ point: 'P1', x: 2, y: 2, lux: 480 }, { point: 'P2', x: 4, y: 3, lux: 520 }], 'Matrix survey', planId);
     return { path: `/api/surveys/${surveyId}/map?planId=${planId}` };
   },
 };

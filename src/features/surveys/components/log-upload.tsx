@@ -5,20 +5,26 @@ import { useUploadLog } from '../api/upload-log';
 import { useImport } from '../api/get-import';
 import { surveyQueryOptions } from '../api/get-survey';
 import { surveyReadingsKey } from '../api/get-readings';
+import { useSitePlans } from '../api/get-site-plans';
 import { ImportErrorsTable, ImportWarningsList } from './import-errors-table';
 import { Button } from '@/components/ui/button';
 import { ProgressBar } from '@/components/ui/progress-bar';
 import { FormError } from '@/components/ui/form-error';
+import { SelectField } from '@/components/ui/field';
 
 /**
- * Upload of one log: the transfer's progress (XHR upload events), then the server's processing
- * (polling the import), then the outcome: readings refreshed, or the file's problems as a table.
+ * Upload of one log: the plan its rows were taken on (the log's plan column by default), the
+ * transfer's progress (XHR upload events), then the server's processing (polling the import),
+ * then the outcome: readings refreshed, or the file's problems as a table.
  */
-export function LogUpload({ surveyId }: { surveyId: number }) {
+export function LogUpload({ surveyId, siteId }: { surveyId: number; siteId: number }) {
   const input = useRef<HTMLInputElement>(null);
   const [file, setFile] = useState<File | null>(null);
   const [transfer, setTransfer] = useState(0);
   const [importId, setImportId] = useState<number | null>(null);
+  const [planId, setPlanId] = useState<number | null>(null);
+  const plans = useSitePlans(siteId);
+  const planCount = plans.data?.items.length ?? 0;
   const upload = useUploadLog();
   const imp = useImport(importId);
   const qc = useQueryClient();
@@ -35,11 +41,23 @@ export function LogUpload({ surveyId }: { surveyId: number }) {
     if (!file) return;
     setImportId(null);
     setTransfer(0);
-    upload.mutate({ surveyId, file, onProgress: (p) => setTransfer(p.fraction) }, { onSuccess: (r) => { setTransfer(1); setImportId(r.importId); } });
+    upload.mutate({ surveyId, file, planId, onProgress: (p) => setTransfer(p.fraction) }, { onSuccess: (r) => { setTransfer(1); setImportId(r.importId); } });
   };
 
   return (
     <div className="flex flex-col gap-4">
+      <SelectField
+        label="Plan of the readings" className="max-w-sm" value={planId ?? ''} onChange={(e) => setPlanId(e.target.value ? Number(e.target.value) : null)}
+        disabled={plans.isPending || plans.isError}
+        hint={plans.isError ? 'The site\'s plans could not be loaded; the log\'s plan column decides.'
+          : planId !== null ? 'For rows whose plan column is empty.'
+          : planCount === 1 ? 'Positioned rows with no plan go on the site\'s only plan.'
+          : planCount === 0 ? 'This site has no plans yet: positions cannot be placed.'
+          : 'Rows with a position but no plan are kept but not placed on any plan.'}
+      >
+        <option value="">{plans.isPending ? 'Loading plans…' : 'From the log\'s plan column'}</option>
+        {plans.data?.items.map((p) => <option key={p.id} value={p.id}>{p.name}</option>)}
+      </SelectField>
       <div className="flex flex-wrap items-end gap-3">
         <div>
           <label htmlFor="log-file" className="mb-1 block text-sm font-medium text-ink-800">Meter log (CSV)</label>

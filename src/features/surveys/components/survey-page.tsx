@@ -87,7 +87,7 @@ export function SurveyPage({ surveyId, role }: { surveyId: number; role: Role })
               {s.canUpload && (
                 <Card>
                   <CardHeader title="Add a meter log" description="A file with any problem is rejected whole; nothing from it is stored." />
-                  <CardBody><LogUpload surveyId={s.id} /></CardBody>
+                  <CardBody><LogUpload surveyId={s.id} siteId={s.siteId} /></CardBody>
                 </Card>
               )}
               {!s.canUpload && can(role, 'surveys.upload') && (
