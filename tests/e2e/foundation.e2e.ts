@@ -61,3 +61,20 @@ describe('foundation in a real browser', () => {
     await invitee.screenshot({ path: path.join(screenshotDir(), 'home-phone.png') });
   });
 });
+
+describe('facility managers limited to sites', () => {
+  it('invites a facility manager limited to the library, and the users table says so', async () => {
+    const admin = await app.newPage();
+    await signInAs(admin, 'admin@luxtrail.test');
+    await admin.goto('/users');
+    const form = admin.getByRole('form', { name: 'Invite a user' });
+    await form.getByLabel('Name').fill('Rowan Ashdown');
+    await form.getByLabel('E-mail').fill('rowan@luxtrail.test');
+    await form.getByLabel('Role').selectOption('facility_manager');
+    await form.getByLabel('Fernmoor Community Library').check();
+    await form.getByRole('button', { name: 'Send invitation' }).click();
+    await admin.getByRole('status').getByText('Invitation sent to rowan@luxtrail.test').waitFor();
+    const row = admin.getByRole('row', { name: /Rowan Ashdown/ });
+    await row.getByText('Sites: Fernmoor Community Library').waitFor();
+  });
+});

@@ -6,7 +6,7 @@ import { Button } from '@/components/ui/button';
 
 const STATUS_TONE = { active: 'good', invited: 'warn', disabled: 'neutral' } as const;
 
-export function UsersTable({ users, currentUserId }: { users: User[]; currentUserId: number }) {
+export function UsersTable({ users, currentUserId, sites }: { users: User[]; currentUserId: number; sites: { id: number; name: string }[] }) {
   const update = useUpdateUser();
   const resend = useResendInvitation();
   return (
@@ -33,7 +33,12 @@ export function UsersTable({ users, currentUserId }: { users: User[]; currentUse
                   {ROLES.map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
                 </select>
               </td>
-              <td className="px-5 py-3"><Badge tone={STATUS_TONE[u.status]}>{u.status}</Badge></td>
+              <td className="px-5 py-3">
+                <Badge tone={STATUS_TONE[u.status]}>{u.status}</Badge>
+                {u.role === 'facility_manager' && u.siteIds.length > 0 && (
+                  <div className="mt-1 text-xs text-ink-500">Sites: {u.siteIds.map((id) => sites.find((s) => s.id === id)?.name ?? `#${id}`).join(', ')}</div>
+                )}
+              </td>
               <td className="px-5 py-3 text-right">
                 {u.status === 'invited' && <Button size="sm" variant="ghost" onClick={() => resend.mutate(u.id)} busy={resend.isPending && resend.variables === u.id}>Resend link</Button>}
                 {u.status === 'active' && u.id !== currentUserId && <Button size="sm" variant="ghost" onClick={() => update.mutate({ id: u.id, status: 'disabled' })}>Disable</Button>}
