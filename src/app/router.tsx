@@ -21,11 +21,6 @@ import { ProbeDetailRoute } from './routes/calibration/probe-detail';
 import { ProbeEditRoute } from './routes/calibration/probe-edit';
 import { BenchRunRoute } from './routes/calibration/bench-run';
 import { CalibrationAuditRoute } from './routes/calibration/calibration-audit';
-import { ComplianceOverviewRoute } from './routes/compliance/compliance-overview';
-import { SurveyComplianceRoute } from './routes/compliance/survey-compliance';
-import { ZoneComplianceRoute } from './routes/compliance/zone-compliance';
-import { TargetsRoute } from './routes/compliance/targets';
-import { SettingsRoute } from './routes/compliance/settings';
 import { SurveysIndexRoute } from './routes/surveys/surveys-index';
 import { SurveyDetailRoute } from './routes/surveys/survey-detail';
 import { ComplianceOverviewRoute } from './routes/compliance/compliance-overview';
@@ -69,11 +64,6 @@ const appRoutes: RouteObject[] = [
   { path: 'calibration/probes/:probeId/edit', element: <Gate capability="probes.write"><ProbeEditRoute /></Gate> },
   { path: 'calibration/bench-runs/:benchRunId', element: <Gate capability="coefficients.read"><BenchRunRoute /></Gate> },
   { path: 'calibration/audit', element: <Gate capability="audit.read"><CalibrationAuditRoute /></Gate> },
-  { path: 'compliance', element: <Gate capability="surveys.read"><ComplianceOverviewRoute /></Gate> },
-  { path: 'compliance/surveys/:surveyId', element: <Gate capability="surveys.read"><SurveyComplianceRoute /></Gate> },
-  { path: 'compliance/surveys/:surveyId/zones/:zoneId', element: <Gate capability="surveys.read"><ZoneComplianceRoute /></Gate> },
-  { path: 'targets', element: <Gate capability="targets.read"><TargetsRoute /></Gate> },
-  { path: 'settings', element: <Gate capability="organization.settings"><SettingsRoute /></Gate> },
   { path: 'compliance', element: <Gate capability="surveys.read"><ComplianceOverviewRoute /></Gate> },
   { path: 'compliance/surveys/:surveyId', element: <Gate capability="surveys.read"><SurveyComplianceRoute /></Gate> },
   { path: 'compliance/surveys/:surveyId/zones/:zoneId', element: <Gate capability="surveys.read"><ZoneComplianceRoute /></Gate> },
