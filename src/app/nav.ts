@@ -1,9 +1,8 @@
 import type { LucideIcon } from 'lucide-react';
-import { LayoutDashboard, Users, Mail } from 'lucide-react';
-import { Map as PlanIcon } from 'lucide-react';
-import { Gauge as CalibrationIcon, History as AuditIcon } from 'lucide-react';
-import { ClipboardList as SurveysIcon } from 'lucide-react';
-import { ClipboardCheck, Library, Settings } from 'lucide-react';
+import {
+  ClipboardCheck, ClipboardList as SurveysIcon, Gauge as CalibrationIcon, History as AuditIcon,
+  LayoutDashboard, Library, Mail, Map as PlanIcon, Settings, Users,
+} from 'lucide-react';
 import type { Capability } from '@shared/policy';
 
 export type NavItem = { to: string; label: string; icon: LucideIcon; capability?: Capability; group: 'work' | 'admin'; description?: string };
