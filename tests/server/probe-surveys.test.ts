@@ -62,3 +62,14 @@ describe('surveys decoded with a probe (what a re-decode would change)', () => {
     expect(items.every((s: { status: string; canRedecode: boolean }) => s.canRedecode === (s.status !== 'signed_off'))).toBe(true);
   });
 });
+
+describe('re-decoding a signed-off survey', () => {
+  it('refuses with 409 and leaves the active decode as it was', async () => {
+    const spring = t.db.select().from(surveys).where(eq(surveys.name, 'Spring walk-through 2026')).get()!;
+    const cal = await t.signIn(DEMO.calibration);
+    const res = await cal.post(`/api/surveys/${spring.id}/redecode`);
+    expect(res.status).toBe(409);
+    expect(res.body.error.message).toMatch(/signed off/);
+    expect(t.db.select().from(surveys).where(eq(surveys.id, spring.id)).get()!.activeDecodeId).toBe(spring.activeDecodeId);
+  });
+});

@@ -21,6 +21,8 @@ const PAGE = 5000;
  */
 export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: number, reason = 'redecode'): Promise<RedecodeResponse> {
   const survey = getSurveyRow(deps.db, actor, surveyId);
+  // A signed-off survey is read-only: its readings, like its verdicts, stay as they were judged.
+  if (survey.status === 'signed_off') throw conflict('This survey is signed off and read-only; its readings are not re-decoded');
   const busy = deps.db.select({ id: logImports.id }).from(logImports).where(and(eq(logImports.surveyId, survey.id), inArray(logImports.status, ['queued', 'running']))).get();
   if (busy || surveysBeingRedecoded.has(survey.id)) throw conflict('A log of this survey is being imported or re-decoded; try again when it has finished');
   const imports = deps.db.select({ id: logImports.id }).from(logImports).where(and(eq(logImports.surveyId, survey.id), eq(logImports.status, 'done'))).orderBy(asc(logImports.id)).all();
