@@ -101,6 +101,9 @@ export function isoluxLines(points: readonly MeasuredPoint[], zone: readonly Pla
   const steps = (options.levels ?? EN12464_SCALE_LUX).filter((l) => l > lo && l < hi);
   if (steps.length === 0) return empty('The measured range has no step of the EN 12464-1 scale inside it.', hull, cellM);
 
+  // A closed loop enclosing no more than one measured point's share of the hull is a single
+  // reading's bump (noise around a level near the zone's average), not a pattern: leave it out.
+  const minLoopAreaM2 = polygonAreaM2(hull) / usable.length;
   const generator = contours().size([nx, ny]).smooth(false);
   const grid = Array.from(values);
   const valueAt = (i: number, j: number) => values[j * nx + i];
@@ -110,7 +113,7 @@ export function isoluxLines(points: readonly MeasuredPoint[], zone: readonly Pla
     for (const poly of generator.contour(grid, level).coordinates) {
       for (const ring of poly) lines.push(...cutRing(ring as [number, number][], level, valueAt, nx, ny, x0, y0, cellM));
     }
-    const kept = lines.filter((l) => l.length >= 2);
+    const kept = lines.filter((l) => l.length >= 2 && !(isClosed(l) && polygonAreaM2(l.slice(0, -1)) < minLoopAreaM2));
     if (kept.length === 0) continue;
     const longest = kept.reduce((a, b) => (b.length > a.length ? b : a));
     levels.push({ lux: level, lines: kept, labelAt: longest[Math.floor(longest.length / 2)] });
@@ -152,6 +155,11 @@ function cutRing(ring: [number, number][], level: number, valueAt: (i: number, j
   }
   if (current.length) pieces.push(current);
   return pieces;
+}
+
+function isClosed(line: PlanPoint[]): boolean {
+  const a = line[0], b = line[line.length - 1];
+  return line.length > 3 && a[0] === b[0] && a[1] === b[1];
 }
 
 /** Readings at the same spot (a repeated point) enter as their mean. */

@@ -84,3 +84,25 @@ describe('isoluxLines', () => {
     expect(EN12464_SCALE_LUX).toEqual([20, 30, 50, 75, 100, 150, 200, 300, 500, 750, 1000, 1500, 2000, 3000, 5000]);
   });
 });
+
+describe('isolux loops around a single reading', () => {
+  // Project rule: a closed loop enclosing no more than one point's share of the hull is noise.
+  const grid = (f: (x: number, y: number) => number) => {
+    const pts: { x: number; y: number; lux: number }[] = [];
+    for (let i = 0; i <= 10; i++) for (let j = 0; j <= 10; j++) pts.push({ x: i, y: j, lux: f(i, j) });
+    return pts;
+  };
+  const square: [number, number][] = [[0, 0], [10, 0], [10, 10], [0, 10]];
+
+  it('draws no loop around one reading that pokes above a level', () => {
+    const r = isoluxLines(grid((x, y) => (x === 5 && y === 5 ? 320 : 280)), square);
+    expect(r.levels.find((l) => l.lux === 300)).toBeUndefined();
+  });
+
+  it('keeps a loop around a bright patch of several readings', () => {
+    const r = isoluxLines(grid((x, y) => (Math.abs(x - 5) <= 2 && Math.abs(y - 5) <= 2 ? 320 : 280)), square);
+    const level = r.levels.find((l) => l.lux === 300);
+    expect(level).toBeDefined();
+    expect(level!.lines.length).toBe(1);
+  });
+});
