@@ -4,8 +4,16 @@ import type { Db } from '../db/client';
 import { sessions } from '../db/schema/organizations';
 import type { Clock } from '../lib/clock';
 
+/**
+ * A rolling session's expiry is written at most this often per session: every request writing it
+ * would wait on (and block the event loop behind) a long import's writes (project's own choice).
+ */
+export const SESSION_TOUCH_INTERVAL_MS = 60_000;
+
 /** Server-side sessions kept in SQLite; expiry follows the injected clock. */
 export class SqliteSessionStore extends session.Store {
+  private readonly touchedAt = new Map<string, number>();
+
   constructor(private readonly db: Db, private readonly clock: Clock, private readonly ttlMs: number) {
     super();
   }
@@ -30,6 +38,10 @@ export class SqliteSessionStore extends session.Store {
 
   override touch(sid: string, _data: session.SessionData, cb?: (err?: unknown) => void) {
     try {
+      const now = this.clock.now();
+      const last = this.touchedAt.get(sid);
+      if (last !== undefined && now - last >= 0 && now - last < SESSION_TOUCH_INTERVAL_MS) return cb?.();
+      this.touchedAt.set(sid, now);
       this.db.update(sessions).set({ expiresAt: this.clock.now() + this.ttlMs }).where(eq(sessions.sid, sid)).run();
       cb?.();
     } catch (err) { cb?.(err); }
@@ -38,12 +50,15 @@ export class SqliteSessionStore extends session.Store {
   override destroy(sid: string, cb?: (err?: unknown) => void) {
     try {
       this.db.delete(sessions).where(eq(sessions.sid, sid)).run();
+      this.touchedAt.delete(sid);
       cb?.();
     } catch (err) { cb?.(err); }
   }
 
   /** Drops expired rows; called now and then by the server. */
   prune() {
-    this.db.delete(sessions).where(lt(sessions.expiresAt, this.clock.now())).run();
+    const now = this.clock.now();
+    this.db.delete(sessions).where(lt(sessions.expiresAt, now)).run();
+    for (const [sid, at] of this.touchedAt) if (now - at > this.ttlMs) this.touchedAt.delete(sid);
   }
 }

@@ -63,8 +63,8 @@ export function storedPath(deps: Deps, sha256: string): string {
  * Keeps an uploaded file by content hash (one copy per content) and records it.
  * Moves the temporary upload into place; the row is the caller's to tie to its record.
  */
-export async function keepUploadedFile(deps: Deps, input: { organizationId: number; userId: number | null; tmpPath: string; filename: string; contentType: string }) {
-  const sha256 = await sha256OfFile(input.tmpPath);
+export async function keepUploadedFile(deps: Deps, input: { organizationId: number; userId: number | null; tmpPath: string; filename: string; contentType: string; /** When the caller has already hashed the file. */ sha256?: string }) {
+  const sha256 = input.sha256 ?? await sha256OfFile(input.tmpPath);
   const target = storedPath(deps, sha256);
   fs.mkdirSync(path.dirname(target), { recursive: true });
   if (fs.existsSync(target)) fs.rmSync(input.tmpPath, { force: true });

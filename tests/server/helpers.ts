@@ -29,7 +29,7 @@ export const DEMO = {
  */
 export async function createTestApp(overrides: Partial<Config> = {}, opts: { seed?: boolean } = {}) {
   const config = testConfig(overrides);
-  const db = openDatabase(':memory:');
+  const db = openDatabase(config.databaseUrl);
   const clock = fixedClock(DEMO_START);
   const mailer = createMailer({ db, clock, smtpUrl: null });
   const deps = { db, mailer, clock, config };

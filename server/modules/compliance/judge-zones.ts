@@ -8,6 +8,7 @@ import { createZoneAssigner, type ZoneKind } from '@shared/spatial/zone-assignme
 import type { PlanPoint } from '@shared/spatial/polygon';
 import type { TargetConfidence } from '@shared/schemas/targets';
 import type { ZoneCompliance, ZoneVerdict } from '@shared/schemas/compliance';
+import { decodeBudget } from '../readings/stored-budget';
 
 /** Fewer valid points than this give no uniformity worth judging: the zone is not assessed (project's own choice). */
 export const MIN_ASSESSABLE_POINTS = 3;
@@ -59,16 +60,12 @@ export type JudgedZone = ZoneCompliance & { polygon: PlanPoint[]; readingIds: nu
 
 export type JudgeResult = { zones: JudgedZone[]; unassignedPoints: number; hasDaylightReference: boolean; warnings: string[] };
 
-function isBudget(v: unknown): v is BudgetPart[] {
-  return Array.isArray(v) && v.every((p) => p && typeof p === 'object' && typeof (p as BudgetPart).uRel === 'number' && typeof (p as BudgetPart).name === 'string');
-}
-
 /**
  * A stored reading as the core's Reading. With no stored budget, the expanded uncertainty is
  * taken whole as a calibration (systematic) part, so a mean never shrinks it: the cautious choice.
  */
 export function toCoreReading(r: JudgeReading): Reading {
-  let budget: BudgetPart[] = isBudget(r.budget) ? r.budget : [];
+  let budget: BudgetPart[] = decodeBudget(r.budget);
   if (budget.length === 0 && r.uLux !== null && r.lux !== null && r.lux > 0) budget = [{ name: 'calibration', uRel: r.uLux / COVERAGE_K / r.lux }];
   return {
     probe: String(r.probeId), point: r.point, timeMs: r.timeMs, lux: r.lux, luxBound: r.luxBound, flag: r.flag, flags: [r.flag],

@@ -1,11 +1,12 @@
-import { Worker } from 'node:worker_threads';
+import { MessageChannel, Worker } from 'node:worker_threads';
 import { setImmediate as yieldToEventLoop } from 'node:timers/promises';
 import { and, eq, inArray, sql } from 'drizzle-orm';
 import type { Deps } from '../../deps';
 import { decodes, logImports, readings, surveys } from '../../db/schema/surveys';
 import { loadDecodingCalibration } from '../probes/probe-calibration';
 import { recordAudit } from '../audit/audit-service';
-import { READING_WIDTH, SAMPLE_WIDTH, type ImportProblem, type ImportWarning, type WorkerToMain } from './log-parser';
+import type { ImportProblem, ImportWarning, WorkerToMain } from './log-parser';
+import { createBatchWriter } from './batch-writer.mjs';
 
 export type ImportJob = {
   importId: number;
@@ -35,12 +36,37 @@ function pendingOf(db: Deps['db']) {
   return m;
 }
 
+/**
+ * Young-generation sizes of the two import threads (V8's default is about 48 MB each). Their rows
+ * die young (64 KiB chunks, 1,024-row batches), so smaller ones cost little time and keep the
+ * server's peak RSS under 350 MB while a 1,000,000-row log is imported (tests/bench/ingest.bench.ts;
+ * the writer at 6 MB was markedly slower, at 16 MB not).
+ */
+const PARSE_YOUNG_GENERATION_MB = 12;
+const WRITER_YOUNG_GENERATION_MB = 16;
+
 function getWorker(): Worker {
   if (worker) return worker;
-  worker = new Worker(new URL('./import-worker-entry.mjs', import.meta.url));
+  // The entry registers the TypeScript loader itself: inheriting the server's --import tsx as well would load it twice.
+  worker = new Worker(new URL('./import-worker-entry.mjs', import.meta.url), { execArgv: [], resourceLimits: { maxYoungGenerationSizeMb: PARSE_YOUNG_GENERATION_MB } });
   worker.on('exit', () => { worker = null; });
   worker.unref();
   return worker;
+}
+
+/** Writer threads by database file; an in-memory database (tests) is written on the main thread. */
+const writers = new Map<string, Worker>();
+function getWriter(deps: Deps): Worker | null {
+  const client = deps.db.$client;
+  if (client.memory) return null;
+  let w = writers.get(client.name);
+  if (w) return w;
+  // Plain JavaScript: no TypeScript loader inherited from the server's --import (execArgv).
+  w = new Worker(new URL('./import-writer.mjs', import.meta.url), { workerData: { databasePath: client.name }, execArgv: [], resourceLimits: { maxYoungGenerationSizeMb: WRITER_YOUNG_GENERATION_MB } });
+  writers.set(client.name, w);
+  w.on('exit', () => writers.delete(client.name));
+  w.unref();
+  return w;
 }
 
 /** Queues an import; imports run one at a time, each in the import worker thread. */
@@ -87,45 +113,21 @@ function ensureActiveDecode(deps: Deps, job: ImportJob): { decodeId: number; cre
   });
 }
 
-const MULTI_ROWS = 64;
-
-/** Prepared multi-row INSERTs for one import (ids are integers from the database, inlined). */
-function batchWriter(deps: Deps, job: ImportJob, decodeId: number) {
-  const client = deps.db.$client;
-  const sampleRow = `(${job.importId},${job.surveyId},${Array(SAMPLE_WIDTH).fill('?').join(',')})`;
-  const readingRow = `(${job.surveyId},${decodeId},${job.importId},${Array(READING_WIDTH).fill('?').join(',')})`;
-  const sampleSql = 'insert into samples (import_id, survey_id, line, time_ms, probe_id, point, gain_code, counts, ma, volts, int_ms, temp_c, x_m, y_m, plan_id, role, note) values ';
-  const readingSql = 'insert into readings (survey_id, decode_id, import_id, point, x_m, y_m, plan_id, role, time_ms, probe_id, lux, u_lux, lux_bound, flag, gain_code, sample_count, chosen_sample, coefficient_set_id, budget, note) values ';
-  const stmts = {
-    sampleMany: client.prepare(sampleSql + Array(MULTI_ROWS).fill(sampleRow).join(',')),
-    sampleOne: client.prepare(sampleSql + sampleRow),
-    readingMany: client.prepare(readingSql + Array(MULTI_ROWS).fill(readingRow).join(',')),
-    readingOne: client.prepare(readingSql + readingRow),
-  };
-  const insert = (values: unknown[], width: number, many: typeof stmts.sampleMany, one: typeof stmts.sampleOne) => {
-    const step = width * MULTI_ROWS;
-    let i = 0;
-    for (; i + step <= values.length; i += step) many.run(values.slice(i, i + step));
-    for (; i < values.length; i += width) one.run(values.slice(i, i + width));
-  };
-  return client.transaction((samplesFlat: unknown[], readingsFlat: unknown[]) => {
-    insert(samplesFlat, SAMPLE_WIDTH, stmts.sampleMany, stmts.sampleOne);
-    insert(readingsFlat, READING_WIDTH, stmts.readingMany, stmts.readingOne);
-  });
-}
-
 async function runImport(deps: Deps, job: ImportJob): Promise<ImportOutcome> {
   const { decodeId, created } = ensureActiveDecode(deps, job);
   deps.db.update(logImports).set({ status: 'running', progress: 0 }).where(eq(logImports.id, job.importId)).run();
-  const write = batchWriter(deps, job, decodeId);
+  const target = { importId: job.importId, surveyId: job.surveyId, decodeId };
+  const writer = getWriter(deps);
+  const write = writer ? null : createBatchWriter(deps.db.$client, target);
   const calibration = loadDecodingCalibration(deps.db, job.organizationId);
   const w = getWorker();
   w.ref();
+  writer?.ref();
   let lastProgressWrite = 0;
   const end = await new Promise<Extract<WorkerToMain, { type: 'end' }> | { type: 'crash'; message: string }>((resolve) => {
     const onMessage = (m: WorkerToMain) => {
       if (m.type === 'batch') {
-        write(m.samples, m.readings);
+        write!(m.samples, m.readings);
         w.postMessage({ type: 'ack' });
       } else if (m.type === 'progress') {
         const now = Date.now();
@@ -141,16 +143,30 @@ async function runImport(deps: Deps, job: ImportJob): Promise<ImportOutcome> {
     };
     const onError = (err: Error) => { cleanup(); resolve({ type: 'crash', message: err.message }); };
     const onExit = (code: number) => { cleanup(); resolve({ type: 'crash', message: `the import worker exited (code ${code})` }); };
+    // The parse worker waits on the writer's acknowledgements: if the writer dies, stop it too.
+    const onWriterGone = (err: Error | number) => { cleanup(); void w.terminate(); resolve({ type: 'crash', message: `the import writer stopped (${err instanceof Error ? err.message : `code ${err}`})` }); };
     const cleanup = () => {
       w.off('message', onMessage);
       w.off('error', onError);
       w.off('exit', onExit);
+      writer?.off('error', onWriterGone);
+      writer?.off('exit', onWriterGone);
       w.unref();
+      writer?.unref();
     };
     w.on('message', onMessage);
     w.on('error', onError);
     w.on('exit', onExit);
-    w.postMessage({ type: 'start', input: { filePath: job.filePath, timeZone: job.timeZone, calibration, plans: job.plans, defaultPlanId: job.defaultPlanId } });
+    const input = { filePath: job.filePath, timeZone: job.timeZone, calibration, plans: job.plans, defaultPlanId: job.defaultPlanId };
+    if (writer) {
+      writer.on('error', onWriterGone);
+      writer.on('exit', onWriterGone);
+      const channel = new MessageChannel();
+      writer.postMessage({ type: 'start', target, port: channel.port2 }, [channel.port2]);
+      w.postMessage({ type: 'start', input, fileSize: job.fileSize, writerPort: channel.port1 }, [channel.port1]);
+    } else {
+      w.postMessage({ type: 'start', input, fileSize: job.fileSize });
+    }
   });
 
   if (end.type === 'crash') {

@@ -46,7 +46,7 @@ export async function uploadLog(deps: Deps, user: SessionUser, surveyId: number,
     if (earlier) {
       throw conflict(`This file was already uploaded to this survey as import ${earlier.id} (${earlier.filename}, ${new Date(earlier.createdAt).toISOString().slice(0, 16).replace('T', ' ')} UTC)`, { importId: earlier.id });
     }
-    const stored = await keepUploadedFile(deps, { organizationId: user.organizationId, userId: user.id, tmpPath: file.path, filename: file.originalname || 'log.csv', contentType: 'text/csv' });
+    const stored = await keepUploadedFile(deps, { organizationId: user.organizationId, userId: user.id, tmpPath: file.path, filename: file.originalname || 'log.csv', contentType: 'text/csv', sha256 });
     const imp = deps.db.insert(logImports).values({ surveyId: survey.id, fileId: stored.id, planId: defaultPlanId, status: 'queued', createdBy: user.id, createdAt: deps.clock.now() }).returning().get();
     const done = enqueueImport(deps, {
       importId: imp.id, surveyId: survey.id, organizationId: user.organizationId, actorId: user.id,

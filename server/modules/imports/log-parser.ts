@@ -3,6 +3,8 @@ import Papa from 'papaparse';
 import type { DecodingCalibration } from '../probes/probe-calibration';
 import { createLogDecoder, type DecodedReading, type LogSample, type SampleProblem } from './log-decoder';
 import { createTimestampParser } from './log-time';
+import { encodeBudget } from '../readings/stored-budget';
+import { SAMPLE_WIDTH } from './batch-writer.mjs';
 
 /** The log format's columns (README, "Survey logs and the log format"). */
 export const LOG_COLUMNS = ['timestamp', 'probe', 'point', 'gain', 'counts', 'ma', 'volts', 'x_m', 'y_m', 'plan', 'int_ms', 'temp_c', 'role', 'note'] as const;
@@ -16,9 +18,6 @@ export const MAX_NOTE_LENGTH = 1000;
 export type ImportProblem = SampleProblem;
 export type ImportWarning = { line: number | null; column: string | null; message: string };
 
-/** Values per row of the flat arrays a batch carries (see writeBatch in import-runner.ts). */
-export const SAMPLE_WIDTH = 15;
-export const READING_WIDTH = 17;
 
 export type WorkerToMain =
   | { type: 'batch'; samples: unknown[]; readings: unknown[] }
@@ -40,14 +39,15 @@ export type ParseLogInput = {
 
 export type ParseLogSink = { post(m: WorkerToMain): void; drain(): Promise<void> };
 
-const NUMBER = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
+/**
+ * Small stream chunks and batches keep the rows in flight short-lived, so they die in the young
+ * generation: with 1 MB chunks and 4,096-row batches a quarter to a third of the parse was
+ * garbage collection; with these about a tenth of that (tests/bench/ingest.bench.ts).
+ */
+const STREAM_CHUNK_BYTES = 64 * 1024;
+const BATCH_ROWS = 1024;
 
-/** The budget as JSON, built directly (names are the core's fixed identifiers; uRel a finite number). */
-function budgetJson(parts: DecodedReading['budget']): string {
-  let out = '[';
-  for (let i = 0; i < parts.length; i++) out += `${i ? ',' : ''}{"name":"${parts[i].name}","uRel":${Number.isFinite(parts[i].uRel) ? parts[i].uRel : 'null'}}`;
-  return `${out}]`;
-}
+const NUMBER = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
 
 /** Comma, semicolon or tab: whichever occurs most in the header line outside quotes (comma on a tie). */
 export function detectDelimiter(headerLine: string): ',' | ';' | '\t' {
@@ -101,14 +101,14 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
   const delimiter = detectDelimiter(header);
   const decimalComma = delimiter === ';';
   const parseTime = createTimestampParser(input.timeZone);
-  const batchRows = input.batchRows ?? 4096;
+  const batchRows = input.batchRows ?? BATCH_ROWS;
 
   let samples: unknown[] = [];
   let readings: unknown[] = [];
   const decoder = createLogDecoder(input.calibration, (r: DecodedReading) => {
     readingCount++;
     if (errorCount > 0) return;
-    readings.push(r.point, r.xM, r.yM, r.planId, r.role, r.timeMs, r.probeId, r.lux, r.uLux, r.luxBound, r.flag, r.gainCode, r.samples, r.chosenSample, r.coefficientSetId, budgetJson(r.budget), r.note);
+    readings.push(r.point, r.xM, r.yM, r.planId, r.role, r.timeMs, r.probeId, r.lux, r.uLux, r.luxBound, r.flag, r.gainCode, r.samples, r.chosenSample, r.coefficientSetId, encodeBudget(r.budget), r.note);
   }, addError);
 
   const col: Record<Column, number> = Object.fromEntries(LOG_COLUMNS.map((c) => [c, -1])) as Record<Column, number>;
@@ -240,7 +240,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     readings = [];
   };
 
-  const stream = fs.createReadStream(input.filePath, { encoding: 'utf8', highWaterMark: 1 << 20 });
+  const stream = fs.createReadStream(input.filePath, { encoding: 'utf8', highWaterMark: STREAM_CHUNK_BYTES });
   await new Promise<void>((resolve, reject) => {
     Papa.parse<string[]>(stream as unknown as File, {
       delimiter,

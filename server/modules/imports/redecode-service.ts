@@ -11,6 +11,7 @@ import { recordAudit } from '../audit/audit-service';
 import { getSurveyRow } from '../surveys/surveys-service';
 import { createLogDecoder, type DecodedReading, type SampleProblem } from './log-decoder';
 import { surveysBeingRedecoded } from './imports-service';
+import { encodeBudget } from '../readings/stored-budget';
 
 const PAGE = 5000;
 
@@ -36,7 +37,7 @@ export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: n
     const insert = deps.db.$client.prepare(`insert into readings (survey_id, decode_id, import_id, point, x_m, y_m, plan_id, role, time_ms, probe_id, lux, u_lux, lux_bound, flag, gain_code, sample_count, chosen_sample, coefficient_set_id, budget, note)
       values (${survey.id}, ${decode.id}, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`);
     const writeMany = deps.db.$client.transaction((importId: number, rs: DecodedReading[]) => {
-      for (const r of rs) insert.run(importId, r.point, r.xM, r.yM, r.planId, r.role, r.timeMs, r.probeId, r.lux, r.uLux, r.luxBound, r.flag, r.gainCode, r.samples, r.chosenSample, r.coefficientSetId, JSON.stringify(r.budget), r.note);
+      for (const r of rs) insert.run(importId, r.point, r.xM, r.yM, r.planId, r.role, r.timeMs, r.probeId, r.lux, r.uLux, r.luxBound, r.flag, r.gainCode, r.samples, r.chosenSample, r.coefficientSetId, encodeBudget(r.budget), r.note);
     });
     let count = 0;
     const problems: SampleProblem[] = [];

@@ -12,6 +12,8 @@ import { createZoneAssigner } from '@shared/spatial/zone-assignment';
 import { notFound, unprocessable } from '../../http/errors';
 import { siteScope } from '../users/users-service';
 import { findVisiblePlan, planExtent } from './plans-service';
+import { currentReadingConditions } from '../surveys/surveys-service';
+import { decodeBudget } from '../readings/stored-budget';
 
 /** Plan coordinates may sit this far outside the plan's edge (a point on the outer wall). */
 const EDGE_TOLERANCE_M = 0.05;
@@ -42,7 +44,8 @@ export function surveyMap(db: Db, user: SessionUser, surveyId: number, planId: n
   }
   const base = { surveyId, surveyName: survey.name, siteId: survey.siteId, planId: plan.id };
   const extent = planExtent(plan);
-  const current = and(eq(readings.decodeId, survey.activeDecodeId ?? -1), eq(readings.surveyId, surveyId));
+  // Readings of imports still running (or rejected) are not shown: only accepted files count.
+  const current = and(...currentReadingConditions(survey));
   const count = (where: ReturnType<typeof and>) => db.select({ n: sql<number>`count(*)` }).from(readings).where(and(current, where)).get()!.n;
   const withoutPosition = survey.activeDecodeId === null ? 0 : count(isNull(readings.xM));
   const withoutPlan = survey.activeDecodeId === null ? 0 : count(and(isNotNull(readings.xM), isNull(readings.planId)));
@@ -75,7 +78,7 @@ export function surveyMap(db: Db, user: SessionUser, surveyId: number, planId: n
   const summaries: MapZoneSummary[] = zoneRows.map((z) => {
     const inZone = mapReadings.filter((r) => r.zoneId === z.id);
     const used = inZone.filter((r) => !r.inWallBand);
-    const stats = zoneStats(used.map((r) => asCoreReading(r, (byId.get(r.id)?.budget as BudgetPart[] | null) ?? [])));
+    const stats = zoneStats(used.map((r) => asCoreReading(r, decodeBudget(byId.get(r.id)?.budget))));
     return {
       zoneId: z.id, points: used.length, wallBandPoints: inZone.length - used.length,
       eavg: stats.eavg, eavgBound: stats.bounded.eavg, uEavg: stats.uEavg,

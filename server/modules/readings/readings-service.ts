@@ -11,6 +11,7 @@ import { readingsQuerySchema, type ReadingsQuery } from '@shared/schemas/reading
 import { neutraliseCell } from '@shared/csv-safe';
 import { luxToFootcandles } from '@shared/core/units';
 import { currentReadingConditions, getSurveyRow } from '../surveys/surveys-service';
+import { decodeBudget } from './stored-budget';
 
 const columns = {
   id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, planId: readings.planId, role: readings.role, timeMs: readings.timeMs, probe: probes.serial,
@@ -26,7 +27,7 @@ function present(r: Row): Reading {
   return {
     id: r.id, point: r.point, xM: r.xM, yM: r.yM, planId: r.planId, role: r.role, timestamp: new Date(r.timeMs).toISOString(), probe: r.probe,
     lux: r.lux, uLux: r.uLux, luxBound: r.luxBound, flag: r.flag, gainCode: r.gainCode, samples: r.samples, chosenSample: r.chosenSample,
-    budget: (r.budget as Reading['budget'] | null) ?? [],
+    budget: decodeBudget(r.budget),
   };
 }
 

@@ -1,0 +1,46 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { describe, it, expect, beforeAll, afterAll } from 'vitest';
+import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
+import { createTestProbes, newDraftSurvey, tableCounts, testWalkCsv, TEST_SERIALS, uploadAndWait } from './support/survey-log-factories';
+
+// A database file (not :memory:) sends the import's writes through the writer thread and its own connection.
+const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'luxtrail-writer-'));
+let t: TestApp;
+let c: TestClient;
+beforeAll(async () => {
+  t = await createTestApp({ databaseUrl: path.join(dir, 'writer.db'), dataDir: path.join(dir, 'data') });
+  createTestProbes(t);
+  c = await t.signIn(DEMO.surveyor);
+}, 60_000);
+afterAll(() => {
+  t.db.$client.close();
+  fs.rmSync(dir, { recursive: true, force: true });
+});
+
+describe('log import with a database file (writer thread)', () => {
+  it('import, of the demo walk, writes every sample and reading through the writer thread and keeps progress current', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const { status } = await uploadAndWait(t, c, surveyId, testWalkCsv(Date.parse('2026-11-21T09:00:00Z'), 5));
+    expect(status).toMatchObject({ status: 'done', progress: 1, errors: [] });
+    const samples = t.db.$client.prepare('select count(*) as n from samples s join log_imports i on i.id = s.import_id where i.survey_id = ?').get(surveyId) as { n: number };
+    expect(samples.n).toBe(status.rowsRead);
+    const detail = (await c.get(`/api/surveys/${surveyId}`)).body;
+    expect(detail.readingCount).toBe(status.readings);
+    expect(detail.flagCounts.over_range).toBe(1);
+  });
+
+  it('import, of a file whose last row is bad after several written batches, leaves no sample or reading behind', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const lines = ['timestamp,probe,point,gain,counts,x_m,y_m'];
+    for (let i = 0; i < 5000; i++) lines.push(`${new Date(Date.parse('2026-11-12T00:00:00Z') + i * 15_000).toISOString()},${TEST_SERIALS.tripod},W${i},2,16000,1.5,2.5`);
+    lines.push(`2026-11-13T00:00:00Z,${TEST_SERIALS.tripod},LAST,2,x,1.5,2.5`);
+    const before = tableCounts(t);
+    const { status } = await uploadAndWait(t, c, surveyId, `${lines.join('\n')}\n`);
+    expect(status.status).toBe('failed');
+    expect(status.errors[0]).toMatchObject({ line: 5002, column: 'counts', value: 'x' });
+    const after = tableCounts(t);
+    expect({ ...after, log_imports: after.log_imports - 1, stored_files: after.stored_files - 1 }).toEqual(before);
+  });
+});
