@@ -40,10 +40,10 @@ function pendingOf(db: Deps['db']) {
  * Young-generation sizes of the two import threads (V8's default is about 48 MB each). Their rows
  * die young (64 KiB chunks, 1,024-row batches), so smaller ones cost little time and keep the
  * server's peak RSS under 350 MB while a 1,000,000-row log is imported (tests/bench/ingest.bench.ts;
- * the writer at 6 MB was markedly slower, at 16 MB not).
+ * the writer at 6 MB was markedly slower, at 16 MB somewhat; 32 MB kept the ratio and the RSS target).
  */
 const PARSE_YOUNG_GENERATION_MB = 12;
-const WRITER_YOUNG_GENERATION_MB = 16;
+const WRITER_YOUNG_GENERATION_MB = 32;
 
 function getWorker(): Worker {
   if (worker) return worker;
