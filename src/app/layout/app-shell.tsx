@@ -25,7 +25,7 @@ export function AppShell() {
         if (!groupItems.length) return null;
         return (
           <div key={group}>
-            <div className="mb-2 px-3 text-[11px] font-semibold uppercase tracking-wider text-ink-400">{group === 'work' ? 'Work' : 'Administration'}</div>
+            <div className="mb-2 px-3 text-[11px] font-semibold uppercase tracking-wider text-ink-300">{group === 'work' ? 'Work' : 'Administration'}</div>
             <ul className="flex flex-col gap-0.5">
               {groupItems.map((item) => (
                 <li key={item.to}>
@@ -50,7 +50,7 @@ export function AppShell() {
   const account = (
     <div className="border-t border-ink-800 pt-4">
       <div className="px-3 text-sm font-medium text-white">{user.name}</div>
-      <div className="px-3 text-xs text-ink-400">{ROLE_LABELS[user.role]} · {user.organizationName}</div>
+      <div className="px-3 text-xs text-ink-300">{ROLE_LABELS[user.role]} · {user.organizationName}</div>
       <button
         type="button"
         onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}

@@ -74,13 +74,15 @@ export function ReadingsTable({ surveyId, timeZone }: { surveyId: number; timeZo
         <EmptyState title={flag || point ? 'No reading matches these filters' : 'No readings yet'}>{flag || point ? 'Clear the filters to see every reading.' : 'Upload a meter log above.'}</EmptyState>
       ) : (
         <div role="table" aria-label="Readings" aria-rowcount={total} className="overflow-x-auto">
-          <div className="min-w-[62rem]">
+          <div className="min-w-[62rem]" role="presentation">
+            <div role="rowgroup">
             <div role="row" className={cx(GRID, 'border-y border-ink-100 bg-ink-50 py-2 text-xs font-medium uppercase tracking-wide text-ink-500')}>
               {header('time', 'Time')}{header('point', 'Point')}{header('probe', 'Probe')}{header(null, 'Role')}
               {header('lux', `Illuminance (${units.label})`, 'text-right')}{header(null, `U, k=2 (${units.label})`, 'text-right')}{header('flag', 'Flag')}{header(null, 'Gain', 'text-right')}{header(null, 'Samples', 'text-right')}
             </div>
-            <div ref={scroller} className="max-h-[32rem] overflow-y-auto" tabIndex={0} aria-label="Readings list, scroll to see more">
-              <div style={{ height: virtual.getTotalSize(), position: 'relative' }}>
+            </div>
+            <div ref={scroller} role="rowgroup" className="max-h-[32rem] overflow-y-auto" tabIndex={0} aria-label="Readings list, scroll to see more">
+              <div role="presentation" style={{ height: virtual.getTotalSize(), position: 'relative' }}>
                 {items.map((vi) => {
                   const r = rowAt(vi.index);
                   return (

@@ -15,10 +15,13 @@ export function WalkChart({ surveyId }: { surveyId: number }) {
   return (
     <QueryState query={series} isEmpty={(d) => d.items.length === 0} empty={<EmptyState title="No readings to chart yet" />}>
       {(d) => {
-        const valued = d.items.filter((p) => p.lux !== null && p.lux > 0).map((p) => ({ t: p.t, v: units.convert(p.lux!), role: p.role, flag: p.flag, point: p.point }));
-        const task = valued.filter((p) => p.role === 'task' && p.flag !== 'over_range');
-        const over = valued.filter((p) => p.flag === 'over_range');
-        const reference = valued.filter((p) => p.role === 'reference');
+        // Recharts copies a datum's fields onto its SVG shape, so a field named `role` would become
+        // an ARIA role: the plotted points carry only time, value and label.
+        const valued = d.items.filter((p) => p.lux !== null && p.lux > 0);
+        const plot = (keep: (p: (typeof valued)[number]) => boolean) => valued.filter(keep).map((p) => ({ t: p.t, v: units.convert(p.lux!), point: p.point }));
+        const task = plot((p) => p.role === 'task' && p.flag !== 'over_range');
+        const over = plot((p) => p.flag === 'over_range');
+        const reference = plot((p) => p.role === 'reference');
         const gains = d.items.filter((p) => p.role === 'task' && p.gainCode !== null).map((p) => ({ t: p.t, g: p.gainCode }));
         const domain: [number, number] = [d.items[0].t, d.items[d.items.length - 1].t];
         return (
