@@ -1,7 +1,11 @@
 import { z } from 'zod';
+import type { ReadingFlag as CoreReadingFlag } from '../core/types';
 
 export const READING_FLAGS = ['ok', 'over_range', 'under_range', 'fault', 'calibration_lapsed', 'low_confidence'] as const;
 export type ReadingFlag = (typeof READING_FLAGS)[number];
+// The API's flags are the core's flags: the compiler refuses a flag added on one side only.
+type SameFlags<A, B> = [A] extends [B] ? ([B] extends [A] ? true : never) : never;
+export const FLAGS_MATCH_CORE: SameFlags<ReadingFlag, CoreReadingFlag> = true;
 
 export const READING_FLAG_LABELS: Record<ReadingFlag, string> = {
   ok: 'OK',
