@@ -52,7 +52,15 @@ export function createApp(deps: Deps, options: AppOptions = {}) {
     },
     crossOriginEmbedderPolicy: false,
   }));
-  app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => req.url === '/api/health' } }));
+  // One line per request: method, path, status and time; no headers, so no cookies in the log.
+  app.use(pinoHttp({
+    logger,
+    autoLogging: { ignore: (req) => req.url === '/api/health' },
+    serializers: {
+      req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url.split('?')[0] }),
+      res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+    },
+  }));
 
   const store = new SqliteSessionStore(deps.db, deps.clock, SESSION_TTL_MS);
   const api = new Api();
