@@ -7,7 +7,7 @@ import type { PlanPoint } from '@shared/spatial/polygon';
 import { useCurrentUser } from '@/app/current-user';
 import { usePlan } from '@/features/plans/api/get-plan';
 import { useZones } from '@/features/plans/api/get-zones';
-import { useSiteSurveys } from '@/features/plans/api/get-site-surveys';
+import { useSurveys } from '@/features/surveys/api/get-surveys';
 import { PlanEditorMap, type EditorMode } from '@/features/plans/components/plan-editor-map';
 import { ScaleForm, type ScalePick } from '@/features/plans/components/scale-form';
 import { ZoneForm } from '@/features/plans/components/zone-form';
@@ -24,7 +24,7 @@ export function PlanDetailRoute() {
   const canEdit = can(user.role, 'plans.write');
   const plan = usePlan(planId);
   const zones = useZones(planId);
-  const surveys = useSiteSurveys(plan.data?.siteId, can(user.role, 'surveys.read'));
+  const surveys = useSurveys(plan.data?.siteId, { enabled: plan.data?.siteId !== undefined && can(user.role, 'surveys.read') });
   const [mode, setMode] = useState<EditorMode>({ kind: 'view' });
   const [scalePick, setScalePick] = useState<ScalePick>({ active: false, points: [] });
   const [editing, setEditing] = useState<{ zone: Zone | null; corners: PlanPoint[] | null } | null>(null);

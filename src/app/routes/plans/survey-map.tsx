@@ -3,7 +3,7 @@ import { Link, useParams, useSearchParams } from 'react-router';
 import { useSurveyMap } from '@/features/plans/api/get-survey-map';
 import { useSitePlans } from '@/features/plans/api/get-site-plans';
 import { useZones } from '@/features/plans/api/get-zones';
-import { useSiteSurveys } from '@/features/plans/api/get-site-surveys';
+import { useSurveys } from '@/features/surveys/api/get-surveys';
 import { SurveyMapView } from '@/components/plan-map/survey-map-view';
 import { Page, PageHeader } from '@/components/ui/page';
 import { SelectField } from '@/components/ui/field';
@@ -19,7 +19,7 @@ export function SurveyMapRoute() {
   const planId = map.data?.planId;
   const plans = useSitePlans(map.data?.siteId);
   const zones = useZones(planId);
-  const surveys = useSiteSurveys(map.data?.siteId);
+  const surveys = useSurveys(map.data?.siteId, { enabled: map.data?.siteId !== undefined });
   const compare = useSurveyMap(compareId, planId);
   const set = (k: string, v: string) => { const next = new URLSearchParams(params); if (v) next.set(k, v); else next.delete(k); setParams(next, { replace: true }); };
   const onPainted = useCallback((ms: number) => { document.querySelector('[data-testid="survey-map"]')?.setAttribute('data-painted-ms', ms.toFixed(1)); }, []);

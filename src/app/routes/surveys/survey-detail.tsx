@@ -1,9 +1,14 @@
 import { useParams } from 'react-router';
 import { SurveyPage } from '@/features/surveys/components/survey-page';
+import { useSurvey } from '@/features/surveys/api/get-survey';
+import { useSitePlans } from '@/features/plans/api/get-site-plans';
 import { useCurrentUser } from '../../current-user';
 
+/** The survey page, given its site's plans from the plans feature (for the upload's plan choice). */
 export function SurveyDetailRoute() {
-  const { surveyId } = useParams();
+  const surveyId = Number(useParams().surveyId);
   const me = useCurrentUser();
-  return <SurveyPage surveyId={Number(surveyId)} role={me.role} />;
+  const survey = useSurvey(surveyId);
+  const sitePlans = useSitePlans(survey.data?.siteId);
+  return <SurveyPage surveyId={surveyId} role={me.role} sitePlans={sitePlans} />;
 }

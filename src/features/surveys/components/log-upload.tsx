@@ -1,11 +1,11 @@
 import { useEffect, useRef, useState } from 'react';
-import { useQueryClient } from '@tanstack/react-query';
+import { useQueryClient, type UseQueryResult } from '@tanstack/react-query';
+import type { PlanListResponse } from '@shared/schemas/plans';
 import { CheckCircle2, Upload } from 'lucide-react';
 import { useUploadLog } from '../api/upload-log';
 import { useImport } from '../api/get-import';
 import { surveyQueryOptions } from '../api/get-survey';
 import { surveyReadingsKey } from '../api/get-readings';
-import { useSitePlans } from '../api/get-site-plans';
 import { ImportErrorsTable, ImportWarningsList } from './import-errors-table';
 import { Button } from '@/components/ui/button';
 import { ProgressBar } from '@/components/ui/progress-bar';
@@ -15,15 +15,15 @@ import { SelectField } from '@/components/ui/field';
 /**
  * Upload of one log: the plan its rows were taken on (the log's plan column by default), the
  * transfer's progress (XHR upload events), then the server's processing (polling the import),
- * then the outcome: readings refreshed, or the file's problems as a table.
+ * then the outcome: readings refreshed, or the file's problems as a table. The site's plans come
+ * from the plans feature, handed down by the page that composes both.
  */
-export function LogUpload({ surveyId, siteId }: { surveyId: number; siteId: number }) {
+export function LogUpload({ surveyId, plans }: { surveyId: number; plans: UseQueryResult<PlanListResponse> }) {
   const input = useRef<HTMLInputElement>(null);
   const [file, setFile] = useState<File | null>(null);
   const [transfer, setTransfer] = useState(0);
   const [importId, setImportId] = useState<number | null>(null);
   const [planId, setPlanId] = useState<number | null>(null);
-  const plans = useSitePlans(siteId);
   const planCount = plans.data?.items.length ?? 0;
   const upload = useUploadLog();
   const imp = useImport(importId);

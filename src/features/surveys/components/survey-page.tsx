@@ -4,6 +4,8 @@ import { can } from '@shared/policy';
 import type { Role } from '@shared/roles';
 import { READING_FLAGS, READING_FLAG_LABELS } from '@shared/schemas/readings';
 import type { SurveyDetail } from '@shared/schemas/surveys';
+import type { PlanListResponse } from '@shared/schemas/plans';
+import type { UseQueryResult } from '@tanstack/react-query';
 import { useSurvey } from '../api/get-survey';
 import { useRedecodeSurvey } from '../api/redecode-survey';
 import { SurveyStatusBadge } from './status-badge';
@@ -69,7 +71,7 @@ function Redecode({ survey }: { survey: SurveyDetail }) {
   );
 }
 
-export function SurveyPage({ surveyId, role }: { surveyId: number; role: Role }) {
+export function SurveyPage({ surveyId, role, sitePlans }: { surveyId: number; role: Role; sitePlans: UseQueryResult<PlanListResponse> }) {
   const survey = useSurvey(surveyId);
   const units = useUnits();
   return (
@@ -87,7 +89,7 @@ export function SurveyPage({ surveyId, role }: { surveyId: number; role: Role })
               {s.canUpload && (
                 <Card>
                   <CardHeader title="Add a meter log" description="A file with any problem is rejected whole; nothing from it is stored." />
-                  <CardBody><LogUpload surveyId={s.id} siteId={s.siteId} /></CardBody>
+                  <CardBody><LogUpload surveyId={s.id} plans={sitePlans} /></CardBody>
                 </Card>
               )}
               {!s.canUpload && can(role, 'surveys.upload') && (
