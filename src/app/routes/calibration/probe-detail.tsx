@@ -12,6 +12,7 @@ import { ManualDraftForm } from '@/features/calibration/components/manual-draft-
 import { BenchUploadForm } from '@/features/calibration/components/bench-upload-form';
 import { BenchRunList } from '@/features/calibration/components/bench-run-list';
 import { ProbeSurveysCard } from '@/features/calibration/components/probe-surveys-card';
+import { useRedecodeAnySurvey } from '@/features/surveys/api/redecode-survey';
 import { Page, PageHeader } from '@/components/ui/page';
 import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { Button } from '@/components/ui/button';
@@ -28,6 +29,7 @@ export function ProbeDetailRoute() {
   const runs = useBenchRuns(probeId, canReadSets && probe.data?.kind === 'counts');
   const [drafting, setDrafting] = useState(false);
   const canWrite = can(user.role, 'coefficients.write');
+  const redecode = useRedecodeAnySurvey();
   return (
     <Page>
       <QueryState query={probe}>
@@ -78,7 +80,7 @@ export function ProbeDetailRoute() {
                       </CardBody>
                     </Card>
                   )}
-                  {can(user.role, 'surveys.redecode') && <ProbeSurveysCard probeId={p.id} />}
+                  {can(user.role, 'surveys.redecode') && <ProbeSurveysCard probeId={p.id} redecode={redecode} />}
                 </div>
               </div>
             </>

@@ -1,6 +1,7 @@
 import { RefreshCcw, ScrollText } from 'lucide-react';
-import { useProbeSurveys } from '../api/get-probe-surveys';
-import { useRedecodeSurvey } from '../api/redecode-survey';
+import { useQueryClient, type UseMutationResult } from '@tanstack/react-query';
+import type { RedecodeResponse } from '@shared/schemas/readings';
+import { probeSurveysQueryOptions, useProbeSurveys } from '../api/get-probe-surveys';
 import { Card, CardHeader } from '@/components/ui/card';
 import { Badge } from '@/components/ui/badge';
 import { Button } from '@/components/ui/button';
@@ -10,10 +11,12 @@ import { FormError } from '@/components/ui/form-error';
 /**
  * Surveys decoded with this probe. After a corrected set is approved, the ones whose readings
  * were decoded with another set can be re-decoded; the earlier decode stays recorded.
+ * `redecode` is the surveys feature's mutation, handed down by the page that composes both.
  */
-export function ProbeSurveysCard({ probeId }: { probeId: number }) {
+export function ProbeSurveysCard({ probeId, redecode }: { probeId: number; redecode: UseMutationResult<RedecodeResponse, Error, number> }) {
   const surveys = useProbeSurveys(probeId, true);
-  const redecode = useRedecodeSurvey(probeId);
+  const qc = useQueryClient();
+  const start = (surveyId: number) => redecode.mutate(surveyId, { onSuccess: () => qc.invalidateQueries({ queryKey: probeSurveysQueryOptions(probeId).queryKey }) });
   return (
     <Card>
       <CardHeader title="Surveys decoded with this probe" description="A re-decode applies the approved sets in force now to the kept samples; the earlier decode stays recorded and the audit trail names who did it." />
@@ -32,7 +35,7 @@ export function ProbeSurveysCard({ probeId }: { probeId: number }) {
                     : <Badge tone="good">Current</Badge>}
                   {s.canRedecode
                     ? (
-                      <Button size="sm" variant={s.staleReadings > 0 ? 'primary' : 'secondary'} onClick={() => redecode.mutate(s.surveyId)} busy={redecode.isPending && redecode.variables === s.surveyId} aria-label={`Re-decode ${s.name}`}>
+                      <Button size="sm" variant={s.staleReadings > 0 ? 'primary' : 'secondary'} onClick={() => start(s.surveyId)} busy={redecode.isPending && redecode.variables === s.surveyId} aria-label={`Re-decode ${s.name}`}>
                         <RefreshCcw className="h-4 w-4" aria-hidden />Re-decode
                       </Button>
                     )

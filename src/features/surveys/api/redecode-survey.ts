@@ -1,4 +1,4 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { RedecodeResponse } from '@shared/schemas/readings';
 import { surveyQueryOptions } from './get-survey';
@@ -6,13 +6,18 @@ import { surveyReadingsKey } from './get-readings';
 
 export const redecodeSurvey = (surveyId: number) => api.post<RedecodeResponse>(`/surveys/${surveyId}/redecode`);
 
+const refreshSurvey = (qc: QueryClient, surveyId: number) => Promise.all([
+  qc.invalidateQueries({ queryKey: surveyQueryOptions(surveyId).queryKey }),
+  qc.invalidateQueries({ queryKey: surveyReadingsKey(surveyId) }),
+]);
+
 export function useRedecodeSurvey(surveyId: number) {
   const qc = useQueryClient();
-  return useMutation({
-    mutationFn: () => redecodeSurvey(surveyId),
-    onSuccess: () => Promise.all([
-      qc.invalidateQueries({ queryKey: surveyQueryOptions(surveyId).queryKey }),
-      qc.invalidateQueries({ queryKey: surveyReadingsKey(surveyId) }),
-    ]),
-  });
+  return useMutation({ mutationFn: () => redecodeSurvey(surveyId), onSuccess: () => refreshSurvey(qc, surveyId) });
+}
+
+/** Re-decode of a survey chosen when called, for lists of surveys (such as a probe's). */
+export function useRedecodeAnySurvey() {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: (surveyId: number) => redecodeSurvey(surveyId), onSuccess: (_r, surveyId) => refreshSurvey(qc, surveyId) });
 }
