@@ -1,9 +1,7 @@
 import { describe, it, expect, beforeAll } from 'vitest';
-import { eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
-import { createTestProbes, newDraftSurvey, tableCounts, TEST_SERIALS, uploadAndWait } from './support/survey-log-factories';
+import { createTestProbes, keptSamples, newDraftSurvey, tableCounts, TEST_SERIALS, uploadAndWait } from './support/survey-log-factories';
 import { insertSite, orgOf, pngOf } from './plans-fixtures';
-import { logImports, samples } from '@server/db/schema/surveys';
 import { waitForImport } from '@server/modules/imports/imports-service';
 import type { Plan } from '@shared/schemas/plans';
 
@@ -49,7 +47,7 @@ describe('log import: the plan column', () => {
     expect(status).toMatchObject({ status: 'done', errors: [], planId: null });
     expect(await planIdsByPoint(surveyId)).toEqual({ 'G-1': plans['Ground floor'].id, 'F-1': plans['First floor'].id, 'C-1': plans['Car park and entrance'].id });
     // The samples keep the plan too, so a re-decode can carry it.
-    const kept = t.db.select({ planId: samples.planId }).from(samples).innerJoin(logImports, eq(logImports.id, samples.importId)).where(eq(logImports.surveyId, surveyId)).all();
+    const kept = keptSamples(t, surveyId);
     expect(kept.map((s) => s.planId).sort()).toEqual([plans['Ground floor'].id, plans['First floor'].id, plans['Car park and entrance'].id].sort());
   });
 

@@ -1,4 +1,4 @@
-import { sqliteTable, integer, text, real, index, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
+import { sqliteTable, integer, text, real, blob, index, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
 import { organizations, users, storedFiles } from './organizations';
 import { probes } from './calibration';
 import { plans } from './plans';
@@ -61,27 +61,23 @@ export const decodes = sqliteTable('decodes', {
   createdAt: integer('created_at').notNull(),
 });
 
-export const samples = sqliteTable('samples', {
+/**
+ * An import's accepted samples, kept for re-decoding, a batch to a row in file order (one row per
+ * batch, not per sample, keeps a million-row import's writes short). `encoding` says how `data`
+ * holds them: 'f64', the batch's Float64Array with `strings` its text table
+ * (server/modules/imports/batch-format.mjs); 'json', a flat JSON array of the SAMPLE_SLOTS
+ * values per sample (blocks migration 0003 made from the earlier one-row-per-sample table).
+ */
+export const sampleBlocks = sqliteTable('sample_blocks', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   importId: integer('import_id').notNull().references(() => logImports.id),
   surveyId: integer('survey_id').notNull(),
-  line: integer('line').notNull(),
-  timeMs: integer('time_ms').notNull(),
-  probeId: integer('probe_id').notNull().references(() => probes.id),
-  point: text('point').notNull(),
-  gainCode: integer('gain_code'),
-  counts: integer('counts'),
-  ma: real('ma'),
-  volts: real('volts'),
-  intMs: real('int_ms'),
-  tempC: real('temp_c'),
-  xM: real('x_m'),
-  yM: real('y_m'),
-  /** The plan x_m, y_m refer to; null when the log does not say and the site has several plans. */
-  planId: integer('plan_id').references((): AnySQLiteColumn => plans.id),
-  role: text('role', { enum: ['task', 'reference'] }).notNull().default('task'),
-  note: text('note'),
-}, (t) => [index('samples_import_idx').on(t.importId)]);
+  firstLine: integer('first_line').notNull(),
+  rowCount: integer('row_count').notNull(),
+  encoding: text('encoding', { enum: ['f64', 'json'] }).notNull(),
+  strings: text('strings'),
+  data: blob('data', { mode: 'buffer' }).notNull(),
+}, (t) => [index('sample_blocks_import_idx').on(t.importId)]);
 
 export const readings = sqliteTable('readings', {
   id: integer('id').primaryKey({ autoIncrement: true }),

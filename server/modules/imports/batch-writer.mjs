@@ -1,35 +1,40 @@
-// Writes an import's accepted rows: prepared multi-row INSERTs, one transaction per batch. Plain
-// JavaScript so the writer thread runs without the TypeScript loader (about 40 MB less per thread);
+// Writes one batch of an import's accepted rows in one transaction: its samples as one
+// sample_blocks row (the batch's Float64Array stored as it is) and its readings through prepared
+// multi-row INSERTs. Plain JavaScript so the writer thread runs without the TypeScript loader;
 // types in batch-writer.d.mts. The main thread uses it too, for an in-memory database.
+import { budgetsOf, fillReadingValues } from './batch-format.mjs';
 
-/** Values per row of the flat arrays a batch carries (the column lists below, after the inlined ids). */
-export const SAMPLE_WIDTH = 15;
-export const READING_WIDTH = 17;
-
+/** Values per reading in the readings insert (the column list below, after the inlined ids). */
+const READING_VALUES = 17;
 const MULTI_ROWS = 64;
 
 export function createBatchWriter(client, target) {
   const { importId, surveyId, decodeId } = target;
   if (![importId, surveyId, decodeId].every((n) => Number.isSafeInteger(n))) throw new Error('createBatchWriter: ids must be integers');
   // Ids are integers from the database, inlined so each row binds only its own values.
-  const sampleRow = `(${importId},${surveyId},${Array(SAMPLE_WIDTH).fill('?').join(',')})`;
-  const readingRow = `(${surveyId},${decodeId},${importId},${Array(READING_WIDTH).fill('?').join(',')})`;
-  const sampleSql = 'insert into samples (import_id, survey_id, line, time_ms, probe_id, point, gain_code, counts, ma, volts, int_ms, temp_c, x_m, y_m, plan_id, role, note) values ';
+  const readingRow = `(${surveyId},${decodeId},${importId},${Array(READING_VALUES).fill('?').join(',')})`;
   const readingSql = 'insert into readings (survey_id, decode_id, import_id, point, x_m, y_m, plan_id, role, time_ms, probe_id, lux, u_lux, lux_bound, flag, gain_code, sample_count, chosen_sample, coefficient_set_id, budget, note) values ';
-  const sampleMany = client.prepare(sampleSql + Array(MULTI_ROWS).fill(sampleRow).join(','));
-  const sampleOne = client.prepare(sampleSql + sampleRow);
+  const blockStmt = client.prepare(`insert into sample_blocks (import_id, survey_id, first_line, row_count, encoding, strings, data) values (${importId}, ${surveyId}, ?, ?, 'f64', ?, ?)`);
   const readingMany = client.prepare(readingSql + Array(MULTI_ROWS).fill(readingRow).join(','));
   const readingOne = client.prepare(readingSql + readingRow);
   const progressStmt = client.prepare(`update log_imports set progress = ?, rows_read = ? where id = ${importId}`);
-  const insert = (values, width, many, one) => {
-    const step = width * MULTI_ROWS;
-    let i = 0;
-    for (; i + step <= values.length; i += step) many.run(values.slice(i, i + step));
-    for (; i < values.length; i += width) one.run(values.slice(i, i + width));
-  };
-  return client.transaction((samplesFlat, readingsFlat, progress) => {
-    insert(samplesFlat, SAMPLE_WIDTH, sampleMany, sampleOne);
-    insert(readingsFlat, READING_WIDTH, readingMany, readingOne);
+  const many = new Array(READING_VALUES * MULTI_ROWS);
+  const one = new Array(READING_VALUES);
+  return client.transaction((batch, progress) => {
+    if (batch.sampleRows > 0) {
+      const { samples } = batch;
+      blockStmt.run(samples[0], batch.sampleRows, JSON.stringify(batch.strings), Buffer.from(samples.buffer, samples.byteOffset, samples.byteLength));
+    }
+    const budgets = budgetsOf(batch);
+    let r = 0;
+    for (; r + MULTI_ROWS <= batch.readingRows; r += MULTI_ROWS) {
+      fillReadingValues(batch, budgets, r, r + MULTI_ROWS, many);
+      readingMany.run(many);
+    }
+    for (; r < batch.readingRows; r++) {
+      fillReadingValues(batch, budgets, r, r + 1, one);
+      readingOne.run(one);
+    }
     if (progress) progressStmt.run(progress.progress, progress.rowsRead);
   });
 }

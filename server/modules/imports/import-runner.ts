@@ -1,4 +1,6 @@
+import { fileURLToPath } from 'node:url';
 import { MessageChannel, Worker } from 'node:worker_threads';
+import * as esbuild from 'esbuild';
 import { setImmediate as yieldToEventLoop } from 'node:timers/promises';
 import { and, eq, inArray, sql } from 'drizzle-orm';
 import type { Deps } from '../../deps';
@@ -39,19 +41,39 @@ function pendingOf(db: Deps['db']) {
 /**
  * Young-generation sizes of the two import threads (V8's default is about 48 MB each). Their rows
  * die young (64 KiB chunks, 1,024-row batches), so smaller ones cost little time and keep the
- * server's peak RSS under 350 MB while a 1,000,000-row log is imported (tests/bench/ingest.bench.ts;
- * the writer at 6 MB was markedly slower, at 16 MB somewhat; 32 MB kept the ratio and the RSS target).
+ * server's peak RSS under 350 MB while a 1,000,000-row log is imported (tests/bench/ingest.bench.ts:
+ * the parse thread at 12 MB spent about a fifth of its time collecting, at 24 to 48 MB a tenth;
+ * the writer at 6 MB was markedly slower, at 16 MB somewhat).
  */
-const PARSE_YOUNG_GENERATION_MB = 12;
+const PARSE_YOUNG_GENERATION_MB = 24;
 const WRITER_YOUNG_GENERATION_MB = 32;
 
-function getWorker(): Worker {
+/**
+ * The parse worker's code: import-worker.ts and what it imports bundled into one CommonJS script
+ * (esbuild, once per process), so the thread runs without a TypeScript loader and its hooks thread
+ * under tsx (server), vitest (tests) and the benchmark alike.
+ */
+let workerCode: Promise<string> | null = null;
+function bundledWorkerCode(): Promise<string> {
+  workerCode ??= esbuild.build({
+    entryPoints: [fileURLToPath(new URL('./import-worker.ts', import.meta.url))],
+    bundle: true, platform: 'node', format: 'cjs', target: 'node20', write: false, logLevel: 'silent',
+  }).then((r) => r.outputFiles[0].text, (err: unknown) => {
+    workerCode = null;
+    throw err;
+  });
+  return workerCode;
+}
+
+async function getWorker(): Promise<Worker> {
   if (worker) return worker;
-  // The entry registers the TypeScript loader itself: inheriting the server's --import tsx as well would load it twice.
-  worker = new Worker(new URL('./import-worker-entry.mjs', import.meta.url), { execArgv: [], resourceLimits: { maxYoungGenerationSizeMb: PARSE_YOUNG_GENERATION_MB } });
-  worker.on('exit', () => { worker = null; });
-  worker.unref();
-  return worker;
+  const code = await bundledWorkerCode();
+  if (worker) return worker;
+  worker = new Worker(code, { eval: true, execArgv: [], resourceLimits: { maxYoungGenerationSizeMb: PARSE_YOUNG_GENERATION_MB } });
+  const w = worker;
+  w.on('exit', () => { if (worker === w) worker = null; });
+  w.unref();
+  return w;
 }
 
 /** Writer threads by database file; an in-memory database (tests) is written on the main thread. */
@@ -114,20 +136,21 @@ function ensureActiveDecode(deps: Deps, job: ImportJob): { decodeId: number; cre
 }
 
 async function runImport(deps: Deps, job: ImportJob): Promise<ImportOutcome> {
+  // First, so a worker that cannot start leaves nothing behind to undo.
+  const w = await getWorker();
   const { decodeId, created } = ensureActiveDecode(deps, job);
   deps.db.update(logImports).set({ status: 'running', progress: 0 }).where(eq(logImports.id, job.importId)).run();
   const target = { importId: job.importId, surveyId: job.surveyId, decodeId };
   const writer = getWriter(deps);
   const write = writer ? null : createBatchWriter(deps.db.$client, target);
   const calibration = loadDecodingCalibration(deps.db, job.organizationId);
-  const w = getWorker();
   w.ref();
   writer?.ref();
   let lastProgressWrite = 0;
   const end = await new Promise<Extract<WorkerToMain, { type: 'end' }> | { type: 'crash'; message: string }>((resolve) => {
     const onMessage = (m: WorkerToMain) => {
       if (m.type === 'batch') {
-        write!(m.samples, m.readings);
+        write!(m.batch);
         w.postMessage({ type: 'ack' });
       } else if (m.type === 'progress') {
         const now = Date.now();
@@ -187,7 +210,7 @@ async function runImport(deps: Deps, job: ImportJob): Promise<ImportOutcome> {
 }
 
 /** Deletes in slices so a large rejected file never blocks the event loop for long. */
-async function deleteInSlices(deps: Deps, table: 'samples' | 'readings', where: string, params: unknown[]) {
+async function deleteInSlices(deps: Deps, table: 'sample_blocks' | 'readings', where: string, params: unknown[]) {
   const stmt = deps.db.$client.prepare(`delete from ${table} where rowid in (select rowid from ${table} where ${where} limit 5000)`);
   while (stmt.run(params).changes > 0) await yieldToEventLoop();
 }
@@ -198,7 +221,7 @@ async function deleteInSlices(deps: Deps, table: 'samples' | 'readings', where: 
  */
 export async function failImport(deps: Deps, job: ImportJob, decode: { decodeId: number; created: boolean } | null, errors: ImportProblem[], warnings: ImportWarning[], rowsRead: number, errorCount = errors.length): Promise<ImportOutcome> {
   await deleteInSlices(deps, 'readings', 'import_id = ?', [job.importId]);
-  await deleteInSlices(deps, 'samples', 'import_id = ?', [job.importId]);
+  await deleteInSlices(deps, 'sample_blocks', 'import_id = ?', [job.importId]);
   const reported: (ImportProblem | { line: number; column: string; value: string; message: string })[] = [...errors];
   if (errorCount > errors.length) reported.push({ line: 0, column: '', value: '', message: `${errorCount - errors.length} more problems were found and not listed` });
   deps.db.transaction((tx) => {

@@ -6,9 +6,10 @@
 import { parentPort, type MessagePort } from 'node:worker_threads';
 import { parseLogFile, type ParseLogInput, type WorkerToMain } from './log-parser';
 import type { BatchProgress } from './batch-writer.mjs';
+import { transferOf, type Batch } from './batch-format.mjs';
 
 /** The messages of import-writer.mjs's port. */
-type WriterBatch = { type: 'batch'; samples: unknown[]; readings: unknown[]; progress?: BatchProgress };
+type WriterBatch = { type: 'batch'; batch: Batch; progress?: BatchProgress };
 type WriterAck = { type: 'ack'; error?: string };
 
 if (!parentPort) throw new Error('import-worker.ts must run in a worker thread');
@@ -52,8 +53,9 @@ port.on('message', (msg: Start | { type: 'ack' }) => {
     post: (m: WorkerToMain) => {
       if (m.type === 'batch') {
         sent++;
-        if (writer) writer.postMessage({ type: 'batch', samples: m.samples, readings: m.readings, progress } satisfies WriterBatch);
-        else port.postMessage(m);
+        // Transferred, not copied: the arrays belong to the receiver from here on.
+        if (writer) writer.postMessage({ type: 'batch', batch: m.batch, progress } satisfies WriterBatch, transferOf(m.batch));
+        else port.postMessage(m, transferOf(m.batch));
       } else if (m.type === 'progress') {
         // The writer records progress with the next batch; without one the main thread does.
         if (writer) progress = { progress: msg.fileSize > 0 ? Math.min(0.99, m.bytesRead / msg.fileSize) : 0, rowsRead: m.rowsRead };

@@ -1,7 +1,7 @@
 // The import's writes, in their own thread with their own SQLite connection (file databases only),
 // so neither the inserts nor the WAL checkpoints they trigger ever hold up the server's event loop.
 // Batches arrive straight from the parse worker over a MessagePort as
-// { type: 'batch', samples, readings, progress? }; each is answered { type: 'ack', error? } once
+// { type: 'batch', batch, progress? } (batch-format.mjs); each is answered { type: 'ack', error? } once
 // committed (the parse worker keeps at most two in flight and waits for all before it ends).
 // Plain JavaScript, started without the TypeScript loader.
 import { parentPort, workerData } from 'node:worker_threads';
@@ -26,7 +26,7 @@ parentPort.on('message', (msg) => {
       return;
     }
     try {
-      write(m.samples, m.readings, m.progress);
+      write(m.batch, m.progress);
       port.postMessage({ type: 'ack' });
     } catch (err) {
       port.postMessage({ type: 'ack', error: err instanceof Error ? err.message : String(err) });

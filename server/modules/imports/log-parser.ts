@@ -4,7 +4,7 @@ import type { DecodingCalibration } from '../probes/probe-calibration';
 import { createLogDecoder, type DecodedReading, type LogSample, type SampleProblem } from './log-decoder';
 import { createTimestampParser } from './log-time';
 import { encodeBudget } from '../readings/stored-budget';
-import { SAMPLE_WIDTH } from './batch-writer.mjs';
+import { createBatchBuilder, type Batch } from './batch-format.mjs';
 
 /** The log format's columns (README, "Survey logs and the log format"). */
 export const LOG_COLUMNS = ['timestamp', 'probe', 'point', 'gain', 'counts', 'ma', 'volts', 'x_m', 'y_m', 'plan', 'int_ms', 'temp_c', 'role', 'note'] as const;
@@ -20,7 +20,7 @@ export type ImportWarning = { line: number | null; column: string | null; messag
 
 
 export type WorkerToMain =
-  | { type: 'batch'; samples: unknown[]; readings: unknown[] }
+  | { type: 'batch'; batch: Batch }
   | { type: 'progress'; bytesRead: number; rowsRead: number }
   | { type: 'end'; rowsRead: number; readingCount: number; warnings: ImportWarning[]; errors: ImportProblem[]; errorCount: number }
   | { type: 'crash'; message: string };
@@ -103,12 +103,11 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
   const parseTime = createTimestampParser(input.timeZone);
   const batchRows = input.batchRows ?? BATCH_ROWS;
 
-  let samples: unknown[] = [];
-  let readings: unknown[] = [];
+  const batch = createBatchBuilder(batchRows * 2);
   const decoder = createLogDecoder(input.calibration, (r: DecodedReading) => {
     readingCount++;
     if (errorCount > 0) return;
-    readings.push(r.point, r.xM, r.yM, r.planId, r.role, r.timeMs, r.probeId, r.lux, r.uLux, r.luxBound, r.flag, r.gainCode, r.samples, r.chosenSample, r.coefficientSetId, encodeBudget(r.budget), r.note);
+    batch.addReading(r, encodeBudget(r.budget));
   }, addError);
 
   const col: Record<Column, number> = Object.fromEntries(LOG_COLUMNS.map((c) => [c, -1])) as Record<Column, number>;
@@ -125,8 +124,9 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
   // Rows naming no plan: the upload's choice, else the site's only plan (for positioned rows).
   const onlyPlanId = input.plans.length === 1 ? input.plans[0].id : null;
 
-  const num = (row: string[], c: Column, line: number): number | undefined | null => {
-    const i = col[c];
+  /** Column positions fixed once the header is read; row code reads them by name (a fixed-shape object, not a keyed lookup per field). */
+  let at = { ...col };
+  const num = (row: string[], i: number, c: Column, line: number): number | undefined | null => {
     if (i < 0 || i >= row.length) return undefined;
     let v = row[i].trim();
     if (v === '') return undefined;
@@ -144,7 +144,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     }
     return Number(v);
   };
-  const text = (row: string[], c: Column) => (col[c] >= 0 && col[c] < row.length ? row[col[c]].trim() : '');
+  const text = (row: string[], i: number) => (i >= 0 && i < row.length ? row[i].trim() : '');
 
   function readHeader(row: string[]): boolean {
     headerWidth = row.length;
@@ -164,6 +164,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
       const missing = col.x_m < 0 ? 'x_m' : 'y_m';
       addError({ line: 1, column: missing, value: '', message: `The header has ${missing === 'x_m' ? 'y_m' : 'x_m'} but no ${missing}: give both plan coordinates or neither` });
     }
+    at = { ...col };
     return errorCount === 0;
   }
 
@@ -176,28 +177,28 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
       return addError({ line, column: '', value: row.join(delimiter), message: `The row has ${row.length} fields but the header has ${headerWidth}` });
     }
     const before = errorCount;
-    const ts = text(row, 'timestamp');
-    const probe = text(row, 'probe');
-    const point = text(row, 'point');
+    const ts = text(row, at.timestamp);
+    const probe = text(row, at.probe);
+    const point = text(row, at.point);
     const timeMs = ts === '' ? null : parseTime(ts);
     if (ts === '') addError({ line, column: 'timestamp', value: '', message: 'timestamp is empty' });
     else if (timeMs === null) addError({ line, column: 'timestamp', value: ts, message: `timestamp "${ts}" is not an ISO 8601 time such as 2026-11-20T09:15:00 or 2026-11-20T09:15:00+01:00` });
     if (probe === '') addError({ line, column: 'probe', value: '', message: 'probe is empty: give the probe\'s serial' });
     if (point === '') addError({ line, column: 'point', value: '', message: 'point is empty: give the point\'s label' });
     else if (point.length > MAX_POINT_LENGTH) addError({ line, column: 'point', value: point.slice(0, 40), message: `point label is longer than ${MAX_POINT_LENGTH} characters` });
-    const gainCode = num(row, 'gain', line);
-    const counts = num(row, 'counts', line);
-    const ma = num(row, 'ma', line);
-    const volts = num(row, 'volts', line);
-    const intMs = num(row, 'int_ms', line);
-    const tempC = num(row, 'temp_c', line);
-    const xM = num(row, 'x_m', line);
-    const yM = num(row, 'y_m', line);
+    const gainCode = num(row, at.gain, 'gain', line);
+    const counts = num(row, at.counts, 'counts', line);
+    const ma = num(row, at.ma, 'ma', line);
+    const volts = num(row, at.volts, 'volts', line);
+    const intMs = num(row, at.int_ms, 'int_ms', line);
+    const tempC = num(row, at.temp_c, 'temp_c', line);
+    const xM = num(row, at.x_m, 'x_m', line);
+    const yM = num(row, at.y_m, 'y_m', line);
     if ((xM === undefined) !== (yM === undefined) && xM !== null && yM !== null) {
       const missing = xM === undefined ? 'x_m' : 'y_m';
       addError({ line, column: missing, value: '', message: `${missing === 'x_m' ? 'y_m' : 'x_m'} is given but ${missing} is empty: give both plan coordinates or neither` });
     }
-    const planText = text(row, 'plan');
+    const planText = text(row, at.plan);
     let planId: number | null = null;
     if (planText !== '') {
       const found = planByName.get(planText.toLowerCase());
@@ -207,10 +208,10 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
         addError({ line, column: 'plan', value: planText, message: `plan "${planText}" names more than one plan of this site: rename one of them` });
       } else planId = found;
     } else planId = input.defaultPlanId ?? (xM !== undefined && xM !== null ? onlyPlanId : null);
-    const roleText = text(row, 'role').toLowerCase();
-    if (roleText !== '' && roleText !== 'task' && roleText !== 'reference') addError({ line, column: 'role', value: text(row, 'role'), message: 'role must be task or reference' });
+    const roleText = text(row, at.role).toLowerCase();
+    if (roleText !== '' && roleText !== 'task' && roleText !== 'reference') addError({ line, column: 'role', value: text(row, at.role), message: 'role must be task or reference' });
     if (errorCount > before) return;
-    const note = text(row, 'note');
+    const note = text(row, at.note);
     const sample: LogSample = {
       line, timeMs: timeMs!, probe, point,
       gainCode: gainCode ?? undefined, counts: counts ?? undefined, ma: ma ?? undefined, volts: volts ?? undefined,
@@ -224,23 +225,19 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     }
     decoder.push(sample);
     if (errorCount > before || errorCount > 0) return;
-    samples.push(line, sample.timeMs, cal!.probeId, point, sample.gainCode ?? null, sample.counts ?? null, sample.ma ?? null, sample.volts ?? null,
-      sample.intMs ?? null, sample.tempC ?? null, sample.xM, sample.yM, sample.planId, sample.role, sample.note);
+    batch.addSample(sample, cal!.probeId);
   }
 
   const flush = () => {
-    if (errorCount > 0) {
-      samples = [];
-      readings = [];
-      return;
-    }
-    if (samples.length === 0 && readings.length === 0) return;
-    sink.post({ type: 'batch', samples, readings });
-    samples = [];
-    readings = [];
+    if (errorCount > 0) return batch.clear();
+    if (batch.sampleRows === 0 && batch.readingRows === 0) return;
+    sink.post({ type: 'batch', batch: batch.take() });
   };
 
   const stream = fs.createReadStream(input.filePath, { encoding: 'utf8', highWaterMark: STREAM_CHUNK_BYTES });
+  // A field spans lines only inside quotes: until the file shows a quote, no row needs the per-field scan.
+  let quoteSeen = false;
+  stream.on('data', (d) => { if (!quoteSeen && d.includes('"')) quoteSeen = true; });
   await new Promise<void>((resolve, reject) => {
     Papa.parse<string[]>(stream as unknown as File, {
       delimiter,
@@ -250,7 +247,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
         for (const row of results.data) {
           const line = nextLine;
           nextLine++;
-          for (const f of row) if (f.length > 0 && f.includes('\n')) nextLine += f.split('\n').length - 1;
+          if (quoteSeen) for (const f of row) if (f.length > 0 && f.includes('\n')) nextLine += f.split('\n').length - 1;
           if (!headerDone) {
             headerDone = true;
             if (!readHeader(row)) {
@@ -265,7 +262,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
         for (const e of results.errors) {
           if (e.type === 'Quotes') addError({ line: nextLine, column: '', value: '', message: `A quoted field is not closed (${e.message})` });
         }
-        if (samples.length >= batchRows * SAMPLE_WIDTH || errorCount > 0) flush();
+        if (batch.sampleRows >= batchRows || errorCount > 0) flush();
         sink.post({ type: 'progress', bytesRead: stream.bytesRead, rowsRead });
         // Hold both the parser and the file stream until the writer has caught up.
         parser.pause();

@@ -1,7 +1,7 @@
 import { setImmediate as yieldToEventLoop } from 'node:timers/promises';
-import { and, asc, eq, gt, inArray, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import type { Deps } from '../../deps';
-import { decodes, logImports, readings, samples, surveys } from '../../db/schema/surveys';
+import { decodes, logImports, readings, surveys } from '../../db/schema/surveys';
 import { coefficientSets } from '../../db/schema/calibration';
 import type { SessionUser } from '@shared/schemas/auth';
 import type { RedecodeResponse } from '@shared/schemas/readings';
@@ -11,9 +11,8 @@ import { recordAudit } from '../audit/audit-service';
 import { getSurveyRow } from '../surveys/surveys-service';
 import { createLogDecoder, type DecodedReading, type SampleProblem } from './log-decoder';
 import { surveysBeingRedecoded } from './imports-service';
+import { pagesOfSamples } from './sample-blocks';
 import { encodeBudget } from '../readings/stored-budget';
-
-const PAGE = 5000;
 
 /**
  * Re-decodes every kept sample of a survey's accepted imports with the approved coefficient sets
@@ -44,10 +43,7 @@ export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: n
     for (const imp of imports) {
       let out: DecodedReading[] = [];
       const decoder = createLogDecoder(calibration, (r) => out.push(r), (p) => { if (problems.length < 200) problems.push(p); });
-      let lastId = 0;
-      for (;;) {
-        const page = deps.db.select().from(samples).where(and(eq(samples.importId, imp.id), gt(samples.id, lastId))).orderBy(asc(samples.id)).limit(PAGE).all();
-        if (page.length === 0) break;
+      for (const page of pagesOfSamples(deps.db, imp.id)) {
         for (const s of page) {
           decoder.push({
             line: s.line, timeMs: s.timeMs, probe: serialOf.get(s.probeId) ?? `#${s.probeId}`, point: s.point,
@@ -55,7 +51,6 @@ export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: n
             intMs: s.intMs ?? undefined, tempC: s.tempC ?? undefined, xM: s.xM, yM: s.yM, planId: s.planId, role: s.role, note: s.note,
           });
         }
-        lastId = page[page.length - 1].id;
         if (problems.length === 0) writeMany(imp.id, out);
         count += out.length;
         out = [];

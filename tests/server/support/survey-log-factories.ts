@@ -5,6 +5,8 @@ import { coefficientSets, probes } from '@server/db/schema/calibration';
 import { DEMO_ANALOG_PROBE, DEMO_COUNTING_PROBES, type DemoCountingProbe } from '@server/db/demo/demo-probes';
 import { simulateDemoWalk, toLogCsv, type SimRow } from '@server/db/demo/simulate-log';
 import { waitForImport } from '@server/modules/imports/imports-service';
+import { pagesOfSamples, type StoredSample } from '@server/modules/imports/sample-blocks';
+import { logImports } from '@server/db/schema/surveys';
 
 const DAY = 86_400_000;
 
@@ -82,6 +84,12 @@ export async function uploadAndWait(t: TestApp, c: TestClient, surveyId: number,
 export function tableCounts(t: TestApp): Record<string, number> {
   const tables = t.db.$client.prepare("select name from sqlite_master where type = 'table' and name not like 'sqlite_%' and name not like '__drizzle%'").all() as { name: string }[];
   return Object.fromEntries(tables.map(({ name }) => [name, (t.db.$client.prepare(`select count(*) as n from "${name}"`).get() as { n: number }).n]));
+}
+
+/** Every sample a survey's imports keep, in import then file order, unpacked from their blocks. */
+export function keptSamples(t: TestApp, surveyId: number): StoredSample[] {
+  const imports = t.db.select({ id: logImports.id }).from(logImports).where(eq(logImports.surveyId, surveyId)).orderBy(logImports.id).all();
+  return imports.flatMap((imp) => [...pagesOfSamples(t.db, imp.id)].flat());
 }
 
 export const countOf = (t: TestApp, table: string) => t.db.get<{ n: number }>(sql.raw(`select count(*) as n from ${table}`)).n;
