@@ -6,9 +6,10 @@ import { drizzle } from 'drizzle-orm/better-sqlite3';
 import { migrate } from 'drizzle-orm/better-sqlite3/migrator';
 import { describe, it, expect, afterAll } from 'vitest';
 import { schema, type Db } from '@server/db/client';
-import { budgetsOf, createBatchBuilder, fillReadingValues, unpackF64Block, READING_WIDTH, SAMPLE_WIDTH } from '@server/modules/imports/batch-format.mjs';
+import { createBatchBuilder, fillReadingValues, unpackF64Block, READING_WIDTH, SAMPLE_WIDTH } from '@server/modules/imports/batch-format.mjs';
 import { pagesOfSamples, unpackSampleBlock } from '@server/modules/imports/sample-blocks';
 import type { DecodedReading, LogSample } from '@server/modules/imports/log-decoder';
+import { encodeBudget } from '@server/modules/readings/stored-budget.mjs';
 
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'luxtrail-blocks-'));
 afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));
@@ -41,28 +42,30 @@ describe('batch format: how accepted rows travel between threads and are kept', 
     expect(b.take()).toMatchObject({ sampleRows: 0, readingRows: 0, strings: [] });
   });
 
-  it('readings, through a batch, become the readings insert\'s values in its column order, nulls for nothing', () => {
+  it('readings, through a batch, become the readings insert\'s values in its column order, nulls for nothing, the budget as encodeBudget stores it', () => {
     const b = createBatchBuilder();
+    const counting = [{ name: 'calibration', uRel: 0.021 }, { name: 'quantisation', uRel: 0.000123456789012345 }, { name: 'dark_offset', uRel: 0.0031 }, { name: 'temperature', uRel: 0.0047 }] as const;
+    const analog = [{ name: 'calibration', uRel: 0.015 }, { name: 'transmitter', uRel: 0.0025 }] as const;
     const r: DecodedReading = {
       probeId: 7, point: 'C-3', xM: 12.5, yM: 8, planId: null, role: 'task', note: 'under the stair', timeMs: 1_795_000_000_123,
-      lux: null, uLux: null, luxBound: 'lower', flag: 'over_range', gainCode: 0, samples: 4, chosenSample: null, coefficientSetId: 3, budget: [],
+      lux: null, uLux: null, luxBound: 'lower', flag: 'over_range', gainCode: 0, samples: 4, chosenSample: null, coefficientSetId: 3, budget: [...counting],
     };
-    b.addReading(r, '{"c":0.02}');
-    b.addReading({ ...r, point: 'C-4', lux: 512.25, uLux: 20.5, luxBound: 'exact', flag: 'ok', chosenSample: 2, note: null }, '{"c":0.02,"q":0.0001}');
+    b.addReading(r);
+    b.addReading({ ...r, point: 'C-4', lux: 512.25, uLux: 20.5, luxBound: 'exact', flag: 'ok', gainCode: null, chosenSample: 2, note: null, budget: [...analog, { name: 'temperature', uRel: Number.NaN }] });
     const batch = b.take();
     expect(batch.readings).toHaveLength(2 * READING_WIDTH);
     const out: unknown[] = [];
-    expect(fillReadingValues(batch, budgetsOf(batch), 0, 2, out)).toBe(34);
-    expect(out.slice(0, 17)).toEqual(['C-3', 12.5, 8, null, 'task', 1_795_000_000_123, 7, null, null, 'lower', 'over_range', 0, 4, null, 3, '{"c":0.02}', 'under the stair']);
-    expect(out.slice(17)).toEqual(['C-4', 12.5, 8, null, 'task', 1_795_000_000_123, 7, 512.25, 20.5, 'exact', 'ok', 0, 4, 2, 3, '{"c":0.02,"q":0.0001}', null]);
+    expect(fillReadingValues(batch, 0, 2, out)).toBe(34);
+    expect(out.slice(0, 17)).toEqual(['C-3', 12.5, 8, null, 'task', 1_795_000_000_123, 7, null, null, 'lower', 'over_range', 0, 4, null, 3, encodeBudget(counting), 'under the stair']);
+    expect(out.slice(17)).toEqual(['C-4', 12.5, 8, null, 'task', 1_795_000_000_123, 7, 512.25, 20.5, 'exact', 'ok', null, 4, 2, 3, encodeBudget(analog), null]);
   });
 
-  it('refuses what it cannot carry: an unknown role or flag, a budget with a line break', () => {
+  it('refuses what it cannot carry: an unknown role, flag or budget part', () => {
     const b = createBatchBuilder();
     expect(() => b.addSample(sample({ role: 'ceiling' as never }), 1)).toThrow(/unknown role "ceiling"/);
     const r = { probeId: 1, point: 'A', xM: null, yM: null, planId: null, role: 'task', note: null, timeMs: 0, lux: 1, uLux: 0.1, luxBound: 'exact', flag: 'dim', gainCode: 1, samples: 1, chosenSample: 0, coefficientSetId: 1, budget: [] };
-    expect(() => b.addReading(r as never, '{}')).toThrow(/unknown flag "dim"/);
-    expect(() => b.addReading({ ...r, flag: 'ok' } as never, '{\n}')).toThrow(/line break/);
+    expect(() => b.addReading(r as never)).toThrow(/unknown flag "dim"/);
+    expect(() => b.addReading({ ...r, flag: 'ok', budget: [{ name: 'wind', uRel: 0.1 }] } as never)).toThrow(/unknown budget part "wind"/);
   });
 
   it('a damaged block fails naming the block and what is wrong, never returning made-up samples', () => {

@@ -8,7 +8,7 @@ import { createZoneAssigner, type ZoneKind } from '@shared/spatial/zone-assignme
 import type { PlanPoint } from '@shared/spatial/polygon';
 import type { TargetConfidence } from '@shared/schemas/targets';
 import type { ZoneCompliance, ZoneVerdict } from '@shared/schemas/compliance';
-import { decodeBudget } from '../readings/stored-budget';
+import { decodeBudget } from '../readings/stored-budget.mjs';
 
 /** Fewer valid points than this give no uniformity worth judging: the zone is not assessed (project's own choice). */
 export const MIN_ASSESSABLE_POINTS = 3;

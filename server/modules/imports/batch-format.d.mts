@@ -3,7 +3,7 @@ import type { LogSample, DecodedReading } from './log-decoder';
 export const SAMPLE_SLOTS: readonly string[];
 export const READING_SLOTS: readonly string[];
 export const SAMPLE_WIDTH: 15;
-export const READING_WIDTH: 16;
+export const READING_WIDTH: 21;
 export const ROLES: readonly ['task', 'reference'];
 export const LUX_BOUNDS: readonly ['exact', 'lower', 'upper'];
 export const FLAGS: readonly ['ok', 'over_range', 'under_range', 'fault', 'calibration_lapsed', 'low_confidence'];
@@ -15,14 +15,13 @@ export type Batch = {
   samples: Float64Array;
   readings: Float64Array;
   strings: string[];
-  budgets: string;
 };
 
 export type BatchBuilder = {
   readonly sampleRows: number;
   readonly readingRows: number;
   addSample(s: LogSample, probeId: number): void;
-  addReading(r: DecodedReading, budget: string): void;
+  addReading(r: DecodedReading): void;
   take(): Batch;
   clear(): void;
 };
@@ -37,6 +36,5 @@ export type StoredSample = {
 
 export function createBatchBuilder(capacityRows?: number): BatchBuilder;
 export function transferOf(batch: Batch): ArrayBuffer[];
-export function budgetsOf(batch: Batch): string[];
-export function fillReadingValues(batch: Batch, budgets: string[], from: number, to: number, out: unknown[]): number;
+export function fillReadingValues(batch: Batch, from: number, to: number, out: unknown[]): number;
 export function unpackF64Block(data: Uint8Array, strings: readonly string[], rowCount: number): StoredSample[];

@@ -4,11 +4,14 @@
 // not copied, between threads, and a batch's sample array is stored as it is (a sample block),
 // so neither thread spends time cloning or re-encoding millions of values.
 // Plain JavaScript for the writer thread (no TypeScript loader there); types in batch-format.d.mts.
+import { BUDGET_PARTS, encodeBudgetSlots } from '../readings/stored-budget.mjs';
 
 /** A sample's slots in a batch's samples array and in a stored block. */
 export const SAMPLE_SLOTS = ['line', 'timeMs', 'probeId', 'point', 'gainCode', 'counts', 'ma', 'volts', 'intMs', 'tempC', 'xM', 'yM', 'planId', 'role', 'note'];
-/** A reading's slots in a batch's readings array; its budget is in the batch's budgets text. */
-export const READING_SLOTS = ['point', 'xM', 'yM', 'planId', 'role', 'timeMs', 'probeId', 'lux', 'uLux', 'luxBound', 'flag', 'gainCode', 'samples', 'chosenSample', 'coefficientSetId', 'note'];
+/** A reading's slots in a batch's readings array: its budget last, one uRel per BUDGET_PARTS entry. */
+export const READING_SLOTS = ['point', 'xM', 'yM', 'planId', 'role', 'timeMs', 'probeId', 'lux', 'uLux', 'luxBound', 'flag', 'gainCode', 'samples', 'chosenSample', 'coefficientSetId', 'note',
+  ...BUDGET_PARTS.map((name) => `budget.${name}`)];
+const BUDGET_SLOT = READING_SLOTS.indexOf(`budget.${BUDGET_PARTS[0]}`);
 export const SAMPLE_WIDTH = SAMPLE_SLOTS.length;
 export const READING_WIDTH = READING_SLOTS.length;
 
@@ -16,9 +19,6 @@ export const READING_WIDTH = READING_SLOTS.length;
 export const ROLES = ['task', 'reference'];
 export const LUX_BOUNDS = ['exact', 'lower', 'upper'];
 export const FLAGS = ['ok', 'over_range', 'under_range', 'fault', 'calibration_lapsed', 'low_confidence'];
-
-/** A budget never holds a line break, so one text with one budget per line carries a batch's. */
-const BUDGET_SEPARATOR = '\n';
 
 const codeOf = (list, value, what) => {
   const i = list.indexOf(value);
@@ -36,7 +36,6 @@ export function createBatchBuilder(capacityRows = 2048) {
   let readingRows = 0;
   let strings = [];
   let indexOfString = new Map();
-  let budgets = [];
 
   const stringIndex = (s) => {
     if (s === null || s === undefined) return NaN;
@@ -79,8 +78,8 @@ export function createBatchBuilder(capacityRows = 2048) {
       samples[o] = stringIndex(s.note);
       sampleRows++;
     },
-    /** r: a DecodedReading; budget: its stored budget text (encodeBudget). */
-    addReading(r, budget) {
+    /** r: a DecodedReading. */
+    addReading(r) {
       readings = grow(readings, (readingRows + 1) * READING_WIDTH);
       let o = readingRows * READING_WIDTH;
       readings[o++] = stringIndex(r.point);
@@ -99,23 +98,22 @@ export function createBatchBuilder(capacityRows = 2048) {
       readings[o++] = orNaN(r.chosenSample);
       readings[o++] = orNaN(r.coefficientSetId);
       readings[o] = stringIndex(r.note);
-      if (budget.includes(BUDGET_SEPARATOR)) throw new Error('batch: a budget holds a line break');
-      budgets.push(budget);
+      readings.fill(NaN, o + 1, o + 1 + BUDGET_PARTS.length);
+      for (const part of r.budget) readings[o + 1 + codeOf(BUDGET_PARTS, part.name, 'budget part')] = part.uRel;
       readingRows++;
     },
-    /** The batch so far, its arrays trimmed to length (transfer list: `transfer`); the builder starts empty. */
+    /** The batch so far, its arrays trimmed to length (transferOf gives the transfer list); the builder starts empty. */
     take() {
       const batch = {
         sampleRows, readingRows,
         samples: samples.slice(0, sampleRows * SAMPLE_WIDTH),
         readings: readings.slice(0, readingRows * READING_WIDTH),
-        strings, budgets: budgets.join(BUDGET_SEPARATOR),
+        strings,
       };
       sampleRows = 0;
       readingRows = 0;
       strings = [];
       indexOfString = new Map();
-      budgets = [];
       return batch;
     },
     /** Drops what was collected (a file with errors is not written). */
@@ -124,7 +122,6 @@ export function createBatchBuilder(capacityRows = 2048) {
       readingRows = 0;
       strings = [];
       indexOfString = new Map();
-      budgets = [];
     },
   };
 }
@@ -134,14 +131,11 @@ export const transferOf = (batch) => [batch.samples.buffer, batch.readings.buffe
 
 const valueOrNull = (x) => (x === x ? x : null);
 
-/** A batch's budgets, one per reading. */
-export const budgetsOf = (batch) => (batch.readingRows === 0 ? [] : batch.budgets.split(BUDGET_SEPARATOR));
-
 /**
  * Writes readings from..to-1 of a batch into out as SQL values in the readings insert's order
- * (READING_SLOTS with the budget before the note); returns the number of values written.
+ * (READING_SLOTS, the budget slots made its stored text, before the note); returns the number of values written.
  */
-export function fillReadingValues(batch, budgets, from, to, out) {
+export function fillReadingValues(batch, from, to, out) {
   const { readings, strings } = batch;
   let k = 0;
   for (let r = from; r < to; r++) {
@@ -161,7 +155,7 @@ export function fillReadingValues(batch, budgets, from, to, out) {
     out[k++] = readings[o + 12];
     out[k++] = valueOrNull(readings[o + 13]);
     out[k++] = valueOrNull(readings[o + 14]);
-    out[k++] = budgets[r];
+    out[k++] = encodeBudgetSlots(readings, o + BUDGET_SLOT);
     const note = readings[o + 15];
     out[k++] = note === note ? strings[note] : null;
   }

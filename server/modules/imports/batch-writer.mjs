@@ -2,7 +2,7 @@
 // sample_blocks row (the batch's Float64Array stored as it is) and its readings through prepared
 // multi-row INSERTs. Plain JavaScript so the writer thread runs without the TypeScript loader;
 // types in batch-writer.d.mts. The main thread uses it too, for an in-memory database.
-import { budgetsOf, fillReadingValues } from './batch-format.mjs';
+import { fillReadingValues } from './batch-format.mjs';
 
 /** Values per reading in the readings insert (the column list below, after the inlined ids). */
 const READING_VALUES = 17;
@@ -25,14 +25,13 @@ export function createBatchWriter(client, target) {
       const { samples } = batch;
       blockStmt.run(samples[0], batch.sampleRows, JSON.stringify(batch.strings), Buffer.from(samples.buffer, samples.byteOffset, samples.byteLength));
     }
-    const budgets = budgetsOf(batch);
     let r = 0;
     for (; r + MULTI_ROWS <= batch.readingRows; r += MULTI_ROWS) {
-      fillReadingValues(batch, budgets, r, r + MULTI_ROWS, many);
+      fillReadingValues(batch, r, r + MULTI_ROWS, many);
       readingMany.run(many);
     }
     for (; r < batch.readingRows; r++) {
-      fillReadingValues(batch, budgets, r, r + 1, one);
+      fillReadingValues(batch, r, r + 1, one);
       readingOne.run(one);
     }
     if (progress) progressStmt.run(progress.progress, progress.rowsRead);

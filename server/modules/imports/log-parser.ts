@@ -3,7 +3,6 @@ import Papa from 'papaparse';
 import type { DecodingCalibration } from '../probes/probe-calibration';
 import { createLogDecoder, type DecodedReading, type LogSample, type SampleProblem } from './log-decoder';
 import { createTimestampParser } from './log-time';
-import { encodeBudget } from '../readings/stored-budget';
 import { createBatchBuilder, type Batch } from './batch-format.mjs';
 
 /** The log format's columns (README, "Survey logs and the log format"). */
@@ -48,6 +47,35 @@ const STREAM_CHUNK_BYTES = 64 * 1024;
 const BATCH_ROWS = 1024;
 
 const NUMBER = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
+
+const POWERS_OF_TEN = Array.from({ length: 16 }, (_, k) => 10 ** k);
+
+/**
+ * A plain decimal ("-12.25", "163", ".5") read without the general string-to-number conversion, or
+ * NaN for anything else (exponent, "+", more than 15 digits: the caller's strict path). With at
+ * most 15 digits the digits form an exact integer and 10^k is exact, so one IEEE division is
+ * correctly rounded: the same double as Number(text) (Clinger's fast path, common practice).
+ */
+export function plainDecimal(text: string): number {
+  let i = 0;
+  const negative = text.charCodeAt(0) === 45;
+  if (negative) i = 1;
+  let mantissa = 0;
+  let digits = 0;
+  let fraction = -1;
+  for (; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c >= 48 && c <= 57) {
+      mantissa = mantissa * 10 + (c - 48);
+      digits++;
+      if (fraction >= 0) fraction++;
+    } else if (c === 46 && fraction < 0) fraction = 0;
+    else return NaN;
+  }
+  if (digits === 0 || digits > 15) return NaN;
+  const value = fraction > 0 ? mantissa / POWERS_OF_TEN[fraction] : mantissa;
+  return negative ? -value : value;
+}
 
 /** Comma, semicolon or tab: whichever occurs most in the header line outside quotes (comma on a tie). */
 export function detectDelimiter(headerLine: string): ',' | ';' | '\t' {
@@ -107,7 +135,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
   const decoder = createLogDecoder(input.calibration, (r: DecodedReading) => {
     readingCount++;
     if (errorCount > 0) return;
-    batch.addReading(r, encodeBudget(r.budget));
+    batch.addReading(r);
   }, addError);
 
   const col: Record<Column, number> = Object.fromEntries(LOG_COLUMNS.map((c) => [c, -1])) as Record<Column, number>;
@@ -131,13 +159,8 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     let v = row[i].trim();
     if (v === '') return undefined;
     if (decimalComma) v = v.replace(',', '.');
-    // Fast path for plain decimals (digits, sign, point); anything else goes through the strict pattern.
-    const c0 = v.charCodeAt(0);
-    const c1 = v.length > 1 ? v.charCodeAt(1) : 48;
-    if (((c0 >= 48 && c0 <= 57) || c0 === 45 || c0 === 46) && ((c1 >= 48 && c1 <= 57) || c1 === 46)) {
-      const n = +v;
-      if (n === n) return n;
-    }
+    const n = plainDecimal(v);
+    if (n === n) return n;
     if (!NUMBER.test(v)) {
       addError({ line, column: c, value: row[i], message: `${c} "${row[i]}" is not a number${decimalComma ? ' (with semicolons, write decimals as 12,5 or 12.5)' : ''}` });
       return null;

@@ -49,17 +49,19 @@ export function createTimestampParser(timeZone: string): (text: string) => numbe
     if (text.length === 20 || text.length === 24) {
       const last = text.charCodeAt(text.length - 1);
       if (last === 90 && text.charCodeAt(10) === 84 && text.charCodeAt(13) === 58 && text.charCodeAt(16) === 58 && (text.length === 20 || text.charCodeAt(19) === 46)) {
-        if (!text.startsWith(lastDay) || lastDay === '') {
+        let sameDay = lastDay !== '' && text.startsWith(lastDay);
+        if (!sameDay) {
           const y = digits(text, 0, 4), mo = digits(text, 5, 2), d = digits(text, 8, 2);
           if (y >= 0 && mo >= 1 && mo <= 12 && d >= 1 && text.charCodeAt(4) === 45 && text.charCodeAt(7) === 45) {
             const ms = Date.UTC(y, mo - 1, d);
             if (new Date(ms).getUTCDate() === d) {
               lastDay = text.slice(0, 11);
               lastDayMs = ms;
+              sameDay = true;
             }
           }
         }
-        if (lastDay !== '' && text.startsWith(lastDay)) {
+        if (sameDay) {
           const h = digits(text, 11, 2), mi = digits(text, 14, 2), sec = digits(text, 17, 2), frac = text.length === 24 ? digits(text, 20, 3) : 0;
           if (h >= 0 && h <= 23 && mi >= 0 && mi <= 59 && sec >= 0 && sec <= 59 && frac >= 0) return lastDayMs + h * 3600_000 + mi * 60_000 + sec * 1000 + frac;
         }

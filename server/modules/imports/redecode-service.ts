@@ -12,7 +12,7 @@ import { getSurveyRow } from '../surveys/surveys-service';
 import { createLogDecoder, type DecodedReading, type SampleProblem } from './log-decoder';
 import { surveysBeingRedecoded } from './imports-service';
 import { pagesOfSamples } from './sample-blocks';
-import { encodeBudget } from '../readings/stored-budget';
+import { encodeBudget } from '../readings/stored-budget.mjs';
 
 /**
  * Re-decodes every kept sample of a survey's accepted imports with the approved coefficient sets

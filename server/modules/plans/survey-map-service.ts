@@ -13,7 +13,7 @@ import { notFound, unprocessable } from '../../http/errors';
 import { siteScope } from '../users/users-service';
 import { findVisiblePlan, planExtent } from './plans-service';
 import { currentReadingConditions } from '../surveys/surveys-service';
-import { decodeBudget } from '../readings/stored-budget';
+import { decodeBudget } from '../readings/stored-budget.mjs';
 
 /** Plan coordinates may sit this far outside the plan's edge (a point on the outer wall). */
 const EDGE_TOLERANCE_M = 0.05;

@@ -11,7 +11,7 @@ import { readingsQuerySchema, type ReadingsQuery } from '@shared/schemas/reading
 import { neutraliseCell } from '@shared/csv-safe';
 import { luxToFootcandles } from '@shared/core/units';
 import { currentReadingConditions, getSurveyRow } from '../surveys/surveys-service';
-import { decodeBudget } from './stored-budget';
+import { decodeBudget } from './stored-budget.mjs';
 
 const columns = {
   id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, planId: readings.planId, role: readings.role, timeMs: readings.timeMs, probe: probes.serial,
