@@ -48,7 +48,10 @@ async function demoIds(page: Page) {
   const site = sites.find((s) => s.name === 'Fernmoor Community Library')!;
   const plans = (await (await page.request.get(`/api/sites/${site.id}/plans`)).json()).items as { id: number; name: string }[];
   const surveys = (await (await page.request.get(`/api/surveys?siteId=${site.id}`)).json()).items as { id: number; name: string; readingCount: number }[];
-  return { site, ground: plans.find((p) => p.name === 'Ground floor')!, autumn: surveys.find((s) => s.name === 'Autumn walk-through 2026')! };
+  return {
+    site, ground: plans.find((p) => p.name === 'Ground floor')!,
+    autumn: surveys.find((s) => s.name === 'Autumn walk-through 2026')!, spring: surveys.find((s) => s.name === 'Spring walk-through 2026')!,
+  };
 }
 
 describe('plans and the survey map in a real browser', () => {
@@ -86,6 +89,70 @@ describe('plans and the survey map in a real browser', () => {
     await zoneForm.getByRole('button', { name: 'Add zone' }).click();
     await page.getByRole('list', { name: 'Zones' }).getByText('Drawn room').waitFor();
     await page.screenshot({ path: path.join(screenshotDir(), 'plan-editor.png') });
+  });
+
+  it('edits a zone by dragging a corner on the map, and the saved outline has the moved corner', async () => {
+    const page = await app.newPage();
+    await signInAs(page, 'surveyor@luxtrail.test');
+    const { site } = await demoIds(page);
+    const headers = { Origin: app.baseUrl };
+    // A 20 m wide plan (800 x 500 px, so 12.5 m high) with one square room, made through the API.
+    const planRes = await page.request.post(`/api/sites/${site.id}/plans`, {
+      headers, multipart: { file: { name: 'edit.png', mimeType: 'image/png', buffer: fs.readFileSync(planImageFile()) }, name: 'E2E outline edit', widthM: '20' },
+    });
+    expect(planRes.status()).toBe(201);
+    const plan = await planRes.json() as { id: number };
+    const zoneRes = await page.request.post(`/api/plans/${plan.id}/zones`, { headers, data: { name: 'Square room', kind: 'room', useType: 'corridor', polygon: [[2, 2], [8, 2], [8, 8], [2, 8]] } });
+    expect(zoneRes.status()).toBe(201);
+
+    await page.goto(`/plans/${plan.id}`);
+    await page.getByRole('button', { name: 'Edit Square room' }).click();
+    const form = page.getByRole('form', { name: 'Edit zone Square room' });
+    const corners = form.getByLabel(/Corners/);
+    await expect.poll(() => corners.inputValue()).toMatch(/^2(\.0+)?, 2/);
+    const map = page.getByTestId('plan-editor-map');
+    const handles = map.locator('.marker-icon:not(.marker-icon-middle)');
+    await expect.poll(() => handles.count()).toBe(4);
+    // The upper-right corner (8, 8) is the handle furthest right and highest on screen.
+    const boxes = await Promise.all((await handles.all()).map(async (h) => (await h.boundingBox())!));
+    const upperRight = boxes.reduce((best, b) => (b.x - b.y > best.x - best.y ? b : best));
+    const from = { x: upperRight.x + upperRight.width / 2, y: upperRight.y + upperRight.height / 2 };
+    await page.mouse.move(from.x, from.y);
+    await page.mouse.down();
+    for (let i = 1; i <= 10; i++) await page.mouse.move(from.x + i * 8, from.y, { steps: 2 });
+    await page.mouse.up();
+    // The form follows the map: the dragged corner's x grew, its y stayed about 8 m.
+    const movedCorner = async () => (await corners.inputValue()).split('\n').map((l) => l.split(',').map(Number)).find(([x, y]) => x > 8.5 && Math.abs(y - 8) < 0.5);
+    await expect.poll(movedCorner).toBeDefined();
+    const moved = (await movedCorner())!;
+    await form.getByRole('button', { name: 'Save zone' }).click();
+    await form.waitFor({ state: 'detached' });
+    const saved = (await (await page.request.get(`/api/plans/${plan.id}/zones`)).json()).items as { name: string; polygon: [number, number][] }[];
+    const polygon = saved.find((z) => z.name === 'Square room')!.polygon;
+    expect(polygon).toHaveLength(4);
+    expect(polygon.some(([x, y]) => Math.abs(x - moved[0]) < 0.01 && Math.abs(y - moved[1]) < 0.01)).toBe(true);
+    // The other three corners did not move.
+    for (const c of [[2, 2], [8, 2], [2, 8]]) expect(polygon.some(([x, y]) => Math.abs(x - c[0]) < 0.01 && Math.abs(y - c[1]) < 0.01)).toBe(true);
+  });
+
+  it('compares the autumn walk with the spring one: the map switches to the change scale and a point tells its change', async () => {
+    const page = await app.newPage();
+    await signInAs(page, 'surveyor@luxtrail.test');
+    const { ground, autumn, spring } = await demoIds(page);
+    await page.goto(`/surveys/${autumn.id}/map?planId=${ground.id}`);
+    const map = page.getByTestId('survey-map');
+    await expect.poll(() => map.getAttribute('data-painted-ms'), { timeout: 20_000 }).not.toBeNull();
+    await page.getByLabel('Compare with').selectOption(String(spring.id));
+    await page.getByRole('figure', { name: 'Colour scale of the change' }).waitFor();
+    const summary = await page.getByText(/point\(s\) matched by label/).innerText();
+    expect(Number(/(\d+) point\(s\) matched/.exec(summary)![1])).toBeGreaterThan(0);
+    expect(new URL(page.url()).searchParams.get('compare')).toBe(String(spring.id));
+    // A point's details now say how it changed since spring (both walks measured the same labels).
+    await page.getByLabel('Find a point').selectOption({ index: 1 });
+    const popup = page.locator('.leaflet-popup').filter({ hasText: 'Point ' });
+    await popup.waitFor();
+    expect(await popup.innerText()).toMatch(/Change\s*[+−]\d[\d.,]* lx \(was \d[\d.,]* lx\)/);
+    await page.screenshot({ path: path.join(screenshotDir(), 'survey-map-change.png') });
   });
 
   it('shows the demo survey\'s points on the ground floor, with details on hover, and the map is not blank', async () => {

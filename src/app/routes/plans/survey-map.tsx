@@ -32,7 +32,7 @@ export function SurveyMapRoute() {
           return (
             <>
               <PageHeader eyebrow={plan ? <Link to={`/plans/${plan.id}`} className="hover:underline">Plan {plan.name}</Link> : 'Survey map'} title={m.surveyName}
-                description="Each point where it was measured, coloured by illuminance; zones shaded by their average." />
+                description={compareId ? 'Each point where it was measured, coloured by its change since the survey compared with; zones shaded by their average.' : 'Each point where it was measured, coloured by illuminance; zones shaded by their average.'} />
               <div className="mb-4 grid gap-3 sm:grid-cols-2 lg:max-w-3xl">
                 <SelectField label="Plan" value={m.planId} onChange={(e) => set('planId', e.target.value)}>
                   {(plans.data?.items ?? []).map((p) => <option key={p.id} value={p.id}>{p.name}</option>)}
