@@ -51,23 +51,31 @@ export function toCoreCoefficientSet(row: CoefficientSetRow): CoefficientSet {
 }
 
 /**
- * Every probe of the organisation keyed by serial, with its approved coefficient sets, for
- * decoding survey logs (select the set in force with shared/core createCoefficientSelector).
+ * Every probe of the organisation (or only the one asked for) keyed by serial, with its approved
+ * coefficient sets, for decoding survey logs (select the set in force with shared/core
+ * createCoefficientSelector).
  */
-export function loadDecodingCalibration(db: Db, organizationId: number): Map<string, DecodingCalibration> {
-  const probeRows = db.select().from(probes).where(eq(probes.organizationId, organizationId)).all();
+export function loadDecodingCalibration(db: Db, organizationId: number, only?: { probeId: number }): Map<string, DecodingCalibration> {
+  const probeRows = db.select().from(probes)
+    .where(only ? and(eq(probes.organizationId, organizationId), eq(probes.id, only.probeId)) : eq(probes.organizationId, organizationId)).all();
   const out = new Map<string, DecodingCalibration>();
   if (probeRows.length === 0) return out;
   const setRows = db.select().from(coefficientSets)
     .where(and(inArray(coefficientSets.probeId, probeRows.map((p) => p.id)), eq(coefficientSets.status, 'approved')))
     .orderBy(asc(coefficientSets.effectiveFrom), asc(coefficientSets.version)).all();
+  const setsOf = new Map<number, (typeof setRows)[number][]>();
+  for (const s of setRows) {
+    const list = setsOf.get(s.probeId);
+    if (list) list.push(s);
+    else setsOf.set(s.probeId, [s]);
+  }
   for (const p of probeRows) {
     out.set(p.serial, {
       probeId: p.id,
       serial: p.serial,
       status: p.status,
       probe: toCoreProbe(p),
-      sets: setRows.filter((s) => s.probeId === p.id).map(toCoreCoefficientSet),
+      sets: (setsOf.get(p.id) ?? []).map(toCoreCoefficientSet),
     });
   }
   return out;

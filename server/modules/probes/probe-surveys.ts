@@ -16,7 +16,7 @@ import { loadDecodingCalibration } from './probe-calibration';
 export function surveysDecodedWithProbe(deps: Deps, user: SessionUser, probeId: number): ProbeSurvey[] {
   const probe = deps.db.select().from(probes).where(and(eq(probes.id, probeId), eq(probes.organizationId, user.organizationId))).get();
   if (!probe) throw notFound('Probe');
-  const sets = loadDecodingCalibration(deps.db, user.organizationId).get(probe.serial)?.sets ?? [];
+  const sets = loadDecodingCalibration(deps.db, user.organizationId, { probeId }).get(probe.serial)?.sets ?? [];
   const selector = createCoefficientSelector(sets);
   const rows = deps.db.select({ surveyId: surveys.id, name: surveys.name, status: surveys.status, siteName: sites.name, timeMs: readings.timeMs, setId: readings.coefficientSetId })
     .from(readings)
