@@ -174,6 +174,24 @@ describe('judgeZones: daylight factor', () => {
     expect(z.dfWarning).toBeUndefined();
   });
 
+  it('each point, when paired, keeps its own DF = Ei / Eo(t) * 100 % with Eo interpolated linearly between the bracketing reference samples', () => {
+    // Outdoor rising 1,000 lx per 30 s sample from 8 klx: each point's Eo is worked out here by hand.
+    const rs = withReference((k) => 8000 + 1000 * k);
+    const ref = rs.filter((r) => r.role === 'reference');
+    const z = judge(zone(target(100)), rs, 'guarded');
+    const indoor = rs.filter((r) => r.role === 'task');
+    expect(Object.keys(z.pointDf ?? {})).toHaveLength(indoor.length);
+    for (const r of indoor) {
+      const after = ref.findIndex((o) => o.timeMs >= r.timeMs);
+      const [a, b] = [ref[after - 1], ref[after]];
+      const eo = (a.lux as number) + ((b.lux as number) - (a.lux as number)) * (r.timeMs - a.timeMs) / (b.timeMs - a.timeMs);
+      expect(z.pointDf![r.id]).toBeCloseTo((200 / eo) * 100, 10);
+    }
+    // The zone's average is the mean of its points' factors.
+    const values = Object.values(z.pointDf!);
+    expect(z.dfAvg).toBeCloseTo(values.reduce((s, v) => s + v, 0) / values.length, 12);
+  });
+
   it('an outdoor level doubling every 30 s, when paired, warns that the pairing cannot be trusted', () => {
     const z = judge(zone(target(100)), withReference((k) => 5000 * 2 ** k), 'guarded');
     expect(z.dfWarning).toMatch(/changed too fast/);
@@ -182,6 +200,7 @@ describe('judgeZones: daylight factor', () => {
   it('a survey with daylight excluded, when judged, gives no daylight factor', () => {
     const res = judgeZones({ zones: [zone(target(100))], readings: withReference(() => 10_000), rule: 'guarded', daylightExcluded: true });
     expect(res.zones[0].dfAvg).toBeUndefined();
+    expect(res.zones[0].pointDf).toBeUndefined();
     expect(res.warnings.join(' ')).toMatch(/Daylight was excluded/);
   });
 });

@@ -94,7 +94,7 @@ export function previousSignedOff(db: Db, survey: SurveyRow): SurveyRow | null {
 
 const siteNameOf = (db: Db, siteId: number) => db.select({ name: sites.name }).from(sites).where(eq(sites.id, siteId)).get()?.name ?? '';
 
-const strip = ({ polygon: _p, readingIds: _r, wallBandReadingIds: _w, ...zone }: JudgedZone): ZoneCompliance => zone;
+const strip = ({ polygon: _p, readingIds: _r, wallBandReadingIds: _w, pointDf: _d, ...zone }: JudgedZone): ZoneCompliance => zone;
 
 /** The verdicts and judged zones of a survey: frozen if signed off, else live. */
 export function surveyVerdicts(db: Db, survey: SurveyRow) {
@@ -151,6 +151,7 @@ export function getZoneDetail(db: Db, user: SessionUser, surveyId: number, zoneI
     points: pointReadings.filter((r) => r.xM !== null && r.yM !== null).map((r) => ({
       readingId: r.id, point: r.point, xM: r.xM as number, yM: r.yM as number, timestamp: new Date(r.timeMs).toISOString(),
       lux: r.lux, uLux: r.uLux, luxBound: r.luxBound, flag: r.flag, inWallBand: wallBand.has(r.id),
+      ...(judged.pointDf?.[r.id] !== undefined ? { dfPercent: judged.pointDf[r.id] } : {}),
     })),
   };
 }

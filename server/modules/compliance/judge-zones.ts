@@ -56,7 +56,11 @@ export type JudgeZone = {
 };
 
 /** A zone's verdict plus what a frozen sign-off keeps to show the same points later. */
-export type JudgedZone = ZoneCompliance & { polygon: PlanPoint[]; readingIds: number[]; wallBandReadingIds: number[] };
+export type JudgedZone = ZoneCompliance & {
+  polygon: PlanPoint[]; readingIds: number[]; wallBandReadingIds: number[];
+  /** Daylight factor (%) of each included reading that paired with the outdoor reference, by reading id (absent in sign-offs frozen before it was kept). */
+  pointDf?: Record<string, number>;
+};
 
 export type JudgeResult = { zones: JudgedZone[]; unassignedPoints: number; hasDaylightReference: boolean; warnings: string[] };
 
@@ -161,8 +165,10 @@ export function judgeZones(input: {
 
     let dfAvg: number | undefined;
     let dfWarning: string | undefined;
+    const pointDf: Record<string, number> = {};
     if (reference && z.kind !== 'outdoor') {
       const pairs = pairDaylight(included, reference);
+      pairs.forEach((p, i) => { if (p.ok && p.bound === 'exact') pointDf[included[i].id] = p.dfPercent; });
       const ok = pairs.filter((p) => p.ok && p.bound === 'exact');
       if (ok.length > 0) dfAvg = mean(ok.map((p) => (p.ok ? p.dfPercent : 0)));
       const refused = pairs.filter((p) => !p.ok).length;
@@ -184,6 +190,7 @@ export function judgeZones(input: {
       ...(dfWarning ? { dfWarning } : {}),
       verdict, reasons,
       polygon: z.polygon, readingIds: included.map((r) => r.id), wallBandReadingIds: wallBand.map((r) => r.id),
+      ...(Object.keys(pointDf).length > 0 ? { pointDf } : {}),
     };
   });
   if (unassigned > 0) warnings.push(`${unassigned} task reading(s) lie in no zone and are not judged.`);

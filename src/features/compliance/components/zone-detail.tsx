@@ -58,6 +58,7 @@ export function ZoneSummaryCards({ detail }: { detail: ZoneDetailResponse }) {
 /** Every point of the zone, wall-band points marked as left out. */
 export function ZonePointsTable({ detail }: { detail: ZoneDetailResponse }) {
   const { format } = useUnits();
+  const withDf = detail.points.some((p) => p.dfPercent !== undefined);
   return (
     <div className="max-h-[28rem] overflow-auto">
       <table className="min-w-full text-sm">
@@ -67,6 +68,7 @@ export function ZonePointsTable({ detail }: { detail: ZoneDetailResponse }) {
             <th scope="col" className="px-4 py-2">Point</th>
             <th scope="col" className="px-3 py-2 text-right">x, y (m)</th>
             <th scope="col" className="px-3 py-2 text-right">E ± U</th>
+            {withDf && <th scope="col" className="px-3 py-2 text-right"><abbr title="Daylight factor: indoor over simultaneous outdoor illuminance">DF</abbr></th>}
             <th scope="col" className="px-3 py-2">Flag</th>
             <th scope="col" className="px-3 py-2">Used</th>
           </tr>
@@ -77,6 +79,7 @@ export function ZonePointsTable({ detail }: { detail: ZoneDetailResponse }) {
               <th scope="row" className="px-4 py-1.5 text-left font-medium text-ink-900">{p.point}</th>
               <td className="num px-3 py-1.5 text-right">{p.xM.toFixed(2)}, {p.yM.toFixed(2)}</td>
               <td className="num px-3 py-1.5 text-right">{p.lux === null ? 'fault' : `${format(p.lux, { bound: p.luxBound })}${p.uLux !== null ? ` ± ${format(p.uLux, { withUnit: false })}` : ''}`}</td>
+              {withDf && <td className="num px-3 py-1.5 text-right">{p.dfPercent === undefined ? '–' : `${p.dfPercent.toFixed(1)} %`}</td>}
               <td className="px-3 py-1.5">{p.flag === 'ok' ? '–' : <Badge tone={p.flag === 'fault' ? 'bad' : 'warn'}>{p.flag.replace('_', ' ')}</Badge>}</td>
               <td className="px-3 py-1.5">{p.inWallBand ? <Badge>wall band</Badge> : p.lux === null ? <Badge tone="bad">excluded</Badge> : 'yes'}</td>
             </tr>
