@@ -7,6 +7,7 @@ import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './c
 import { outboxAttachments } from '@server/db/schema/organizations';
 import { RULE_TEXT } from '@shared/core/decision';
 import { GRID_RULE } from '@shared/core/zone-stats';
+import { BOUND_FOOTNOTE } from '@server/modules/reports/report-pdf';
 
 let t: TestApp;
 beforeEach(async () => { t = await createTestApp(); });
@@ -55,6 +56,26 @@ describe('GET /api/surveys/:id/report.pdf', () => {
     expect(text).toContain('does not certify emergency lighting');
     expect(text).toContain('Local codes and regulations take precedence');
     expect(text).toMatch(/k = 2/);
+  });
+
+  it('a zone whose figures are bounds (an over-range point), when reported, is marked in the summary and the mark is explained', async () => {
+    // One office point over range: Eavg and Emin become lower bounds (their exact value is unknown).
+    const readings = officeAndCorridorReadings().map((r, i) => (i === 3 ? { ...r, lux: 150_000, flag: 'over_range' as const, luxBound: 'lower' as const } : r));
+    const { surveyId } = buildSurvey(t, { ownerEmail: DEMO.surveyor, zones: OFFICE_AND_CORRIDOR, readings });
+    const c = await t.signIn(DEMO.surveyor);
+    const office = (await c.get(`/api/surveys/${surveyId}/compliance`)).body.zones.find((z: { name: string }) => z.name === 'Fixture office');
+    expect(office.bounds.eavg).toBe('lower');
+    const text = await pdfText((await c.get(`/api/surveys/${surveyId}/report.pdf`).buffer(true).parse(binary)).body);
+    expect(text).toMatch(new RegExp(`${office.eavg.toFixed(0)} lx \\+/- [\\d.]+ lx \\*`));
+    expect(text).toContain(BOUND_FOOTNOTE.slice(0, 50));
+    expect(text).toContain('(a lower bound)');
+  });
+
+  it('a report with no bounded figure, when generated, has no bound footnote', async () => {
+    const { surveyId } = buildSurvey(t, { ownerEmail: DEMO.surveyor, zones: OFFICE_AND_CORRIDOR, readings: officeAndCorridorReadings() });
+    const c = await t.signIn(DEMO.surveyor);
+    const text = await pdfText((await c.get(`/api/surveys/${surveyId}/report.pdf`).buffer(true).parse(binary)).body);
+    expect(text).not.toContain(BOUND_FOOTNOTE.slice(0, 50));
   });
 
   it('a report in foot-candles, when asked for, prints the target in fc', async () => {

@@ -102,13 +102,16 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
   ], data.zones.map((z) => [
     `${z.name} (${z.planName})`,
     z.targetLux === null ? 'none' : `${u(z.targetLux)} / ${z.targetU0 ?? '-'}`,
-    uWith(z.eavg, z.uEavg),
-    u(z.emin),
-    z.u0 === null ? 'n/a' : z.u0.toFixed(2),
+    uWith(z.eavg, z.uEavg) + boundMark(z.bounds.eavg),
+    u(z.emin) + boundMark(z.bounds.emin),
+    z.u0 === null ? 'n/a' : z.u0.toFixed(2) + boundMark(z.bounds.u0),
     `${z.points} / ${z.requiredPoints}`,
     { text: VERDICT_LABELS[z.verdict], colour: VERDICT_COLOURS[z.verdict] },
     z.change ? `${z.change.deltaEavg === null ? 'n/a' : signed(z.change.deltaEavg, unit)}${z.change.verdictChanged ? `, was ${VERDICT_LABELS[z.change.previousVerdict].toLowerCase()}` : ''}` : '-',
   ]));
+  if (data.zones.some((z) => boundMark(z.bounds.eavg) || boundMark(z.bounds.emin) || boundMark(z.bounds.u0))) {
+    doc.moveDown(0.3).font('body').fontSize(8.5).fillColor(MUTED).text(BOUND_FOOTNOTE);
+  }
   if (c.warnings.length) {
     doc.moveDown(0.5).font('bold').fontSize(9).fillColor(INK).text('Notes');
     doc.font('body').fontSize(9).fillColor(MUTED);
@@ -199,6 +202,9 @@ function statusLine(data: ReportData, when: (ms: number | null) => string): stri
   return 'Draft';
 }
 
+/** The summary table's marker for a value that is a bound, not a measured figure (explained below the table). */
+const boundMark = (b: string | null) => (b === 'lower' || b === 'upper' || b === 'indeterminate' ? ' *' : '');
+export const BOUND_FOOTNOTE = '* A bound, not a measured value: an over- or under-range point entered this figure. Each zone\'s page says which way.';
 const boundNote = (b: string | null) => (b === 'lower' ? ' (a lower bound)' : b === 'upper' ? ' (an upper bound)' : b === 'indeterminate' ? ' (indeterminate)' : '');
 
 export function formatIlluminance(lux: number | null | undefined, unit: ReportUnit): string {
