@@ -18,7 +18,7 @@ export interface Verdict {
 
 export const RULE_TEXT: Record<AcceptanceRule, string> = {
   simple: 'Simple acceptance (ILAC-G8:2019): the measured value is compared with the limit as it is.',
-  guarded: 'Guarded acceptance (ILAC-G8:2019), guard band w = U (k = 2): meets when value - U >= limit, falls short when value + U < limit, otherwise inconclusive.',
+  guarded: 'Guarded acceptance (ILAC-G8:2019), guard band w = U (k = 2): meets when value − U ≥ limit, falls short when value + U < limit, otherwise inconclusive.',
 };
 
 /**
@@ -56,7 +56,7 @@ export function decideZone(stats: ZoneStats, target: Target, rule: AcceptanceRul
     const w = rule === 'guarded' ? (u as number) : 0;
     const v = judgeLowerLimit(x, bound, w, limit);
     checks.push(v);
-    const shown = x === null ? 'not available' : `${fmt(x)}${unit}${bw(bound)}${rule === 'guarded' ? ` +/- ${fmt(w)}${unit}` : ''}`;
+    const shown = x === null ? 'not available' : `${fmt(x)}${unit}${bw(bound)}${rule === 'guarded' ? ` ± ${fmt(w)}${unit}` : ''}`;
     reasons.push(`${name} ${shown} against ${fmt(limit)}${unit}: ${v.replace('_', ' ')}.`);
   };
 

@@ -136,7 +136,7 @@ export function zoneStats(readings: readonly Reading[]): ZoneStats {
 }
 
 /** Grid rule of EN 12464-1:2011, 4.4 and Annex (formula as given in DOMAIN.md): n = ceil(d / p). */
-export const GRID_RULE = 'EN 12464-1:2011 (p = 0.2 * 5^log10(d), p <= 10 m, n = ceil(d / p))';
+export const GRID_RULE = 'EN 12464-1:2011 (p = 0.2 × 5^log10(d), p ≤ 10 m, n = ceil(d / p))';
 
 /** Largest grid spacing p = 0.2 * 5^log10(d) m, capped at 10 m (EN 12464-1:2011). */
 export function gridSpacing(dM: number): number {

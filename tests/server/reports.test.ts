@@ -2,6 +2,8 @@ import { describe, it, expect, beforeEach } from 'vitest';
 import { eq } from 'drizzle-orm';
 import Papa from 'papaparse';
 import { PDFParse } from 'pdf-parse';
+import { createRequire } from 'node:module';
+import * as fontkit from 'fontkit';
 import { createTestApp, DEMO, type TestApp } from './helpers';
 import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './compliance-fixtures';
 import { outboxAttachments } from '@server/db/schema/organizations';
@@ -42,8 +44,8 @@ describe('GET /api/surveys/:id/report.pdf', () => {
     const corridor = compliance.zones.find((z: { name: string }) => z.name === 'Fixture corridor');
     const office = compliance.zones.find((z: { name: string }) => z.name === 'Fixture office');
     // Summary values as the compliance answer gives them, formatted as the report prints them.
-    expect(text).toContain(`${corridor.eavg.toFixed(1)} lx +/- ${corridor.uEavg.toFixed(2)} lx`);
-    expect(text).toContain(`${office.eavg.toFixed(0)} lx +/- ${office.uEavg.toFixed(1)} lx`);
+    expect(text).toContain(`${corridor.eavg.toFixed(1)} lx ± ${corridor.uEavg.toFixed(2)} lx`);
+    expect(text).toContain(`${office.eavg.toFixed(0)} lx ± ${office.uEavg.toFixed(1)} lx`);
     expect(text).toContain(`${corridor.points} / ${corridor.requiredPoints}`);
     expect(text).toContain('Falls short');
     expect(text).toContain('Meets target');
@@ -66,7 +68,7 @@ describe('GET /api/surveys/:id/report.pdf', () => {
     const office = (await c.get(`/api/surveys/${surveyId}/compliance`)).body.zones.find((z: { name: string }) => z.name === 'Fixture office');
     expect(office.bounds.eavg).toBe('lower');
     const text = await pdfText((await c.get(`/api/surveys/${surveyId}/report.pdf`).buffer(true).parse(binary)).body);
-    expect(text).toMatch(new RegExp(`${office.eavg.toFixed(0)} lx \\+/- [\\d.]+ lx \\*`));
+    expect(text).toMatch(new RegExp(`${office.eavg.toFixed(0)} lx ± [\\d.]+ lx \\*`));
     expect(text).toContain(BOUND_FOOTNOTE.slice(0, 50));
     expect(text).toContain('(a lower bound)');
   });
@@ -76,6 +78,21 @@ describe('GET /api/surveys/:id/report.pdf', () => {
     const c = await t.signIn(DEMO.surveyor);
     const text = await pdfText((await c.get(`/api/surveys/${surveyId}/report.pdf`).buffer(true).parse(binary)).body);
     expect(text).not.toContain(BOUND_FOOTNOTE.slice(0, 50));
+  });
+
+  it('a report, when generated, uses only characters its fonts can draw: Instrument Sans, or DejaVu Sans for ±, ≤ and ≥', async () => {
+    const readings = officeAndCorridorReadings().map((r, i) => (i === 3 ? { ...r, lux: 150_000, flag: 'over_range' as const, luxBound: 'lower' as const } : r));
+    const { surveyId } = buildSurvey(t, { ownerEmail: DEMO.surveyor, zones: OFFICE_AND_CORRIDOR, readings });
+    const c = await t.signIn(DEMO.surveyor);
+    const text = await pdfText((await c.get(`/api/surveys/${surveyId}/report.pdf`).buffer(true).parse(binary)).body);
+    const require = createRequire(import.meta.url);
+    const open = (file: string) => fontkit.openSync(require.resolve(file)) as unknown as { hasGlyphForCodePoint(cp: number): boolean };
+    const body = open('@fontsource/instrument-sans/files/instrument-sans-latin-400-normal.woff');
+    const symbols = open('@fontsource/dejavu-sans/files/dejavu-sans-latin-400-normal.woff');
+    const used = [...new Set(text)].filter((ch) => ch.trim() !== '');
+    expect(used).toContain('±');
+    const undrawable = used.filter((ch) => !body.hasGlyphForCodePoint(ch.codePointAt(0)!) && !('±≤≥'.includes(ch) && symbols.hasGlyphForCodePoint(ch.codePointAt(0)!)));
+    expect(undrawable).toEqual([]);
   });
 
   it('a report in foot-candles, when asked for, prints the target in fc', async () => {

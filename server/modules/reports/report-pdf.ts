@@ -10,6 +10,15 @@ const require = createRequire(import.meta.url);
 /** The shipped typeface (Instrument Sans, SIL OFL), embedded from @fontsource's WOFF files. */
 const FONT_REGULAR = require.resolve('@fontsource/instrument-sans/files/instrument-sans-latin-400-normal.woff');
 const FONT_BOLD = require.resolve('@fontsource/instrument-sans/files/instrument-sans-latin-600-normal.woff');
+/**
+ * Instrument Sans has no ±, ≤ or ≥ (checked with fontkit): those characters are set in DejaVu Sans
+ * (@fontsource, SIL OFL), which has them, so the report writes the signs the screens show.
+ */
+const FONT_SYMBOLS = require.resolve('@fontsource/dejavu-sans/files/dejavu-sans-latin-400-normal.woff');
+const FONT_SYMBOLS_BOLD = require.resolve('@fontsource/dejavu-sans/files/dejavu-sans-latin-700-normal.woff');
+const SYMBOL_CHARS = /[±≤≥]+/g;
+type FontName = 'body' | 'bold';
+const SYMBOL_FONT: Record<FontName, string> = { body: 'symbols', bold: 'symbols-bold' };
 
 export type ReportUnit = 'lx' | 'fc';
 
@@ -39,6 +48,8 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
   const doc = new PDFDocument({ size: 'A4', margin: MARGIN, bufferPages: true, info: { Title: `${data.site.name}: ${data.survey.name}`, Author: data.organizationName, Creator: 'Luxtrail' } });
   doc.registerFont('body', FONT_REGULAR);
   doc.registerFont('bold', FONT_BOLD);
+  doc.registerFont('symbols', FONT_SYMBOLS);
+  doc.registerFont('symbols-bold', FONT_SYMBOLS_BOLD);
   const chunks: Buffer[] = [];
   doc.on('data', (c: Buffer) => chunks.push(c));
   const done = new Promise<Buffer>((resolve, reject) => {
@@ -47,7 +58,7 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
   });
 
   const u = (lux: number | null | undefined) => formatIlluminance(lux, unit);
-  const uWith = (lux: number | null, U: number | null) => (lux === null ? 'n/a' : U === null ? u(lux) : `${u(lux)} +/- ${u(U)}`);
+  const uWith = (lux: number | null, U: number | null) => (lux === null ? 'n/a' : U === null ? u(lux) : `${u(lux)} ± ${u(U)}`);
   const when = (ms: number | null) => (ms === null ? 'n/a' : formatDateTime(ms, data.site.timeZone));
   const c = data.compliance;
 
@@ -93,7 +104,7 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
   table(doc, [
     { title: 'Zone', width: 112 },
     { title: 'Target Em / U0', width: 72 },
-    { title: 'Eavg +/- U', width: 82 },
+    { title: 'Eavg ± U', width: 82 },
     { title: 'Emin', width: 44 },
     { title: 'U0', width: 34 },
     { title: 'Points', width: 44 },
@@ -115,9 +126,10 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
   if (c.warnings.length) {
     doc.moveDown(0.5).font('bold').fontSize(9).fillColor(INK).text('Notes');
     doc.font('body').fontSize(9).fillColor(MUTED);
-    for (const w of c.warnings) doc.text(`- ${w}`);
+    for (const w of c.warnings) textWithSymbols(doc, 'body', `- ${w}`, null, { width: CONTENT_W });
   }
-  doc.moveDown(0.5).font('body').fontSize(8.5).fillColor(MUTED).text(`Decision rule: ${c.ruleText}`);
+  doc.moveDown(0.5).fontSize(8.5).fillColor(MUTED);
+  textWithSymbols(doc, 'body', `Decision rule: ${c.ruleText}`, null, { width: CONTENT_W });
 
   // A page per zone.
   for (const z of data.zones) {
@@ -139,8 +151,9 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
     ]);
     doc.moveDown(0.4).font('bold').fontSize(9.5).fillColor(INK).text('Why');
     doc.font('body').fontSize(9).fillColor(INK);
-    for (const r of z.reasons) doc.text(`- ${r}`, { width: CONTENT_W });
-    doc.moveDown(0.3).font('body').fontSize(8.5).fillColor(MUTED).text(`Decision rule: ${c.ruleText}`);
+    for (const r of z.reasons) textWithSymbols(doc, 'body', `- ${r}`, null, { width: CONTENT_W });
+    doc.moveDown(0.3).fontSize(8.5).fillColor(MUTED);
+    textWithSymbols(doc, 'body', `Decision rule: ${c.ruleText}`, null, { width: CONTENT_W });
   }
 
   // Probes, calibration, uncertainty, cautions.
@@ -235,6 +248,31 @@ function section(doc: PDFKit.PDFDocument, title: string, first = false) {
   doc.moveDown(0.4);
 }
 
+/** Text in `font` (at a position, or flowing on), with any ±, ≤ or ≥ set in the symbol font of the same weight as continued runs. */
+function textWithSymbols(doc: PDFKit.PDFDocument, font: FontName, text: string, at: { x: number; y: number } | null, options: PDFKit.Mixins.TextOptions = {}) {
+  const runs: { text: string; symbol: boolean }[] = [];
+  let from = 0;
+  for (const m of text.matchAll(SYMBOL_CHARS)) {
+    if (m.index > from) runs.push({ text: text.slice(from, m.index), symbol: false });
+    runs.push({ text: m[0], symbol: true });
+    from = m.index + m[0].length;
+  }
+  if (from < text.length) runs.push({ text: text.slice(from), symbol: false });
+  if (runs.length <= 1 && !runs[0]?.symbol) {
+    if (at) doc.font(font).text(text, at.x, at.y, options);
+    else doc.font(font).text(text, options);
+    return;
+  }
+  runs.forEach((run, i) => {
+    doc.font(run.symbol ? SYMBOL_FONT[font] : font);
+    const continued = i < runs.length - 1;
+    if (i > 0) doc.text(run.text, { continued });
+    else if (at) doc.text(run.text, at.x, at.y, { ...options, continued });
+    else doc.text(run.text, { ...options, continued });
+  });
+  doc.font(font);
+}
+
 function keyValues(doc: PDFKit.PDFDocument, rows: [string, string][]) {
   const keyW = 120;
   for (const [k, v] of rows) {
@@ -243,7 +281,8 @@ function keyValues(doc: PDFKit.PDFDocument, rows: [string, string][]) {
     if (y + h > A4.height - MARGIN) doc.addPage();
     const top = doc.y;
     doc.font('bold').fontSize(10).fillColor(MUTED).text(k, MARGIN, top, { width: keyW - 8 });
-    doc.font('body').fontSize(10).fillColor(INK).text(v, MARGIN + keyW, top, { width: CONTENT_W - keyW });
+    doc.fontSize(10).fillColor(INK);
+    textWithSymbols(doc, 'body', v, { x: MARGIN + keyW, y: top }, { width: CONTENT_W - keyW });
     doc.y = Math.max(doc.y, top + h) + 3;
   }
   doc.x = MARGIN;
@@ -265,7 +304,8 @@ function table(doc: PDFKit.PDFDocument, columns: { title: string; width: number 
     let x = MARGIN;
     cells.forEach((cell, i) => {
       const text = typeof cell === 'string' ? cell : cell.text;
-      doc.fillColor(header ? MUTED : typeof cell === 'string' ? INK : cell.colour).text(text, x + pad, top + pad, { width: columns[i].width - 2 * pad });
+      doc.fillColor(header ? MUTED : typeof cell === 'string' ? INK : cell.colour);
+      textWithSymbols(doc, header ? 'bold' : 'body', text, { x: x + pad, y: top + pad }, { width: columns[i].width - 2 * pad });
       x += columns[i].width;
     });
     doc.moveTo(MARGIN, top + h).lineTo(MARGIN + CONTENT_W, top + h).lineWidth(0.4).strokeColor(RULE_LINE).stroke();
