@@ -135,6 +135,30 @@ describe('plans and the survey map in a real browser', () => {
     for (const c of [[2, 2], [8, 2], [2, 8]]) expect(polygon.some(([x, y]) => Math.abs(x - c[0]) < 0.01 && Math.abs(y - c[1]) < 0.01)).toBe(true);
   });
 
+  it('deletes a plan uploaded by mistake; one with a zone is refused with the reason shown', async () => {
+    const page = await app.newPage();
+    await signInAs(page, 'surveyor@luxtrail.test');
+    const { site } = await demoIds(page);
+    const headers = { Origin: app.baseUrl };
+    const make = async (name: string) => (await (await page.request.post(`/api/sites/${site.id}/plans`, {
+      headers, multipart: { file: { name: 'p.png', mimeType: 'image/png', buffer: fs.readFileSync(planImageFile()) }, name, widthM: '20' },
+    })).json()) as { id: number };
+    const keep = await make('E2E plan with a zone');
+    await page.request.post(`/api/plans/${keep.id}/zones`, { headers, data: { name: 'Kept room', kind: 'room', useType: 'corridor', polygon: [[2, 2], [8, 2], [8, 8], [2, 8]] } });
+    const wrong = await make('E2E wrong upload');
+
+    page.on('dialog', (d) => void d.accept());
+    await page.goto(`/plans/${keep.id}`);
+    await page.getByRole('button', { name: 'Delete plan' }).click();
+    await page.getByRole('alert').getByText('Plan "E2E plan with a zone" has 1 zone(s): delete them first, then the plan').waitFor();
+
+    await page.goto(`/plans/${wrong.id}`);
+    await page.getByRole('button', { name: 'Delete plan' }).click();
+    await page.waitForURL((u) => u.pathname === '/plans');
+    await page.getByRole('link', { name: /E2E plan with a zone/ }).waitFor();
+    expect(await page.getByRole('link', { name: /E2E wrong upload/ }).count()).toBe(0);
+  });
+
   it('compares the autumn walk with the spring one: the map switches to the change scale and a point tells its change', async () => {
     const page = await app.newPage();
     await signInAs(page, 'surveyor@luxtrail.test');

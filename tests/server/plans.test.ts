@@ -2,6 +2,7 @@ import { describe, it, expect, beforeAll } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
 import { insertSite, insertSurveyWithReadings, orgOf, pngOf } from './plans-fixtures';
+import { userId } from './compliance-fixtures';
 import { plans } from '@server/db/schema/plans';
 import { auditEvents } from '@server/db/schema/organizations';
 
@@ -243,5 +244,43 @@ describe('GET /api/surveys/:id/map', () => {
   it('map, for a calibration user (no surveys.read), answers 403', async () => {
     const cal = await t.signIn(DEMO.calibration);
     expect((await cal.get('/api/surveys/1/map')).status).toBe(403);
+  });
+});
+
+describe('DELETE /api/plans/:id', () => {
+  it('an unused plan, when deleted, is gone from the site and the audit trail says who deleted it', async () => {
+    const plan = (await upload(surveyor, siteId, pngOf(120, 90, 40), { name: 'Uploaded by mistake', widthM: '12' })).body as { id: number };
+    expect((await surveyor.delete(`/api/plans/${plan.id}`)).status).toBe(204);
+    expect((await surveyor.get(`/api/plans/${plan.id}`)).status).toBe(404);
+    expect(((await surveyor.get(`/api/sites/${siteId}/plans`)).body.items as { id: number }[]).some((p) => p.id === plan.id)).toBe(false);
+    const audit = t.db.select().from(auditEvents).where(eq(auditEvents.entityType, 'plan')).all().find((a) => a.entityId === plan.id && a.action === 'deleted');
+    expect(audit?.actorId).toBe(userId(t, DEMO.surveyor).id);
+    expect(audit?.before).toMatchObject({ name: 'Uploaded by mistake', siteId });
+  });
+
+  it('a plan with zones, when deleted, answers 409 saying to delete the zones first, and keeps plan and zones', async () => {
+    const plan = (await upload(surveyor, siteId, pngOf(120, 90, 41), { name: 'With a zone', widthM: '12' })).body as { id: number };
+    const zone = await surveyor.post(`/api/plans/${plan.id}/zones`).send({ name: 'Store', kind: 'room', useType: 'corridor', polygon: [[1, 1], [5, 1], [5, 4], [1, 4]] });
+    expect(zone.status).toBe(201);
+    const res = await surveyor.delete(`/api/plans/${plan.id}`);
+    expect(res.status).toBe(409);
+    expect(res.body.error.message).toBe('Plan "With a zone" has 1 zone(s): delete them first, then the plan');
+    expect((await surveyor.get(`/api/plans/${plan.id}/zones`)).body.items).toHaveLength(1);
+  });
+
+  it('a plan holding a survey\'s readings, when deleted, answers 409 naming the survey and keeps the plan', async () => {
+    const plan = (await upload(surveyor, siteId, pngOf(120, 90, 42), { name: 'Walked plan', widthM: '12' })).body as { id: number };
+    insertSurveyWithReadings(t, orgOf(t, DEMO.surveyor), siteId, [{ point: 'P1', x: 2, y: 2, lux: 300 }], 'Walk on the walked plan', plan.id);
+    const res = await surveyor.delete(`/api/plans/${plan.id}`);
+    expect(res.status).toBe(409);
+    expect(res.body.error.message).toMatch(/holds readings of 1 survey\(s\) \(Walk on the walked plan\): it stays as their record/);
+    expect((await surveyor.get(`/api/plans/${plan.id}`)).status).toBe(200);
+  });
+
+  it('another organisation\'s plan, when deleted, answers 404 and stays', async () => {
+    const other = await t.signIn(DEMO.otherAdmin);
+    const plan = (await upload(other, otherSiteId, pngOf(120, 90, 43), { name: 'Theirs' })).body as { id: number };
+    expect((await surveyor.delete(`/api/plans/${plan.id}`)).status).toBe(404);
+    expect((await other.get(`/api/plans/${plan.id}`)).status).toBe(200);
   });
 });

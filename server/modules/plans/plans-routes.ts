@@ -4,7 +4,7 @@ import type { Deps } from '../../deps';
 import { idParamsSchema } from '@shared/schemas/common';
 import { createPlanFieldsSchema, PLAN_IMAGE_MAX_BYTES, planListResponseSchema, planSchema, surveyMapQuerySchema, surveyMapResponseSchema, updatePlanBodySchema } from '@shared/schemas/plans';
 import { singleFileUpload } from '../../http/upload';
-import { createPlan, getPlan, listPlans, planImage, updatePlan } from './plans-service';
+import { createPlan, deletePlan, getPlan, listPlans, planImage, updatePlan } from './plans-service';
 import { surveyMap } from './survey-map-service';
 
 export function registerPlanRoutes(api: Api, deps: Deps) {
@@ -23,6 +23,9 @@ export function registerPlanRoutes(api: Api, deps: Deps) {
 
   api.route({ method: 'patch', path: '/plans/:id', access: 'plans.write', tag: 'plans', summary: 'Rename a plan or set its scale (width in metres, or two image points and their distance)', params: idParamsSchema, body: updatePlanBodySchema, response: planSchema },
     ({ user, params, body }) => updatePlan(deps, user, params.id, body));
+
+  api.route({ method: 'delete', path: '/plans/:id', access: 'plans.write', tag: 'plans', summary: 'Delete an unused plan (no zones, no readings placed on it); otherwise 409 says what holds it', params: idParamsSchema },
+    ({ user, params }) => { deletePlan(deps, user, params.id); });
 
   api.route({ method: 'get', path: '/plans/:id/image', access: 'sites.read', tag: 'plans', summary: 'The plan image (ETag is its SHA-256)', params: idParamsSchema, produces: 'image/*' },
     ({ user, params, req, res }) => {

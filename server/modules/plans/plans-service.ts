@@ -4,11 +4,11 @@ import { imageSizeFromFile } from 'image-size/fromFile';
 import type { Deps } from '../../deps';
 import type { Db } from '../../db/client';
 import { plans, zones } from '../../db/schema/plans';
-import { sites } from '../../db/schema/surveys';
+import { logImports, readings, sites, surveys } from '../../db/schema/surveys';
 import { storedFiles } from '../../db/schema/organizations';
 import type { SessionUser } from '@shared/schemas/auth';
 import { MIN_SCALE_SPAN_PX, PLAN_IMAGE_MAX_SIDE_PX, type CreatePlanFields, type Plan, type UpdatePlanBody } from '@shared/schemas/plans';
-import { notFound, unprocessable } from '../../http/errors';
+import { conflict, notFound, unprocessable } from '../../http/errors';
 import { keepUploadedFile, sniffFile, storedPath } from '../../lib/file-store';
 import { recordAudit } from '../audit/audit-service';
 import { siteScope } from '../users/users-service';
@@ -130,6 +130,25 @@ export function updatePlan(deps: Deps, user: SessionUser, planId: number, body: 
     });
   });
   return getPlan(deps.db, user, planId);
+}
+
+/**
+ * Deletes a plan uploaded by mistake. Only an unused plan goes: one with zones, with readings of
+ * any survey placed on it (in any decode, so earlier decodes and sign-offs keep their plan) or
+ * named as an upload's plan answers 409 saying what holds it. The image file stays in the store.
+ */
+export function deletePlan(deps: Deps, user: SessionUser, planId: number): void {
+  const plan = findVisiblePlan(deps.db, user, planId);
+  deps.db.transaction((tx) => {
+    const zoneCount = tx.select({ n: sql<number>`count(*)` }).from(zones).where(eq(zones.planId, planId)).get()!.n;
+    if (zoneCount > 0) throw conflict(`Plan "${plan.name}" has ${zoneCount} zone(s): delete them first, then the plan`);
+    const used = tx.selectDistinct({ name: surveys.name }).from(readings).innerJoin(surveys, eq(surveys.id, readings.surveyId)).where(eq(readings.planId, planId)).orderBy(surveys.name).all();
+    if (used.length > 0) throw conflict(`Plan "${plan.name}" holds readings of ${used.length} survey(s) (${used.map((u) => u.name).join(', ')}): it stays as their record`);
+    const named = tx.select({ id: logImports.id }).from(logImports).where(eq(logImports.planId, planId)).get();
+    if (named) throw conflict(`Plan "${plan.name}" was chosen for the rows of log import ${named.id}: it stays as that import's record`);
+    tx.delete(plans).where(eq(plans.id, planId)).run();
+    recordAudit(tx, { organizationId: user.organizationId, actorId: user.id, entityType: 'plan', entityId: planId, action: 'deleted', before: { name: plan.name, siteId: plan.siteId, fileId: plan.fileId }, at: deps.clock.now() });
+  });
 }
 
 /** The stored image of a plan the caller may see: path, type and hash (for the ETag). */

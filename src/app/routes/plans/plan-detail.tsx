@@ -1,12 +1,13 @@
 import { useState } from 'react';
-import { Link, useParams } from 'react-router';
-import { PenLine, Plus } from 'lucide-react';
+import { Link, useNavigate, useParams } from 'react-router';
+import { PenLine, Plus, Trash2 } from 'lucide-react';
 import { can } from '@shared/policy';
 import type { Zone } from '@shared/schemas/zones';
 import type { PlanPoint } from '@shared/spatial/polygon';
 import { useCurrentUser } from '@/app/current-user';
 import { usePlan } from '@/features/plans/api/get-plan';
 import { useZones } from '@/features/plans/api/get-zones';
+import { useDeletePlan } from '@/features/plans/api/delete-plan';
 import { useSurveys } from '@/features/surveys/api/get-surveys';
 import { PlanEditorMap, type EditorMode } from '@/features/plans/components/plan-editor-map';
 import { ScaleForm, type ScalePick } from '@/features/plans/components/scale-form';
@@ -16,6 +17,7 @@ import { Page, PageHeader } from '@/components/ui/page';
 import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { Button } from '@/components/ui/button';
 import { EmptyState, QueryState } from '@/components/ui/states';
+import { FormError } from '@/components/ui/form-error';
 
 /** One plan: set its scale, draw and edit its zones, open a survey on it. */
 export function PlanDetailRoute() {
@@ -28,6 +30,12 @@ export function PlanDetailRoute() {
   const [mode, setMode] = useState<EditorMode>({ kind: 'view' });
   const [scalePick, setScalePick] = useState<ScalePick>({ active: false, points: [] });
   const [editing, setEditing] = useState<{ zone: Zone | null; corners: PlanPoint[] | null } | null>(null);
+  const removePlan = useDeletePlan();
+  const navigate = useNavigate();
+  const deleteThisPlan = (siteId: number, name: string) => {
+    if (!window.confirm(`Delete the plan "${name}"? Only a plan with no zones and no readings on it can be deleted.`)) return;
+    removePlan.mutate({ planId, siteId }, { onSuccess: () => navigate(`/plans?site=${siteId}`) });
+  };
 
   const startZone = () => { setEditing({ zone: null, corners: null }); setMode({ kind: 'draw' }); };
   const editZone = (z: Zone) => { setEditing({ zone: z, corners: z.polygon }); setMode({ kind: 'edit', zoneId: z.id }); };
@@ -40,7 +48,11 @@ export function PlanDetailRoute() {
         {(p) => (
           <>
             <PageHeader eyebrow={<Link to={`/plans?site=${p.siteId}`} className="hover:underline">Plans</Link>} title={p.name}
-              description={p.widthM && p.heightM ? `${Math.round(p.widthM * 10) / 10} × ${Math.round(p.heightM * 10) / 10} m · ${p.widthPx} × ${p.heightPx} px` : 'The scale is not set yet: set it before drawing zones.'} />
+              description={p.widthM && p.heightM ? `${Math.round(p.widthM * 10) / 10} × ${Math.round(p.heightM * 10) / 10} m · ${p.widthPx} × ${p.heightPx} px` : 'The scale is not set yet: set it before drawing zones.'}
+              actions={canEdit && !editing ? (
+                <Button variant="ghost" busy={removePlan.isPending} onClick={() => deleteThisPlan(p.siteId, p.name)}><Trash2 className="h-4 w-4" aria-hidden />Delete plan</Button>
+              ) : undefined} />
+            {removePlan.error && <div className="mb-4"><FormError error={removePlan.error} /></div>}
             <div className="grid gap-6 xl:grid-cols-[1fr_24rem]">
               <div className="min-w-0 space-y-2">
                 <PlanEditorMap plan={p} zones={zones.data?.items ?? []} mode={mode} scalePick={scalePick} onScalePick={onScalePick}
