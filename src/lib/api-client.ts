@@ -38,10 +38,10 @@ export type UploadProgress = { loaded: number; total: number; fraction: number }
 /**
  * Multipart upload with transfer progress (fetch cannot report upload progress; XHR can).
  */
-function upload<T>(path: string, form: FormData, onProgress?: (p: UploadProgress) => void, signal?: AbortSignal): Promise<T> {
+function upload<T>(path: string, form: FormData, onProgress?: (p: UploadProgress) => void, signal?: AbortSignal, method: 'POST' | 'PUT' = 'POST'): Promise<T> {
   return new Promise((resolve, reject) => {
     const xhr = new XMLHttpRequest();
-    xhr.open('POST', `/api${path}`);
+    xhr.open(method, `/api${path}`);
     xhr.withCredentials = true;
     xhr.upload.onprogress = (e) => {
       if (e.lengthComputable) onProgress?.({ loaded: e.loaded, total: e.total, fraction: e.total ? e.loaded / e.total : 0 });

@@ -11,15 +11,15 @@ let app: E2eApp;
 beforeAll(async () => { app = await startE2eApp(); });
 afterAll(async () => { await app?.stop(); });
 
-/** A plain 800 x 500 px plan with an outline, as a file to upload. */
-function planImageFile(): string {
-  const png = new PNG({ width: 800, height: 500 });
-  for (let y = 0; y < 500; y++) for (let x = 0; x < 800; x++) {
-    const i = (y * 800 + x) * 4;
-    const wall = x < 6 || y < 6 || x > 793 || y > 493 || (x > 396 && x < 404);
+/** A plain plan image (800 x 500 px unless asked) with an outline and a middle wall, as a file to upload. */
+function planImageFile(width = 800, height = 500): string {
+  const png = new PNG({ width, height });
+  for (let y = 0; y < height; y++) for (let x = 0; x < width; x++) {
+    const i = (y * width + x) * 4;
+    const wall = x < 6 || y < 6 || x > width - 7 || y > height - 7 || Math.abs(x - width / 2) < 4;
     png.data.set(wall ? [50, 54, 60, 255] : [246, 244, 238, 255], i);
   }
-  const file = path.join(fs.mkdtempSync(path.join(os.tmpdir(), 'plan-')), 'e2e-floor.png');
+  const file = path.join(fs.mkdtempSync(path.join(os.tmpdir(), 'plan-')), `e2e-floor-${width}x${height}.png`);
   fs.writeFileSync(file, PNG.sync.write(png));
   return file;
 }
@@ -135,7 +135,7 @@ describe('plans and the survey map in a real browser', () => {
     for (const c of [[2, 2], [8, 2], [2, 8]]) expect(polygon.some(([x, y]) => Math.abs(x - c[0]) < 0.01 && Math.abs(y - c[1]) < 0.01)).toBe(true);
   });
 
-  it('deletes a plan uploaded by mistake; one with a zone is refused with the reason shown', async () => {
+  it('replaces a plan\'s image keeping its zone, and deletes a plan uploaded by mistake; one with a zone is refused with the reason shown', async () => {
     const page = await app.newPage();
     await signInAs(page, 'surveyor@luxtrail.test');
     const { site } = await demoIds(page);
@@ -151,6 +151,16 @@ describe('plans and the survey map in a real browser', () => {
     await page.goto(`/plans/${keep.id}`);
     await page.getByRole('button', { name: 'Delete plan' }).click();
     await page.getByRole('alert').getByText('Plan "E2E plan with a zone" has 1 zone(s): delete them first, then the plan').waitFor();
+
+    // The kept plan gets a revised drawing at twice the resolution: it stays 20 m wide, its zone stays put.
+    await page.getByLabel('New image').setInputFiles(planImageFile(1600, 1000));
+    await page.getByRole('button', { name: 'Replace image' }).click();
+    await page.getByRole('status').getByText('The plan image was replaced.').waitFor();
+    const revised = await (await page.request.get(`/api/plans/${keep.id}`)).json() as { widthPx: number; widthM: number };
+    expect(revised).toMatchObject({ widthPx: 1600, widthM: 20 });
+    const kept = (await (await page.request.get(`/api/plans/${keep.id}/zones`)).json()).items as { polygon: [number, number][] }[];
+    expect(kept[0].polygon).toEqual([[2, 2], [8, 2], [8, 8], [2, 8]]);
+    await page.getByTestId('plan-editor-map').locator('.leaflet-image-layer').waitFor();
 
     await page.goto(`/plans/${wrong.id}`);
     await page.getByRole('button', { name: 'Delete plan' }).click();

@@ -284,3 +284,51 @@ describe('DELETE /api/plans/:id', () => {
     expect((await other.get(`/api/plans/${plan.id}`)).status).toBe(200);
   });
 });
+
+describe('PUT /api/plans/:id/image', () => {
+  const replace = (c: TestClient, planId: number, image: Buffer, filename = 'revised.png') =>
+    c.put(`/api/plans/${planId}/image`).attach('file', image, { filename, contentType: 'image/png' });
+
+  it('a revised image at twice the resolution, when it replaces the plan\'s, keeps the width in metres, so zones keep their coordinates', async () => {
+    const plan = (await upload(surveyor, siteId, pngOf(200, 100, 50), { name: 'To be revised', widthM: '20' })).body as { id: number; imageSha256: string; imageUrl: string };
+    const zone = (await surveyor.post(`/api/plans/${plan.id}/zones`).send({ name: 'Hall', kind: 'room', useType: 'corridor', polygon: [[1, 1], [19, 1], [19, 9], [1, 9]] })).body as { polygon: [number, number][] };
+    const res = await replace(surveyor, plan.id, pngOf(400, 200, 51));
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    // 20 m over 400 px: 0.05 m per pixel; the height follows the image (200 px = 10 m).
+    expect(res.body).toMatchObject({ widthPx: 400, heightPx: 200, metresPerPixel: 0.05, widthM: 20, heightM: 10 });
+    expect(res.body.imageSha256).not.toBe(plan.imageSha256);
+    // The new image is served at a new address (no cache can show the old one).
+    const image = await surveyor.get(res.body.imageUrl).buffer(true);
+    expect(image.status).toBe(200);
+    expect(image.headers.etag).toBe(`"${res.body.imageSha256}"`);
+    expect(res.body.imageUrl).not.toBe(plan.imageUrl);
+    const zones = (await surveyor.get(`/api/plans/${plan.id}/zones`)).body.items as { polygon: [number, number][] }[];
+    expect(zones[0].polygon).toEqual(zone.polygon);
+    const audit = t.db.select().from(auditEvents).where(eq(auditEvents.entityType, 'plan')).all().find((a) => a.entityId === plan.id && a.action === 'image_replaced');
+    expect(audit?.before).toMatchObject({ widthPx: 200, heightPx: 100, metresPerPixel: 0.1 });
+    expect(audit?.after).toMatchObject({ widthPx: 400, heightPx: 200, metresPerPixel: 0.05 });
+  });
+
+  it('an image of other proportions that would cut a zone off, when it replaces the plan\'s, answers 422 naming the zone, and the plan stays as it was', async () => {
+    const plan = (await upload(surveyor, siteId, pngOf(200, 100, 52), { name: 'Tall zone plan', widthM: '20' })).body as { id: number };
+    await surveyor.post(`/api/plans/${plan.id}/zones`).send({ name: 'Deep room', kind: 'room', useType: 'corridor', polygon: [[1, 1], [5, 1], [5, 9], [1, 9]] });
+    // 200 x 50 px at 20 m wide: 5 m high, but the zone reaches 9 m.
+    const res = await replace(surveyor, plan.id, pngOf(200, 50, 53));
+    expect(res.status).toBe(422);
+    expect(res.body.error.message).toBe('Zone "Deep room" reaches 9.00 m up, but at this plan\'s width (20.00 m) the new image is only 5.00 m high: use an image of the same drawing with the same proportions, or redraw the zone');
+    expect((await surveyor.get(`/api/plans/${plan.id}`)).body).toMatchObject({ widthPx: 200, heightPx: 100, metresPerPixel: 0.1 });
+  });
+
+  it('a file that is not an image, when it replaces the plan\'s, answers 415 and the plan keeps its image', async () => {
+    const plan = (await upload(surveyor, siteId, pngOf(120, 90, 54), { name: 'Keeps its image' })).body as { id: number; imageSha256: string };
+    const res = await replace(surveyor, plan.id, Buffer.from('timestamp,probe\n'), 'notes.png');
+    expect(res.status).toBe(415);
+    expect((await surveyor.get(`/api/plans/${plan.id}`)).body.imageSha256).toBe(plan.imageSha256);
+  });
+
+  it('another organisation\'s plan, when its image is replaced, answers 404', async () => {
+    const other = await t.signIn(DEMO.otherAdmin);
+    const plan = (await upload(other, otherSiteId, pngOf(120, 90, 55), { name: 'Not yours' })).body as { id: number };
+    expect((await replace(surveyor, plan.id, pngOf(120, 90, 56))).status).toBe(404);
+  });
+});

@@ -4,7 +4,7 @@ import type { Deps } from '../../deps';
 import { idParamsSchema } from '@shared/schemas/common';
 import { createPlanFieldsSchema, PLAN_IMAGE_MAX_BYTES, planListResponseSchema, planSchema, surveyMapQuerySchema, surveyMapResponseSchema, updatePlanBodySchema } from '@shared/schemas/plans';
 import { singleFileUpload } from '../../http/upload';
-import { createPlan, deletePlan, getPlan, listPlans, planImage, updatePlan } from './plans-service';
+import { createPlan, deletePlan, getPlan, listPlans, planImage, replacePlanImage, updatePlan } from './plans-service';
 import { surveyMap } from './survey-map-service';
 
 export function registerPlanRoutes(api: Api, deps: Deps) {
@@ -26,6 +26,13 @@ export function registerPlanRoutes(api: Api, deps: Deps) {
 
   api.route({ method: 'delete', path: '/plans/:id', access: 'plans.write', tag: 'plans', summary: 'Delete an unused plan (no zones, no readings placed on it); otherwise 409 says what holds it', params: idParamsSchema },
     ({ user, params }) => { deletePlan(deps, user, params.id); });
+
+  api.route({
+    method: 'put', path: '/plans/:id/image', access: 'plans.write', tag: 'plans', summary: 'Replace the plan image; the plan keeps its width in metres, so zones and readings keep their place (422 if a zone would reach beyond the new image)',
+    params: idParamsSchema, response: planSchema,
+    before: singleFileUpload(deps, 'file', Math.min(PLAN_IMAGE_MAX_BYTES, deps.config.uploadLimitBytes)),
+    multipart: { file: 'file' },
+  }, ({ user, params, req }) => replacePlanImage(deps, user, params.id, req.file!));
 
   api.route({ method: 'get', path: '/plans/:id/image', access: 'sites.read', tag: 'plans', summary: 'The plan image (ETag is its SHA-256)', params: idParamsSchema, produces: 'image/*' },
     ({ user, params, req, res }) => {

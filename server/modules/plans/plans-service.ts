@@ -45,7 +45,8 @@ function presentPlans(db: Db, rows: PlanRow[]): Plan[] {
     return {
       id: r.id, siteId: r.siteId, name: r.name, widthPx: r.widthPx, heightPx: r.heightPx, metresPerPixel: r.metresPerPixel,
       widthM: extent?.widthM ?? null, heightM: extent?.heightM ?? null,
-      imageUrl: `/api/plans/${r.id}/image`, imageSha256: file.sha256, contentType: file.contentType,
+      // The content hash in the address: a replaced image is a new URL, so no cache shows the old one.
+      imageUrl: `/api/plans/${r.id}/image?v=${file.sha256.slice(0, 16)}`, imageSha256: file.sha256, contentType: file.contentType,
       zoneCount: counts.find((c) => c.planId === r.id)?.n ?? 0,
       createdAt: new Date(r.createdAt).toISOString(),
     };
@@ -74,15 +75,21 @@ async function displayedImageSize(filePath: string): Promise<{ widthPx: number; 
   return turned ? { widthPx: size.height, heightPx: size.width } : { widthPx: size.width, heightPx: size.height };
 }
 
+/** An uploaded plan image's type and displayed size, or 415 / 422 saying what is wrong with it. */
+async function checkedPlanImage(filePath: string) {
+  const contentType = await sniffFile(filePath, 'image');
+  const { widthPx, heightPx } = await displayedImageSize(filePath);
+  if (widthPx > PLAN_IMAGE_MAX_SIDE_PX || heightPx > PLAN_IMAGE_MAX_SIDE_PX) {
+    throw unprocessable(`The plan image is ${widthPx} x ${heightPx} pixels; export it with no side over ${PLAN_IMAGE_MAX_SIDE_PX} pixels`);
+  }
+  return { contentType, widthPx, heightPx };
+}
+
 /** Checks the upload's content and size, keeps it by content hash, and records the plan. */
 export async function createPlan(deps: Deps, user: SessionUser, siteId: number, upload: { path: string; originalname: string }, fields: CreatePlanFields): Promise<Plan> {
   try {
     findVisibleSite(deps.db, user, siteId);
-    const contentType = await sniffFile(upload.path, 'image');
-    const { widthPx, heightPx } = await displayedImageSize(upload.path);
-    if (widthPx > PLAN_IMAGE_MAX_SIDE_PX || heightPx > PLAN_IMAGE_MAX_SIDE_PX) {
-      throw unprocessable(`The plan image is ${widthPx} x ${heightPx} pixels; export it with no side over ${PLAN_IMAGE_MAX_SIDE_PX} pixels`);
-    }
+    const { contentType, widthPx, heightPx } = await checkedPlanImage(upload.path);
     const file = await keepUploadedFile(deps, { organizationId: user.organizationId, userId: user.id, tmpPath: upload.path, filename: upload.originalname || 'plan', contentType });
     const now = deps.clock.now();
     const row = deps.db.transaction((tx) => {
@@ -130,6 +137,42 @@ export function updatePlan(deps: Deps, user: SessionUser, planId: number, body: 
     });
   });
   return getPlan(deps.db, user, planId);
+}
+
+/**
+ * Replaces a plan's image (a cleaner scan, a revised drawing of the same floor). The plan keeps its
+ * width in metres, so zones and readings keep their coordinates; its height follows the new image.
+ * A zone that would reach beyond the new image answers 422 naming it, and nothing changes.
+ */
+export async function replacePlanImage(deps: Deps, user: SessionUser, planId: number, upload: { path: string; originalname: string }): Promise<Plan> {
+  try {
+    const plan = findVisiblePlan(deps.db, user, planId);
+    const { contentType, widthPx, heightPx } = await checkedPlanImage(upload.path);
+    const widthM = plan.metresPerPixel === null ? null : plan.metresPerPixel * plan.widthPx;
+    const metresPerPixel = widthM === null ? null : widthM / widthPx;
+    if (metresPerPixel !== null) {
+      const heightM = heightPx * metresPerPixel;
+      // A millimetre of slack: corners drawn on the old image's edge stay on the new one's.
+      const beyond = deps.db.select({ name: zones.name, polygon: zones.polygon }).from(zones).where(eq(zones.planId, planId)).all()
+        .find((z) => z.polygon.some(([, y]) => y > heightM + 0.001));
+      if (beyond) {
+        const top = Math.max(...beyond.polygon.map(([, y]) => y));
+        throw unprocessable(`Zone "${beyond.name}" reaches ${top.toFixed(2)} m up, but at this plan's width (${widthM!.toFixed(2)} m) the new image is only ${heightM.toFixed(2)} m high: use an image of the same drawing with the same proportions, or redraw the zone`);
+      }
+    }
+    const file = await keepUploadedFile(deps, { organizationId: user.organizationId, userId: user.id, tmpPath: upload.path, filename: upload.originalname || 'plan', contentType });
+    deps.db.transaction((tx) => {
+      tx.update(plans).set({ fileId: file.id, widthPx, heightPx, metresPerPixel }).where(eq(plans.id, planId)).run();
+      recordAudit(tx, {
+        organizationId: user.organizationId, actorId: user.id, entityType: 'plan', entityId: planId, action: 'image_replaced',
+        before: { fileId: plan.fileId, widthPx: plan.widthPx, heightPx: plan.heightPx, metresPerPixel: plan.metresPerPixel },
+        after: { fileId: file.id, widthPx, heightPx, metresPerPixel, sha256: file.sha256 }, at: deps.clock.now(),
+      });
+    });
+    return getPlan(deps.db, user, planId);
+  } finally {
+    fs.rmSync(upload.path, { force: true });
+  }
 }
 
 /**

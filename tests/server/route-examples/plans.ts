@@ -38,6 +38,10 @@ export const planExamples: RouteExamples = {
   'GET /plans/:id': async (t) => ({ path: `/api/plans/${(await examplePlan(t)).planId}` }),
   'PATCH /plans/:id': async (t) => ({ path: `/api/plans/${(await examplePlan(t)).planId}`, body: { scalePoints: [[0, 0], [50, 0]], distanceM: 5 } }),
   'DELETE /plans/:id': async (t) => ({ path: `/api/plans/${(await examplePlan(t)).planId}`, okStatus: 204 }),
+  'PUT /plans/:id/image': async (t) => ({
+    path: `/api/plans/${(await examplePlan(t)).planId}/image`,
+    files: { file: { content: pngOf(100, 80, n++), filename: 'revised.png', contentType: 'image/png' } },
+  }),
   'GET /plans/:id/image': async (t) => ({ path: `/api/plans/${(await examplePlan(t)).planId}/image` }),
   'GET /plans/:id/zones': async (t) => ({ path: `/api/plans/${(await examplePlan(t)).planId}/zones` }),
   'POST /plans/:id/zones': async (t) => ({ path: `/api/plans/${(await examplePlan(t)).planId}/zones`, body: room, okStatus: 201 }),

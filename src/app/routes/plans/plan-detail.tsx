@@ -11,6 +11,7 @@ import { useDeletePlan } from '@/features/plans/api/delete-plan';
 import { useSurveys } from '@/features/surveys/api/get-surveys';
 import { PlanEditorMap, type EditorMode } from '@/features/plans/components/plan-editor-map';
 import { ScaleForm, type ScalePick } from '@/features/plans/components/scale-form';
+import { PlanImageForm } from '@/features/plans/components/plan-image-form';
 import { ZoneForm } from '@/features/plans/components/zone-form';
 import { ZoneList } from '@/features/plans/components/zone-list';
 import { Page, PageHeader } from '@/components/ui/page';
@@ -83,6 +84,12 @@ export function PlanDetailRoute() {
                     </QueryState>
                   </CardBody>
                 </Card>
+                {canEdit && (
+                  <Card>
+                    <CardHeader title="Image" description="A revised drawing of the same floor replaces the image; zones and readings stay where they are in metres." />
+                    <CardBody><PlanImageForm plan={p} /></CardBody>
+                  </Card>
+                )}
                 {can(user.role, 'surveys.read') && (
                   <Card>
                     <CardHeader title="Surveys on this plan" description="Open a survey's readings on this plan." />
