@@ -197,6 +197,18 @@ describe('judgeZones: daylight factor', () => {
     expect(z.dfWarning).toMatch(/changed too fast/);
   });
 
+  it('over-range outdoor reference readings (direct sun), when judged, are left out of the pairing and a warning says how many', () => {
+    const rs = withReference(() => 10_000);
+    // The last two reference samples saturate: lower bounds, not levels.
+    const ref = rs.filter((r) => r.role === 'reference');
+    for (const r of ref.slice(-2)) Object.assign(r, { lux: 150_000, luxBound: 'lower', flag: 'over_range' });
+    const res = judgeZones({ zones: [zone(target(100))], readings: rs, rule: 'guarded', daylightExcluded: false });
+    expect(res.warnings.some((w) => w.startsWith('2 outdoor reference reading(s) were over range'))).toBe(true);
+    // Points still bracketed by exact samples keep DF = 200 / 10,000 = 2 %; none is computed from a bound.
+    expect(Object.values(res.zones[0].pointDf ?? {}).every((df) => Math.abs(df - 2) < 1e-9)).toBe(true);
+    expect(Object.keys(res.zones[0].pointDf ?? {}).length).toBeGreaterThan(0);
+  });
+
   it('a survey with daylight excluded, when judged, gives no daylight factor', () => {
     const res = judgeZones({ zones: [zone(target(100))], readings: withReference(() => 10_000), rule: 'guarded', daylightExcluded: true });
     expect(res.zones[0].dfAvg).toBeUndefined();

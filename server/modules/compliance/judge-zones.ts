@@ -130,6 +130,12 @@ export function judgeZones(input: {
   let reference: OutdoorReference | null = null;
   if (hasDaylightReference && !input.daylightExcluded) reference = createOutdoorReference(referenceReadings.map((r) => ({ timeMs: r.timeMs, lux: r.lux as number })));
   if (hasDaylightReference && input.daylightExcluded) warnings.push('Daylight was excluded during this survey: no daylight factor is given.');
+  // An over-range outdoor reading is a lower bound on Eo (direct sun beyond the probe's range):
+  // the daylight factor is defined for an overcast sky, so such moments are left unpaired, and said so.
+  const brightReference = input.readings.filter((r) => r.role === 'reference' && r.lux !== null && r.luxBound === 'lower').length;
+  if (brightReference > 0 && !input.daylightExcluded) {
+    warnings.push(`${brightReference} outdoor reference reading(s) were over range (sky brighter than the probe's range, likely direct sun): they are left out of the daylight pairing, since the daylight factor is defined for an overcast sky.`);
+  }
 
   const zones = input.zones.map((z): JudgedZone => {
     const { included, wallBand } = inZone.get(z.id)!;
