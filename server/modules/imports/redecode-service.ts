@@ -9,10 +9,11 @@ import { conflict, unprocessable } from '../../http/errors';
 import { loadDecodingCalibration } from '../probes/probe-calibration';
 import { recordAudit } from '../audit/audit-service';
 import { getSurveyRow } from '../surveys/surveys-service';
-import { createLogDecoder, type DecodedReading, type SampleProblem } from './log-decoder';
+import { createLogDecoder, type SampleProblem } from './log-decoder';
 import { surveysBeingRedecoded } from './imports-service';
 import { pagesOfSamples } from './sample-blocks';
-import { encodeBudget } from '../readings/stored-budget.mjs';
+import { createBatchBuilder } from './batch-format.mjs';
+import { createBatchWriter } from './batch-writer.mjs';
 
 /**
  * Re-decodes every kept sample of a survey's accepted imports with the approved coefficient sets
@@ -33,16 +34,18 @@ export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: n
   try {
     const calibration = loadDecodingCalibration(deps.db, actor.organizationId);
     const serialOf = new Map([...calibration.values()].map((c) => [c.probeId, c.serial]));
-    const insert = deps.db.$client.prepare(`insert into readings (survey_id, decode_id, import_id, point, x_m, y_m, plan_id, role, time_ms, probe_id, lux, u_lux, lux_bound, flag, gain_code, sample_count, chosen_sample, coefficient_set_id, budget, note)
-      values (${survey.id}, ${decode.id}, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`);
-    const writeMany = deps.db.$client.transaction((importId: number, rs: DecodedReading[]) => {
-      for (const r of rs) insert.run(importId, r.point, r.xM, r.yM, r.planId, r.role, r.timeMs, r.probeId, r.lux, r.uLux, r.luxBound, r.flag, r.gainCode, r.samples, r.chosenSample, r.coefficientSetId, encodeBudget(r.budget), r.note);
-    });
     let count = 0;
     const problems: SampleProblem[] = [];
     for (const imp of imports) {
-      let out: DecodedReading[] = [];
-      const decoder = createLogDecoder(calibration, (r) => out.push(r), (p) => { if (problems.length < 200) problems.push(p); });
+      // The import's own writer: the same readings insert the import used, under the new decode.
+      const write = createBatchWriter(deps.db.$client, { importId: imp.id, surveyId: survey.id, decodeId: decode.id });
+      const batch = createBatchBuilder();
+      const flush = () => {
+        count += batch.readingRows;
+        const taken = batch.take();
+        if (problems.length === 0 && taken.readingRows > 0) write(taken);
+      };
+      const decoder = createLogDecoder(calibration, (r) => batch.addReading(r), (p) => { if (problems.length < 200) problems.push(p); });
       for (const page of pagesOfSamples(deps.db, imp.id)) {
         for (const s of page) {
           decoder.push({
@@ -51,14 +54,11 @@ export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: n
             intMs: s.intMs ?? undefined, tempC: s.tempC ?? undefined, xM: s.xM, yM: s.yM, planId: s.planId, role: s.role, note: s.note,
           });
         }
-        if (problems.length === 0) writeMany(imp.id, out);
-        count += out.length;
-        out = [];
+        flush();
         await yieldToEventLoop();
       }
       decoder.finish();
-      if (problems.length === 0) writeMany(imp.id, out);
-      count += out.length;
+      flush();
     }
     if (problems.length > 0) {
       throw unprocessable(`The current coefficient sets cannot decode this survey's samples (first: line ${problems[0].line}, ${problems[0].column}: ${problems[0].message}); nothing was changed`, problems);
