@@ -6,22 +6,21 @@
 /** The parts a budget can have, in the order the measurement core lists them. */
 export const BUDGET_PARTS = ['calibration', 'quantisation', 'dark_offset', 'temperature', 'transmitter'];
 const KEYS = ['c', 'q', 'd', 't', 'x'];
-const KEY_OF = Object.fromEntries(BUDGET_PARTS.map((name, i) => [name, KEYS[i]]));
 const NAME_OF = Object.fromEntries(BUDGET_PARTS.map((name, i) => [KEYS[i], name]));
 
 /** The budget as stored, e.g. {"c":0.02,"q":0.0001,"d":0.003,"t":0.004}; non-finite parts are left out. */
 export function encodeBudget(parts) {
-  let out = '{';
+  const slots = BUDGET_PARTS.map(() => NaN);
   for (const p of parts) {
-    if (!Number.isFinite(p.uRel)) continue;
-    out += `${out.length > 1 ? ',' : ''}"${KEY_OF[p.name]}":${p.uRel}`;
+    const i = BUDGET_PARTS.indexOf(p.name);
+    if (i >= 0) slots[i] = p.uRel;
   }
-  return `${out}}`;
+  return encodeBudgetSlots(slots, 0);
 }
 
 /**
- * The same text from the parts' uRel at values[offset + i] for BUDGET_PARTS[i] (NaN: no such
- * part): what the writer thread stores for a reading a batch carries as numbers.
+ * The stored text from the parts' uRel at values[offset + i] for BUDGET_PARTS[i] (NaN: no such
+ * part), in that order: how the writer thread stores a reading a batch carries as numbers.
  */
 export function encodeBudgetSlots(values, offset) {
   let out = '{';
