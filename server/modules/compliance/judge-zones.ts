@@ -175,8 +175,8 @@ export function judgeZones(input: {
     if (reference && z.kind !== 'outdoor') {
       const pairs = pairDaylight(included, reference);
       pairs.forEach((p, i) => { if (p.ok && p.bound === 'exact') pointDf[included[i].id] = p.dfPercent; });
-      const ok = pairs.filter((p) => p.ok && p.bound === 'exact');
-      if (ok.length > 0) dfAvg = mean(ok.map((p) => (p.ok ? p.dfPercent : 0)));
+      const factors = Object.values(pointDf);
+      if (factors.length > 0) dfAvg = mean(factors);
       const refused = pairs.filter((p) => !p.ok).length;
       if (refused > 0) reasons.push(`${refused} point(s) could not be paired with the outdoor reference.`);
       const fast = pairs.filter((p) => p.ok && p.warning !== null);
