@@ -60,7 +60,8 @@ describe('the server process', () => {
     if (!hadIndex) fs.writeFileSync('dist/index.html', '<!doctype html><title>placeholder</title>');
     const s = runServer({ DATA_DIR: dir, DATABASE_URL: path.join(dir, 'db.sqlite'), PORT: '0' });
     try {
-      const deadline = Date.now() + 25_000;
+      // Seeding the demo on a busy 2-core machine can take a minute; the deadline only bounds a hang.
+      const deadline = Date.now() + 100_000;
       while (!/serving on http:\/\/localhost:(\d+)/.test(s.output())) {
         if (Date.now() > deadline) throw new Error(`did not start: ${s.output()}`);
         await new Promise((r) => setTimeout(r, 100));
@@ -76,5 +77,5 @@ describe('the server process', () => {
       if (!hadIndex) fs.rmSync('dist/index.html', { force: true });
       s.child.kill('SIGKILL');
     }
-  }, 40_000);
+  }, 120_000);
 });
