@@ -22,6 +22,7 @@ import { registerPlanRoutes } from './modules/plans/plans-routes';
 import { registerZoneRoutes } from './modules/zones/zones-routes';
 import { registerSurveyFeatureRoutes } from './modules/surveys/survey-feature-routes';
 import { registerComplianceFeatureRoutes } from './modules/compliance/compliance-feature-routes';
+import { registerEmergencyRoutes } from './modules/emergency/emergency-routes';
 
 export const SESSION_TTL_MS = 8 * 3600_000;
 
@@ -91,6 +92,7 @@ export function createApp(deps: Deps, options: AppOptions = {}) {
   registerZoneRoutes(api, deps);
   registerSurveyFeatureRoutes(api, deps);
   registerComplianceFeatureRoutes(api, deps);
+  registerEmergencyRoutes(api, deps);
 
   const openApi = api.openApiDocument();
   app.get('/api/openapi.json', (_req, res) => { res.json(openApi); });

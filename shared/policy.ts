@@ -31,6 +31,7 @@ export const CAPABILITIES = {
   'audit.read': ['admin', 'calibration', 'facility_manager'],
   'targets.read': ['admin', 'surveyor', 'calibration', 'facility_manager'],
   'targets.write': ['admin'],
+  'logbook.write': ['admin', 'surveyor', 'facility_manager'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Capability = keyof typeof CAPABILITIES;
@@ -65,4 +66,5 @@ export const CAPABILITY_LABELS: Record<Capability, string> = {
   'audit.read': 'Read the audit trail',
   'targets.read': 'See the target library',
   'targets.write': 'Add and edit target entries',
+  'logbook.write': 'Record emergency lighting tests in a site\'s logbook',
 };

@@ -9,8 +9,9 @@ import * as calibration from './schema/calibration';
 import * as surveys from './schema/surveys';
 import * as plans from './schema/plans';
 import * as targets from './schema/targets';
+import * as emergency from './schema/emergency';
 
-export const schema = { ...organizations, ...calibration, ...surveys, ...plans, ...targets };
+export const schema = { ...organizations, ...calibration, ...surveys, ...plans, ...targets, ...emergency };
 export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
 
 const migrationsFolder = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../drizzle');

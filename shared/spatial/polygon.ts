@@ -70,22 +70,25 @@ export function polygonCentre(corners: readonly PlanPoint[]): PlanPoint {
   return polygonCentroid(corners as PlanPoint[]);
 }
 
+/** Shortest planar distance from p to an open polyline (projection onto each segment, clamped). */
+export function distanceToPolyline(p: PlanPoint, line: readonly PlanPoint[]): number {
+  if (line.length === 1) return Math.hypot(p[0] - line[0][0], p[1] - line[0][1]);
+  let best = Infinity;
+  for (let i = 1; i < line.length; i++) {
+    const a = line[i - 1], b = line[i];
+    const vx = b[0] - a[0], vy = b[1] - a[1];
+    const len2 = vx * vx + vy * vy;
+    const t = len2 === 0 ? 0 : Math.max(0, Math.min(1, ((p[0] - a[0]) * vx + (p[1] - a[1]) * vy) / len2));
+    best = Math.min(best, Math.hypot(p[0] - (a[0] + t * vx), p[1] - (a[1] + t * vy)));
+  }
+  return best;
+}
+
 /**
- * Shortest planar distance from a point to the polygon's outline, metres.
+ * Shortest planar distance from a point to the polygon's outline (the closed ring), metres.
  * Written here rather than taken from turf: turf's point-to-line distance is spherical
  * (rhumb or geodesic, in degrees), and plan metres are a flat frame.
  */
 export function distanceToOutline(p: PlanPoint, corners: readonly PlanPoint[]): number {
-  let best = Infinity;
-  for (let i = 0; i < corners.length; i++) {
-    const a = corners[i];
-    const b = corners[(i + 1) % corners.length];
-    const vx = b[0] - a[0], vy = b[1] - a[1];
-    const len2 = vx * vx + vy * vy;
-    // Projection of p onto segment a-b, clamped to the segment.
-    const t = len2 === 0 ? 0 : Math.max(0, Math.min(1, ((p[0] - a[0]) * vx + (p[1] - a[1]) * vy) / len2));
-    const d = Math.hypot(p[0] - (a[0] + t * vx), p[1] - (a[1] + t * vy));
-    if (d < best) best = d;
-  }
-  return best;
+  return corners.length === 0 ? Infinity : distanceToPolyline(p, [...corners, corners[0]]);
 }

@@ -8,9 +8,10 @@ import { surveyExamples } from './route-examples/surveys';
 import { planExamples } from './route-examples/plans';
 import { calibrationExamples } from './route-examples/calibration';
 import { complianceExamples } from './route-examples/compliance';
+import { emergencyExamples } from './route-examples/emergency';
 
 // Every feature adds its examples here; a route without one fails the first test.
-const EXAMPLES: RouteExamples = { ...foundationExamples, ...surveyExamples, ...planExamples, ...calibrationExamples, ...complianceExamples };
+const EXAMPLES: RouteExamples = { ...foundationExamples, ...surveyExamples, ...planExamples, ...calibrationExamples, ...complianceExamples, ...emergencyExamples };
 
 const ROLE_ACCOUNT: Record<Role, string> = {
   admin: DEMO.admin, surveyor: DEMO.surveyor, calibration: DEMO.calibration, facility_manager: DEMO.facility_manager,

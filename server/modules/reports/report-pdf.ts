@@ -17,16 +17,16 @@ const FONT_BOLD = require.resolve('@fontsource/instrument-sans/files/instrument-
 const FONT_SYMBOLS = require.resolve('@fontsource/dejavu-sans/files/dejavu-sans-latin-400-normal.woff');
 const FONT_SYMBOLS_BOLD = require.resolve('@fontsource/dejavu-sans/files/dejavu-sans-latin-700-normal.woff');
 const SYMBOL_CHARS = /[±≤≥]+/g;
-type FontName = 'body' | 'bold';
+export type FontName = 'body' | 'bold';
 const SYMBOL_FONT: Record<FontName, string> = { body: 'symbols', bold: 'symbols-bold' };
 
 export type ReportUnit = 'lx' | 'fc';
 
 /** Luxtrail's verdict palette for print: each verdict is also written out, never shown by colour alone. */
-const VERDICT_COLOURS: Record<ZoneVerdict, string> = { meets: '#2d6a4f', falls_short: '#b42318', inconclusive: '#a15c07', not_assessed: '#5b616e' };
-const INK = '#1d2330';
-const MUTED = '#5b616e';
-const RULE_LINE = '#c9ced8';
+export const VERDICT_COLOURS: Record<ZoneVerdict, string> = { meets: '#2d6a4f', falls_short: '#b42318', inconclusive: '#a15c07', not_assessed: '#5b616e' };
+export const INK = '#1d2330';
+export const MUTED = '#5b616e';
+export const RULE_LINE = '#c9ced8';
 
 export const REPORT_CAUTIONS = [
   'This report supports decisions about lighting; it does not certify emergency lighting or replace the judgement of a qualified lighting professional.',
@@ -39,13 +39,13 @@ export const UNCERTAINTY_STATEMENT =
   + 'combined from calibration, quantisation, dark offset, temperature and, for analog probes, transmitter accuracy (JCGM 100:2008, the GUM). '
   + 'The uncertainty of a zone average keeps the calibration part undiminished, since every point shares it.';
 
-const A4 = { width: 595.28, height: 841.89 };
-const MARGIN = 48;
-const CONTENT_W = A4.width - 2 * MARGIN;
+export const A4 = { width: 595.28, height: 841.89 };
+export const MARGIN = 48;
+export const CONTENT_W = A4.width - 2 * MARGIN;
 
-/** Renders the survey report as a PDF (pdfkit, vector drawings, embedded font). */
-export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Promise<Buffer> {
-  const doc = new PDFDocument({ size: 'A4', margin: MARGIN, bufferPages: true, info: { Title: `${data.site.name}: ${data.survey.name}`, Author: data.organizationName, Creator: 'Luxtrail' } });
+/** An A4 report document with Luxtrail's fonts registered; `done` resolves to the PDF once `doc.end()` is called. */
+export function createReportDocument(info: { title: string; author: string }): { doc: PDFKit.PDFDocument; done: Promise<Buffer> } {
+  const doc = new PDFDocument({ size: 'A4', margin: MARGIN, bufferPages: true, info: { Title: info.title, Author: info.author, Creator: 'Luxtrail' } });
   doc.registerFont('body', FONT_REGULAR);
   doc.registerFont('bold', FONT_BOLD);
   doc.registerFont('symbols', FONT_SYMBOLS);
@@ -56,6 +56,12 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
     doc.on('end', () => resolve(Buffer.concat(chunks)));
     doc.on('error', reject);
   });
+  return { doc, done };
+}
+
+/** Renders the survey report as a PDF (pdfkit, vector drawings, embedded font). */
+export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Promise<Buffer> {
+  const { doc, done } = createReportDocument({ title: `${data.site.name}: ${data.survey.name}`, author: data.organizationName });
 
   const u = (lux: number | null | undefined) => formatIlluminance(lux, unit);
   const uWith = (lux: number | null, U: number | null) => (lux === null ? 'n/a' : U === null ? u(lux) : `${u(lux)} ± ${u(U)}`);
@@ -231,15 +237,15 @@ function signed(lux: number, unit: ReportUnit): string {
   return `${lux >= 0 ? '+' : '-'}${formatIlluminance(Math.abs(lux), unit)}`;
 }
 
-function formatDateTime(ms: number, timeZone: string): string {
+export function formatDateTime(ms: number, timeZone: string): string {
   return new Intl.DateTimeFormat('en-GB', { timeZone, dateStyle: 'medium', timeStyle: 'short' }).format(ms) + ` (${timeZone})`;
 }
 
-function formatDate(ms: number, timeZone: string): string {
+export function formatDate(ms: number, timeZone: string): string {
   return new Intl.DateTimeFormat('en-GB', { timeZone, dateStyle: 'medium' }).format(ms);
 }
 
-function section(doc: PDFKit.PDFDocument, title: string, first = false) {
+export function section(doc: PDFKit.PDFDocument, title: string, first = false) {
   if (!first) doc.moveDown(1);
   if (doc.y > A4.height - MARGIN - 80) doc.addPage();
   doc.font('bold').fontSize(13).fillColor(INK).text(title, MARGIN);
@@ -249,7 +255,7 @@ function section(doc: PDFKit.PDFDocument, title: string, first = false) {
 }
 
 /** Text in `font` (at a position, or flowing on), with any ±, ≤ or ≥ set in the symbol font of the same weight as continued runs. */
-function textWithSymbols(doc: PDFKit.PDFDocument, font: FontName, text: string, at: { x: number; y: number } | null, options: PDFKit.Mixins.TextOptions = {}) {
+export function textWithSymbols(doc: PDFKit.PDFDocument, font: FontName, text: string, at: { x: number; y: number } | null, options: PDFKit.Mixins.TextOptions = {}) {
   const runs: { text: string; symbol: boolean }[] = [];
   let from = 0;
   for (const m of text.matchAll(SYMBOL_CHARS)) {
@@ -273,7 +279,7 @@ function textWithSymbols(doc: PDFKit.PDFDocument, font: FontName, text: string, 
   doc.font(font);
 }
 
-function keyValues(doc: PDFKit.PDFDocument, rows: [string, string][]) {
+export function keyValues(doc: PDFKit.PDFDocument, rows: [string, string][]) {
   const keyW = 120;
   for (const [k, v] of rows) {
     const y = doc.y;
@@ -288,9 +294,9 @@ function keyValues(doc: PDFKit.PDFDocument, rows: [string, string][]) {
   doc.x = MARGIN;
 }
 
-type Cell = string | { text: string; colour: string };
+export type Cell = string | { text: string; colour: string };
 
-function table(doc: PDFKit.PDFDocument, columns: { title: string; width: number }[], rows: Cell[][]) {
+export function table(doc: PDFKit.PDFDocument, columns: { title: string; width: number }[], rows: Cell[][]) {
   const pad = 3;
   const drawRow = (cells: Cell[], header: boolean) => {
     doc.font(header ? 'bold' : 'body').fontSize(8.5);

@@ -1,0 +1,219 @@
+import { and, asc, desc, eq, inArray } from 'drizzle-orm';
+import type { Deps } from '../../deps';
+import type { Db } from '../../db/client';
+import { plans } from '../../db/schema/plans';
+import { sites, surveys } from '../../db/schema/surveys';
+import { emergencyResponses, emergencySurveys } from '../../db/schema/emergency';
+import type { SessionUser } from '@shared/schemas/auth';
+import { can } from '@shared/policy';
+import { RULE_TEXT } from '@shared/core/decision';
+import { combineElementVerdicts, EMERGENCY_PASSES, judgeEmergencyElement, type EmergencyPass, type EmergencyPoint, type EmergencyPointRole } from '@shared/core/emergency';
+import { passOfReading, passTimingWarnings } from '@shared/core/emergency-schedule';
+import { areaRoleAt, routeRoleAt } from '@shared/spatial/emergency-points';
+import { UPLOADABLE_STATUSES, type SurveyStatus } from '@shared/schemas/surveys';
+import {
+  createEmergencySurveyBodySchema, EMERGENCY_CAUTIONS, updateEmergencySurveyBodySchema,
+  type CreateEmergencySurveyBody, type ElementVerdict, type EmergencyConditions, type EmergencySurvey, type ResponseTimesBody,
+} from '@shared/schemas/emergency';
+import { conflict, notFound } from '../../http/errors';
+import { recordAudit } from '../audit/audit-service';
+import { getSiteRow, siteConditions } from '../sites/sites-service';
+import { getSurveyRow } from '../surveys/surveys-service';
+import { decisionRuleOf } from '../organization/organization-service';
+import { loadCurrentReadings } from '../compliance/compliance-repository';
+import { toCoreReading, type JudgeReading } from '../compliance/judge-zones';
+import { elementsOfPlans, presentElement, plannedPointsOf, type ElementRow } from './elements-service';
+import { presentCriteriaSet, requireCriteriaSet } from './criteria-service';
+
+type EmergencyRow = typeof emergencySurveys.$inferSelect;
+
+/** A positioned reading this close to a safety-equipment point is taken at it (project's choice). */
+export const EQUIPMENT_RADIUS_M = 1;
+
+function conditionsOf(r: EmergencyRow): EmergencyConditions {
+  return {
+    systemType: r.systemType, ratedDurationMin: r.ratedDurationMin, mainsOffAt: new Date(r.mainsOffAt).toISOString(),
+    normalLightingOff: r.normalLightingOff, daylightExcluded: r.daylightExcluded, ...(r.notes ? { notes: r.notes } : {}),
+  };
+}
+
+/** The survey and its emergency settings, if the caller may see it; a plain survey answers 404 here. */
+export function getEmergencySurveyRow(db: Db, user: SessionUser, surveyId: number) {
+  const survey = getSurveyRow(db, user, surveyId);
+  const em = db.select().from(emergencySurveys).where(eq(emergencySurveys.surveyId, survey.id)).get();
+  if (!em) throw notFound('Emergency survey');
+  return { survey, em };
+}
+
+function assertEditable(survey: { status: string; name: string }) {
+  if (!UPLOADABLE_STATUSES.includes(survey.status as SurveyStatus)) throw conflict(`Survey "${survey.name}" is ${survey.status.replace('_', ' ')}: its settings can change only while it is a draft or returned for changes`);
+}
+
+type Matched = { element: ElementRow; role: EmergencyPointRole; label: string; reading: JudgeReading; pass: EmergencyPass };
+
+/** Which element and role a reading belongs to: its label names a planned point, else its position lies on an element of its plan. */
+function matcher(elements: ElementRow[]) {
+  const byLabel = new Map<string, { element: ElementRow; role: EmergencyPointRole; label: string }>();
+  for (const e of elements) for (const p of plannedPointsOf(e)) byLabel.set(p.label.toLowerCase(), { element: e, role: p.role, label: p.label });
+  return (r: JudgeReading): { element: ElementRow; role: EmergencyPointRole; label: string } | null => {
+    const hit = byLabel.get(r.point.trim().toLowerCase());
+    if (hit) return hit;
+    if (r.xM === null || r.yM === null || r.planId === null) return null;
+    const at: [number, number] = [r.xM, r.yM];
+    for (const e of elements) {
+      if (e.planId !== r.planId) continue;
+      let role: EmergencyPointRole | null = null;
+      if (e.kind === 'escape_route') role = routeRoleAt(at, e.geometry, e.widthM ?? 0);
+      else if (e.kind === 'open_area') role = areaRoleAt(at, e.geometry, e.borderM ?? 0.5);
+      else if (e.kind === 'high_risk_area') role = areaRoleAt(at, e.geometry, 0);
+      else if (Math.hypot(at[0] - e.geometry[0][0], at[1] - e.geometry[0][1]) <= EQUIPMENT_RADIUS_M) role = 'equipment';
+      if (role) return { element: e, role, label: r.point };
+    }
+    return null;
+  };
+}
+
+/**
+ * Judges every element of the survey's site in each pass (shared/core/emergency) under the
+ * organisation's decision rule. Readings are split into passes by time from the mains failing
+ * (passOfReading); those before it belong to no pass and are counted.
+ */
+export function judgeEmergencySurvey(db: Db, user: SessionUser, surveyId: number): EmergencySurvey {
+  const { survey, em } = getEmergencySurveyRow(db, user, surveyId);
+  const set = requireCriteriaSet(db, user.organizationId, em.criteriaSetKey);
+  const rule = decisionRuleOf(db, user.organizationId);
+  const sitePlans = db.select().from(plans).where(eq(plans.siteId, survey.siteId)).orderBy(asc(plans.id)).all();
+  const elements = elementsOfPlans(db, sitePlans.map((p) => p.id));
+  const responses = db.select().from(emergencyResponses).where(eq(emergencyResponses.surveyId, survey.id)).all();
+  const readings = loadCurrentReadings(db, survey).filter((r) => r.role === 'task');
+  const match = matcher(elements);
+
+  let before = 0;
+  let unmatched = 0;
+  const matched: Matched[] = [];
+  const passTimes: { pass: EmergencyPass; timeMs: number }[] = [];
+  for (const r of readings) {
+    const pass = passOfReading(r.timeMs, em.mainsOffAt, em.ratedDurationMin);
+    if (pass === null) { before++; continue; }
+    passTimes.push({ pass, timeMs: r.timeMs });
+    const m = match(r);
+    if (!m) { unmatched++; continue; }
+    matched.push({ ...m, reading: r, pass });
+  }
+
+  const warnings = passTimingWarnings(passTimes, em.mainsOffAt, em.ratedDurationMin);
+  const conditionProblems: string[] = [];
+  if (!em.normalLightingOff) conditionProblems.push('The normal lighting was not off: readings include it, so compliance is not shown.');
+  if (!em.daylightExcluded) conditionProblems.push('Daylight was not excluded: readings include it, so compliance is not shown.');
+  warnings.push(...conditionProblems);
+  if (before > 0) warnings.push(`${before} reading(s) were taken before the mains failed and belong to no pass.`);
+  if (unmatched > 0) warnings.push(`${unmatched} reading(s) match no planned point label and lie on no route, area or equipment point.`);
+
+  const measuredPasses = EMERGENCY_PASSES.filter((p) => passTimes.some((t) => t.pass === p));
+  const planName = new Map(sitePlans.map((p) => [p.id, p.name]));
+  const elementVerdicts: ElementVerdict[] = elements.map((e) => {
+    const mine = matched.filter((m) => m.element.id === e.id);
+    const points: EmergencyPoint[] = mine.map((m) => ({ label: m.label, role: m.role, pass: m.pass, reading: toCoreReading(m.reading) }));
+    const resp = responses.find((r) => r.elementId === e.id) ?? null;
+    const presented = presentElement(db, user.organizationId, e);
+    const result = judgeEmergencyElement({ kind: e.kind, widthM: e.widthM, normalEmLux: presented.effectiveNormalEmLux, response: resp, points }, set, rule);
+    let verdict = result.verdict;
+    const reasons = [...result.reasons];
+    if (verdict === 'meets' && conditionProblems.length) { verdict = 'inconclusive'; reasons.push(...conditionProblems); }
+    if (e.stair) reasons.push('A stair: each tread needs light; a competent person checks the stair on site.');
+    const measuredLabels = (pass: EmergencyPass) => new Set(mine.filter((m) => m.pass === pass).map((m) => m.label.toLowerCase()));
+    return {
+      element: presented, planName: planName.get(e.planId) ?? '', verdict, checks: result.checks, reasons, worstPoint: result.worstPoint,
+      points: result.points.map((p, i) => ({ ...p, xM: mine[i].reading.xM, yM: mine[i].reading.yM, readingId: mine[i].reading.id })),
+      response: resp ? { toHalfS: resp.toHalfS, toFullS: resp.toFullS } : null,
+      unmeasured: measuredPasses.map((pass) => ({ pass, labels: presented.plannedPoints.map((p) => p.label).filter((l) => !measuredLabels(pass).has(l.toLowerCase())) })).filter((u) => u.labels.length > 0),
+    };
+  });
+
+  const passes = EMERGENCY_PASSES.map((pass) => {
+    const ts = passTimes.filter((t) => t.pass === pass).map((t) => t.timeMs);
+    const first = ts.length ? Math.min(...ts) : null;
+    const last = ts.length ? Math.max(...ts) : null;
+    return {
+      pass, readings: ts.length, firstAt: first === null ? null : new Date(first).toISOString(), lastAt: last === null ? null : new Date(last).toISOString(),
+      fromMin: first === null ? null : (first - em.mainsOffAt) / 60_000, toMin: last === null ? null : (last - em.mainsOffAt) / 60_000,
+    };
+  });
+
+  return {
+    surveyId: survey.id, name: survey.name, siteId: survey.siteId, siteName: survey.site.name, siteTimeZone: survey.site.timeZone, status: survey.status, startedOn: survey.startedOn,
+    criteriaSet: presentCriteriaSet(set), conditions: conditionsOf(em), rule, ruleText: RULE_TEXT[rule],
+    verdict: combineElementVerdicts(elementVerdicts.map((v) => v.verdict)),
+    passes, elements: elementVerdicts, readingsBeforeMainsOff: before, readingsUnmatched: unmatched, warnings,
+    cautions: [...EMERGENCY_CAUTIONS, ...set.notes],
+    canEdit: can(user.role, 'surveys.write') && UPLOADABLE_STATUSES.includes(survey.status as SurveyStatus),
+  };
+}
+
+export function listEmergencySurveys(db: Db, user: SessionUser, siteId?: number) {
+  const where = siteConditions(db, user);
+  if (siteId) where.push(eq(surveys.siteId, siteId));
+  return db.select({ survey: surveys, site: sites, em: emergencySurveys }).from(emergencySurveys)
+    .innerJoin(surveys, eq(surveys.id, emergencySurveys.surveyId)).innerJoin(sites, eq(sites.id, surveys.siteId))
+    .where(and(...where)).orderBy(desc(surveys.createdAt), desc(surveys.id)).all()
+    .map(({ survey, site, em }) => ({ surveyId: survey.id, name: survey.name, siteId: site.id, siteName: site.name, status: survey.status, criteriaSetKey: em.criteriaSetKey, startedOn: survey.startedOn, createdAt: new Date(survey.createdAt).toISOString() }));
+}
+
+function emergencyValues(c: EmergencyConditions) {
+  return { systemType: c.systemType, ratedDurationMin: c.ratedDurationMin, mainsOffAt: Date.parse(c.mainsOffAt), normalLightingOff: c.normalLightingOff, daylightExcluded: c.daylightExcluded, notes: c.notes ?? null };
+}
+
+/** Creates the survey and its emergency settings in one transaction. */
+export function createEmergencySurvey(deps: Deps, user: SessionUser, input: CreateEmergencySurveyBody): EmergencySurvey {
+  const body = createEmergencySurveyBodySchema.parse(input);
+  const site = getSiteRow(deps.db, user, body.siteId);
+  requireCriteriaSet(deps.db, user.organizationId, body.criteriaSetKey);
+  const now = deps.clock.now();
+  const id = deps.db.transaction((tx) => {
+    const s = tx.insert(surveys).values({
+      organizationId: user.organizationId, siteId: site.id, name: body.name, startedOn: body.startedOn ?? null,
+      conditions: { daylightExcluded: body.conditions.daylightExcluded, ...(body.conditions.notes ? { notes: body.conditions.notes } : {}) }, status: 'draft', createdBy: user.id, createdAt: now,
+    }).returning().get();
+    tx.insert(emergencySurveys).values({ surveyId: s.id, criteriaSetKey: body.criteriaSetKey, ...emergencyValues(body.conditions) }).run();
+    recordAudit(tx, { organizationId: user.organizationId, actorId: user.id, entityType: 'survey', entityId: s.id, surveyId: s.id, action: 'created', after: { ...body, kind: 'emergency' }, at: now });
+    return s.id;
+  });
+  return judgeEmergencySurvey(deps.db, user, id);
+}
+
+export function updateEmergencySurvey(deps: Deps, user: SessionUser, surveyId: number, input: unknown): EmergencySurvey {
+  const body = updateEmergencySurveyBodySchema.parse(input);
+  const { survey, em } = getEmergencySurveyRow(deps.db, user, surveyId);
+  assertEditable(survey);
+  if (body.criteriaSetKey) requireCriteriaSet(deps.db, user.organizationId, body.criteriaSetKey);
+  const set = { ...(body.criteriaSetKey ? { criteriaSetKey: body.criteriaSetKey } : {}), ...(body.conditions ? emergencyValues(body.conditions) : {}) };
+  deps.db.transaction((tx) => {
+    if (Object.keys(set).length) tx.update(emergencySurveys).set(set).where(eq(emergencySurveys.surveyId, survey.id)).run();
+    if (body.conditions) tx.update(surveys).set({ conditions: { daylightExcluded: body.conditions.daylightExcluded, ...(body.conditions.notes ? { notes: body.conditions.notes } : {}) } }).where(eq(surveys.id, survey.id)).run();
+    recordAudit(tx, { organizationId: user.organizationId, actorId: user.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'emergency_settings_changed', before: { criteriaSetKey: em.criteriaSetKey, conditions: conditionsOf(em) }, after: body, at: deps.clock.now() });
+  });
+  return judgeEmergencySurvey(deps.db, user, surveyId);
+}
+
+/** Records the response times typed for one element in this survey (the element must be on the survey's site). */
+export function setResponseTimes(deps: Deps, user: SessionUser, surveyId: number, elementId: number, body: ResponseTimesBody): EmergencySurvey {
+  const { survey } = getEmergencySurveyRow(deps.db, user, surveyId);
+  const planIds = deps.db.select({ id: plans.id }).from(plans).where(eq(plans.siteId, survey.siteId)).all().map((p) => p.id);
+  const element = elementsOfPlans(deps.db, planIds).find((e) => e.id === elementId);
+  if (!element) throw notFound('Emergency element');
+  assertEditable(survey);
+  const now = deps.clock.now();
+  deps.db.transaction((tx) => {
+    const prev = tx.select().from(emergencyResponses).where(and(eq(emergencyResponses.surveyId, survey.id), eq(emergencyResponses.elementId, elementId))).get();
+    if (prev) tx.update(emergencyResponses).set(body).where(eq(emergencyResponses.id, prev.id)).run();
+    else tx.insert(emergencyResponses).values({ surveyId: survey.id, elementId, ...body }).run();
+    recordAudit(tx, { organizationId: user.organizationId, actorId: user.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'response_times_recorded', before: prev ?? null, after: { elementId, ...body }, at: now });
+  });
+  return judgeEmergencySurvey(deps.db, user, surveyId);
+}
+
+/** Whether a survey is an emergency survey (for other modules' listings). */
+export function emergencySurveyIds(db: Db, surveyIds: number[]): Set<number> {
+  if (surveyIds.length === 0) return new Set();
+  return new Set(db.select({ id: emergencySurveys.surveyId }).from(emergencySurveys).where(inArray(emergencySurveys.surveyId, surveyIds)).all().map((r) => r.id));
+}
