@@ -11,5 +11,5 @@ export default defineConfig({
       '@shared': fileURLToPath(new URL('./shared', import.meta.url)),
     },
   },
-  build: { outDir: 'dist', emptyOutDir: true, chunkSizeWarningLimit: 1500 },
+  build: { outDir: 'dist', emptyOutDir: true, manifest: true },
 });

@@ -4,20 +4,26 @@ import {
   LayoutDashboard, Library, Mail, Map as PlanIcon, Settings, Users,
 } from 'lucide-react';
 import type { Capability } from '@shared/policy';
+import { paths } from '@shared/paths';
 
 export type NavItem = { to: string; label: string; icon: LucideIcon; capability?: Capability; group: 'work' | 'admin'; description?: string };
 
+/** A navigation entry for a page of shared/paths.ts: its link and capability come from there. */
+function entry(page: { pattern: string; capability: Capability | null; to: () => string }, item: Omit<NavItem, 'to' | 'capability'>): NavItem {
+  return { ...item, to: page.to(), ...(page.capability ? { capability: page.capability } : {}) };
+}
+
 /** The app's navigation; each role sees the entries its capabilities allow (shared/policy.ts). */
 export const NAV_ITEMS: NavItem[] = [
-  { to: '/', label: 'Overview', icon: LayoutDashboard, group: 'work' },
+  entry(paths.home, { label: 'Overview', icon: LayoutDashboard, group: 'work' }),
   // Feature entries go here, in the order people use them.
-  { to: '/surveys', label: 'Surveys', icon: SurveysIcon, capability: 'surveys.read', group: 'work', description: 'Sites, walk-through surveys, meter logs and their readings.' },
-  { to: '/plans', label: 'Plans', icon: PlanIcon, capability: 'sites.read', group: 'work', description: 'Plans to scale, zones, and survey points on the plan.' },
-  { to: '/compliance', label: 'Verdicts', icon: ClipboardCheck, capability: 'surveys.read', group: 'work', description: 'Which rooms meet their lighting targets, sign-off and reports.' },
-  { to: '/targets', label: 'Targets', icon: Library, capability: 'targets.read', group: 'work', description: 'The target library: Em and U0 per use type, with sources.' },
-  { to: '/calibration', label: 'Calibration', icon: CalibrationIcon, capability: 'probes.read', group: 'work', description: 'Probes, coefficient sets, bench runs and due dates.' },
-  { to: '/calibration/audit', label: 'Audit trail', icon: AuditIcon, capability: 'audit.read', group: 'work', description: 'Who changed which probe or coefficient set, and how.' },
-  { to: '/users', label: 'Users', icon: Users, capability: 'users.manage', group: 'admin', description: 'Invite colleagues and set their roles.' },
-  { to: '/outbox', label: 'Outbox', icon: Mail, capability: 'outbox.read', group: 'admin', description: 'Mail Luxtrail sent while no mail server is configured.' },
-  { to: '/settings', label: 'Settings', icon: Settings, capability: 'organization.settings', group: 'admin', description: 'The decision rule verdicts are printed with.' },
+  entry(paths.surveys, { label: 'Surveys', icon: SurveysIcon, group: 'work', description: 'Sites, walk-through surveys, meter logs and their readings.' }),
+  entry(paths.plans, { label: 'Plans', icon: PlanIcon, group: 'work', description: 'Plans to scale, zones, and survey points on the plan.' }),
+  entry(paths.compliance, { label: 'Verdicts', icon: ClipboardCheck, group: 'work', description: 'Which rooms meet their lighting targets, sign-off and reports.' }),
+  entry(paths.targets, { label: 'Targets', icon: Library, group: 'work', description: 'The target library: Em and U0 per use type, with sources.' }),
+  entry(paths.calibration, { label: 'Calibration', icon: CalibrationIcon, group: 'work', description: 'Probes, coefficient sets, bench runs and due dates.' }),
+  entry(paths.audit, { label: 'Audit trail', icon: AuditIcon, group: 'work', description: 'Who changed which probe or coefficient set, and how.' }),
+  entry(paths.users, { label: 'Users', icon: Users, group: 'admin', description: 'Invite colleagues and set their roles.' }),
+  entry(paths.outbox, { label: 'Outbox', icon: Mail, group: 'admin', description: 'Mail Luxtrail sent while no mail server is configured.' }),
+  entry(paths.settings, { label: 'Settings', icon: Settings, group: 'admin', description: 'The decision rule verdicts are printed with.' }),
 ];

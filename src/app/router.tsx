@@ -1,83 +1,80 @@
+import type { ComponentType } from 'react';
 import { createBrowserRouter, redirect, type LoaderFunctionArgs, type RouteObject } from 'react-router';
+import { paths, type PageName } from '@shared/paths';
 import { queryClient } from '@/lib/query-client';
 import { meQueryOptions } from '@/features/auth/api/get-me';
 import { AppShell } from './layout/app-shell';
 import { Gate } from './gate';
 import { RouteErrorBoundary } from './routes/route-error';
 import { NotFoundRoute } from './routes/not-found';
-import { SignInRoute } from './routes/auth/sign-in';
-import { ForgotPasswordRoute } from './routes/auth/forgot-password';
-import { TokenPasswordRoute } from './routes/auth/token-password';
-import { HomeRoute } from './routes/home';
-import { UsersRoute } from './routes/admin/users';
-import { OutboxRoute } from './routes/admin/outbox';
-import { PlansIndexRoute } from './routes/plans/plans-index';
-import { PlanDetailRoute } from './routes/plans/plan-detail';
-import { SurveyMapRoute } from './routes/plans/survey-map';
-import { CalibrationDashboardRoute } from './routes/calibration/calibration-dashboard';
-import { ProbesIndexRoute } from './routes/calibration/probes-index';
-import { ProbeNewRoute } from './routes/calibration/probe-new';
-import { ProbeDetailRoute } from './routes/calibration/probe-detail';
-import { ProbeEditRoute } from './routes/calibration/probe-edit';
-import { BenchRunRoute } from './routes/calibration/bench-run';
-import { CalibrationAuditRoute } from './routes/calibration/calibration-audit';
-import { SurveysIndexRoute } from './routes/surveys/surveys-index';
-import { SurveyDetailRoute } from './routes/surveys/survey-detail';
-import { ComplianceOverviewRoute } from './routes/compliance/compliance-overview';
-import { SurveyComplianceRoute } from './routes/compliance/survey-compliance';
-import { ZoneComplianceRoute } from './routes/compliance/zone-compliance';
-import { TargetsRoute } from './routes/compliance/targets';
-import { SettingsRoute } from './routes/compliance/settings';
 
 /** The signed-in shell's loader: no user, no shell (back to sign-in, then here again). */
 async function requireUser({ request }: LoaderFunctionArgs) {
   const user = await queryClient.ensureQueryData(meQueryOptions());
   if (!user) {
     const url = new URL(request.url);
-    throw redirect(`/sign-in?next=${encodeURIComponent(url.pathname + url.search)}`);
+    throw redirect(paths.signIn.to(url.pathname + url.search));
   }
   return null;
 }
 
 async function redirectIfSignedIn() {
   const user = await queryClient.ensureQueryData(meQueryOptions());
-  return user ? redirect('/') : null;
+  return user ? redirect(paths.home.to()) : null;
 }
 
 /**
- * Signed-in pages. Features add their routes here; pages that compose several features live
- * in src/app/routes/. Wrap a page in <Gate capability=…> when only some roles may use it.
+ * A page loaded on demand (its own chunk, with the widgets only it uses), at the path and
+ * behind the capability that shared/paths.ts gives it.
+ */
+function lazyPage(name: PageName, load: () => Promise<ComponentType>, extra: Omit<RouteObject, 'path' | 'lazy' | 'index' | 'children'> = {}): RouteObject {
+  const { pattern, capability } = paths[name];
+  return {
+    ...extra,
+    ...(pattern === '/' ? { index: true } : { path: pattern }),
+    lazy: async () => {
+      const Page = await load();
+      return { Component: capability ? () => <Gate capability={capability}><Page /></Gate> : Page };
+    },
+  };
+}
+
+/**
+ * Signed-in pages, one lazy chunk each. Add a page to shared/paths.ts, then here; pages that
+ * compose several features live in src/app/routes/.
  */
 const appRoutes: RouteObject[] = [
-  { index: true, element: <HomeRoute /> },
-  { path: 'users', element: <Gate capability="users.manage"><UsersRoute /></Gate> },
-  { path: 'outbox', element: <Gate capability="outbox.read"><OutboxRoute /></Gate> },
-  { path: 'plans', element: <Gate capability="sites.read"><PlansIndexRoute /></Gate> },
-  { path: 'plans/:planId', element: <Gate capability="sites.read"><PlanDetailRoute /></Gate> },
-  { path: 'surveys', element: <Gate capability="surveys.read"><SurveysIndexRoute /></Gate> },
-  { path: 'surveys/:surveyId', element: <Gate capability="surveys.read"><SurveyDetailRoute /></Gate> },
-  { path: 'surveys/:surveyId/map', element: <Gate capability="surveys.read"><SurveyMapRoute /></Gate> },
-  { path: 'calibration', element: <Gate capability="probes.read"><CalibrationDashboardRoute /></Gate> },
-  { path: 'calibration/probes', element: <Gate capability="probes.read"><ProbesIndexRoute /></Gate> },
-  { path: 'calibration/probes/new', element: <Gate capability="probes.write"><ProbeNewRoute /></Gate> },
-  { path: 'calibration/probes/:probeId', element: <Gate capability="probes.read"><ProbeDetailRoute /></Gate> },
-  { path: 'calibration/probes/:probeId/edit', element: <Gate capability="probes.write"><ProbeEditRoute /></Gate> },
-  { path: 'calibration/bench-runs/:benchRunId', element: <Gate capability="coefficients.read"><BenchRunRoute /></Gate> },
-  { path: 'calibration/audit', element: <Gate capability="audit.read"><CalibrationAuditRoute /></Gate> },
-  { path: 'compliance', element: <Gate capability="surveys.read"><ComplianceOverviewRoute /></Gate> },
-  { path: 'compliance/surveys/:surveyId', element: <Gate capability="surveys.read"><SurveyComplianceRoute /></Gate> },
-  { path: 'compliance/surveys/:surveyId/zones/:zoneId', element: <Gate capability="surveys.read"><ZoneComplianceRoute /></Gate> },
-  { path: 'targets', element: <Gate capability="targets.read"><TargetsRoute /></Gate> },
-  { path: 'settings', element: <Gate capability="organization.settings"><SettingsRoute /></Gate> },
+  lazyPage('home', () => import('./routes/home').then((m) => m.HomeRoute)),
+  lazyPage('users', () => import('./routes/admin/users').then((m) => m.UsersRoute)),
+  lazyPage('outbox', () => import('./routes/admin/outbox').then((m) => m.OutboxRoute)),
+  lazyPage('plans', () => import('./routes/plans/plans-index').then((m) => m.PlansIndexRoute)),
+  lazyPage('plan', () => import('./routes/plans/plan-detail').then((m) => m.PlanDetailRoute)),
+  lazyPage('surveys', () => import('./routes/surveys/surveys-index').then((m) => m.SurveysIndexRoute)),
+  lazyPage('survey', () => import('./routes/surveys/survey-detail').then((m) => m.SurveyDetailRoute)),
+  lazyPage('surveyMap', () => import('./routes/plans/survey-map').then((m) => m.SurveyMapRoute)),
+  lazyPage('calibration', () => import('./routes/calibration/calibration-dashboard').then((m) => m.CalibrationDashboardRoute)),
+  lazyPage('probes', () => import('./routes/calibration/probes-index').then((m) => m.ProbesIndexRoute)),
+  lazyPage('probeNew', () => import('./routes/calibration/probe-new').then((m) => m.ProbeNewRoute)),
+  lazyPage('probe', () => import('./routes/calibration/probe-detail').then((m) => m.ProbeDetailRoute)),
+  lazyPage('probeEdit', () => import('./routes/calibration/probe-edit').then((m) => m.ProbeEditRoute)),
+  lazyPage('benchRun', () => import('./routes/calibration/bench-run').then((m) => m.BenchRunRoute)),
+  lazyPage('audit', () => import('./routes/calibration/calibration-audit').then((m) => m.CalibrationAuditRoute)),
+  lazyPage('compliance', () => import('./routes/compliance/compliance-overview').then((m) => m.ComplianceOverviewRoute)),
+  lazyPage('surveyCompliance', () => import('./routes/compliance/survey-compliance').then((m) => m.SurveyComplianceRoute)),
+  lazyPage('zoneCompliance', () => import('./routes/compliance/zone-compliance').then((m) => m.ZoneComplianceRoute)),
+  lazyPage('targets', () => import('./routes/compliance/targets').then((m) => m.TargetsRoute)),
+  lazyPage('settings', () => import('./routes/compliance/settings').then((m) => m.SettingsRoute)),
 ];
 
+const publicPage = { errorElement: <RouteErrorBoundary /> };
+
 export const routes: RouteObject[] = [
-  { path: '/sign-in', element: <SignInRoute />, loader: redirectIfSignedIn, errorElement: <RouteErrorBoundary /> },
-  { path: '/forgot-password', element: <ForgotPasswordRoute />, errorElement: <RouteErrorBoundary /> },
-  { path: '/reset-password', element: <TokenPasswordRoute purpose="reset" />, errorElement: <RouteErrorBoundary /> },
-  { path: '/accept-invite', element: <TokenPasswordRoute purpose="invite" />, errorElement: <RouteErrorBoundary /> },
+  lazyPage('signIn', () => import('./routes/auth/sign-in').then((m) => m.SignInRoute), { ...publicPage, loader: redirectIfSignedIn }),
+  lazyPage('forgotPassword', () => import('./routes/auth/forgot-password').then((m) => m.ForgotPasswordRoute), publicPage),
+  lazyPage('resetPassword', () => import('./routes/auth/token-password').then((m) => () => <m.TokenPasswordRoute purpose="reset" />), publicPage),
+  lazyPage('acceptInvite', () => import('./routes/auth/token-password').then((m) => () => <m.TokenPasswordRoute purpose="invite" />), publicPage),
   {
-    path: '/',
+    path: paths.home.pattern,
     element: <AppShell />,
     loader: requireUser,
     errorElement: <RouteErrorBoundary />,

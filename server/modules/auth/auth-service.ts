@@ -4,6 +4,7 @@ import { organizations, tokens, users } from '../../db/schema/organizations';
 import type { SessionUser, TokenInfo } from '@shared/schemas/auth';
 import { HttpError, unauthenticated } from '../../http/errors';
 import { dummyPasswordHash, hashPassword, hashToken, newToken, verifyPassword } from './passwords';
+import { absoluteUrl, paths } from '@shared/paths';
 
 export const INVITE_TTL_MS = 7 * 24 * 3600_000;
 export const RESET_TTL_MS = 60 * 60_000;
@@ -33,8 +34,7 @@ export function issueToken(deps: Deps, userId: number, purpose: 'invite' | 'rese
     tx.update(tokens).set({ usedAt: now }).where(and(eq(tokens.userId, userId), eq(tokens.purpose, purpose), isNull(tokens.usedAt))).run();
     tx.insert(tokens).values({ userId, purpose, tokenHash, expiresAt: now + (purpose === 'invite' ? INVITE_TTL_MS : RESET_TTL_MS), createdAt: now }).run();
   });
-  const page = purpose === 'invite' ? 'accept-invite' : 'reset-password';
-  return `${deps.config.publicUrl}/${page}?token=${encodeURIComponent(token)}`;
+  return absoluteUrl(deps.config.publicUrl, (purpose === 'invite' ? paths.acceptInvite : paths.resetPassword).to(token));
 }
 
 function findLiveToken(deps: Deps, token: string) {

@@ -5,6 +5,7 @@ import { organizations, users } from '../../db/schema/organizations';
 import type { ReminderRunResponse } from '@shared/schemas/coefficient-sets';
 import { DAY_MS } from '../probes/calibration-state';
 import { probesWithCalibration } from './dashboard-service';
+import { absoluteUrl, paths } from '@shared/paths';
 
 /** A probe is reminded when its set in force is due within this many days, or overdue. */
 export const REMINDER_DUE_WITHIN_DAYS = 14;
@@ -41,7 +42,7 @@ export async function runCalibrationReminders(deps: Deps, onlyOrganizationId?: n
       .sort((a, b) => a.current!.dueDate - b.current!.dueDate)
       .map(({ probe, current, status }) => {
         const when = status.state === 'overdue' ? `OVERDUE since ${fmtDate(current!.dueDate)} (${-status.daysUntilDue!} days)` : `due ${fmtDate(current!.dueDate)} (in ${status.daysUntilDue} days)`;
-        return `- ${probe.serial} (${probe.description || probe.kind}): ${when}; certificate ${current!.certificateNumber}, version ${current!.version}\n  ${deps.config.publicUrl}/calibration/probes/${probe.id}`;
+        return `- ${probe.serial} (${probe.description || probe.kind}): ${when}; certificate ${current!.certificateNumber}, version ${current!.version}\n  ${absoluteUrl(deps.config.publicUrl, paths.probe.to(probe.id))}`;
       });
     const overdue = toSend.filter((d) => d.status.state === 'overdue').length;
     await deps.mailer.send({

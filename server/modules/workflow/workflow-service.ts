@@ -11,6 +11,7 @@ import { recordAudit } from '../audit/audit-service';
 import { getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
 import { buildFrozen, countVerdicts } from '../compliance/compliance-service';
 import { surveyReportPdf } from '../reports/reports-service';
+import { absoluteUrl, paths } from '@shared/paths';
 
 const SUBMITTABLE = ['draft', 'returned'] as const;
 
@@ -72,7 +73,7 @@ export async function submitSurvey(deps: Deps, actor: SessionUser, surveyId: num
     await deps.mailer.send({
       to: reviewers.map((r) => r.email), organizationId: actor.organizationId,
       subject: `Survey submitted for review: ${survey.site.name}, ${survey.name}`,
-      text: `${actor.name} submitted "${survey.name}" at ${survey.site.name} for review.\n${body.note ? `\nTheir note:\n${body.note}\n` : ''}\nOpen it in Luxtrail to sign it off or return it with a comment.\n${deps.config.publicUrl}/compliance/surveys/${survey.id}\n`,
+      text: `${actor.name} submitted "${survey.name}" at ${survey.site.name} for review.\n${body.note ? `\nTheir note:\n${body.note}\n` : ''}\nOpen it in Luxtrail to sign it off or return it with a comment.\n${absoluteUrl(deps.config.publicUrl, paths.surveyCompliance.to(survey.id))}\n`,
     });
   }
   return state(deps.db, survey.id, reviewers.map((r) => r.email));
@@ -131,7 +132,7 @@ export async function returnSurvey(deps: Deps, actor: SessionUser, surveyId: num
     await deps.mailer.send({
       to: surveyor.email, organizationId: actor.organizationId,
       subject: `Survey returned for changes: ${survey.site.name}, ${survey.name}`,
-      text: `${actor.name} returned "${survey.name}" at ${survey.site.name} for changes.\n\nComment:\n${body.comment}\n\nYou can add logs and submit it again.\n${deps.config.publicUrl}/compliance/surveys/${survey.id}\n`,
+      text: `${actor.name} returned "${survey.name}" at ${survey.site.name} for changes.\n\nComment:\n${body.comment}\n\nYou can add logs and submit it again.\n${absoluteUrl(deps.config.publicUrl, paths.surveyCompliance.to(survey.id))}\n`,
     });
   }
   return state(deps.db, survey.id, surveyor ? [surveyor.email] : []);

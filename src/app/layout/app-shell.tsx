@@ -9,6 +9,7 @@ import { useSignOut } from '@/features/auth/api/sign-out';
 import { LuxtrailMark } from '@/components/brand/luxtrail-mark';
 import { UnitsToggle } from '@/components/ui/units-toggle';
 import { cx } from '@/components/ui/cx';
+import { paths } from '@shared/paths';
 
 export function AppShell() {
   const user = useCurrentUser();
@@ -31,7 +32,7 @@ export function AppShell() {
                 <li key={item.to}>
                   <NavLink
                     to={item.to}
-                    end={item.to === '/'}
+                    end={item.to === paths.home.to()}
                     onClick={() => setOpen(false)}
                     className={({ isActive }) => cx('flex items-center gap-3 rounded-lg px-3 py-2 text-sm font-medium transition-colors', isActive ? 'bg-ink-800 text-white' : 'text-ink-300 hover:bg-ink-800/60 hover:text-white')}
                   >
@@ -53,7 +54,7 @@ export function AppShell() {
       <div className="px-3 text-xs text-ink-300">{ROLE_LABELS[user.role]} · {user.organizationName}</div>
       <button
         type="button"
-        onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}
+        onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate(paths.signIn.to()) })}
         className="mt-3 flex w-full items-center gap-2 rounded-lg px-3 py-2 text-sm text-ink-300 hover:bg-ink-800 hover:text-white"
       >
         <LogOut className="h-4 w-4" aria-hidden /> Sign out

@@ -2,13 +2,14 @@ import { Link } from 'react-router';
 import { ArrowRight, TriangleAlert } from 'lucide-react';
 import { can } from '@shared/policy';
 import { ROLE_LABELS } from '@shared/roles';
+import { paths } from '@shared/paths';
 import { NAV_ITEMS } from '../nav';
 import { useCurrentUser } from '../current-user';
 import { Page, PageHeader } from '@/components/ui/page';
 
 export function HomeRoute() {
   const user = useCurrentUser();
-  const items = NAV_ITEMS.filter((i) => i.to !== '/' && (!i.capability || can(user.role, i.capability)));
+  const items = NAV_ITEMS.filter((i) => i.to !== paths.home.to() && (!i.capability || can(user.role, i.capability)));
   return (
     <Page>
       <PageHeader eyebrow={`${ROLE_LABELS[user.role]} · ${user.organizationName}`} title={`Hello, ${user.name.split(' ')[0]}`} description="Pick up where your team left off." />

@@ -1,5 +1,6 @@
 import { Link } from 'react-router';
 import { Compass } from 'lucide-react';
+import { paths } from '@shared/paths';
 
 export function NotFoundRoute() {
   return (
@@ -7,7 +8,7 @@ export function NotFoundRoute() {
       <Compass className="h-10 w-10 text-lamp-500" aria-hidden />
       <h1 className="text-xl font-semibold">There is no page at this address</h1>
       <p className="text-sm text-ink-600">The link may be old, or the record was removed.</p>
-      <Link to="/" className="text-sm font-medium text-lamp-700 underline">Go to the overview</Link>
+      <Link to={paths.home.to()} className="text-sm font-medium text-lamp-700 underline">Go to the overview</Link>
     </div>
   );
 }

@@ -1,6 +1,7 @@
 import { isRouteErrorResponse, Link, useRouteError } from 'react-router';
 import { AlertTriangle } from 'lucide-react';
 import { NotFoundRoute } from './not-found';
+import { paths } from '@shared/paths';
 
 /** Shown when a route's loader or render throws. */
 export function RouteErrorBoundary() {
@@ -12,7 +13,7 @@ export function RouteErrorBoundary() {
       <AlertTriangle className="h-10 w-10 text-short-500" aria-hidden />
       <h1 className="text-xl font-semibold">This page ran into a problem</h1>
       <p className="max-w-md text-sm text-ink-600">{message}</p>
-      <Link to="/" className="text-sm font-medium text-lamp-700 underline">Go to the overview</Link>
+      <Link to={paths.home.to()} className="text-sm font-medium text-lamp-700 underline">Go to the overview</Link>
     </div>
   );
 }

@@ -10,6 +10,7 @@ import { formatInstant } from '@/features/calibration/components/format';
 import { Page, PageHeader } from '@/components/ui/page';
 import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { QueryState } from '@/components/ui/states';
+import { paths } from '@shared/paths';
 
 /** A bench run's fit: table, charts, flags, and drafting a set from it. */
 export function BenchRunRoute() {
@@ -26,7 +27,7 @@ export function BenchRunRoute() {
           const missing = codes.filter((c) => !r.gains.some((g) => g.code === c));
           return (
             <>
-              <PageHeader eyebrow={<Link to={`/calibration/probes/${r.probeId}`} className="hover:underline">{probe.data?.serial ?? 'Probe'}</Link>}
+              <PageHeader eyebrow={<Link to={paths.probe.to(r.probeId)} className="hover:underline">{probe.data?.serial ?? 'Probe'}</Link>}
                 title={`Bench run #${r.id}`} description={`${r.filename} · ${r.rowCount} rows · uploaded by ${r.createdBy ?? 'unknown'} on ${formatInstant(r.createdAt)} · tref ${r.options.tRefMs} ms, reference u rel ${(r.options.referenceURel * 100).toFixed(2)} %`}
                 actions={<a href={benchRunFileUrl(r.id)} className="inline-flex items-center gap-2 rounded-lg bg-white px-4 py-2 text-sm font-medium text-ink-900 ring-1 ring-inset ring-ink-200 hover:bg-ink-50"><FileDown className="h-4 w-4" aria-hidden />Raw file</a>} />
               <div className="space-y-6">
@@ -44,7 +45,7 @@ export function BenchRunRoute() {
                     <CardBody>
                       <BenchDraftForm probeId={r.probeId} benchRunId={r.id}
                         disabledReason={missing.length ? `This run has no rows for gain code(s) ${missing.join(', ')}; a set needs every code.` : null}
-                        onDrafted={() => navigate(`/calibration/probes/${r.probeId}`)} />
+                        onDrafted={() => navigate(paths.probe.to(r.probeId))} />
                     </CardBody>
                   </Card>
                 )}

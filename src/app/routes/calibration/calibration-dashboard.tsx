@@ -10,6 +10,7 @@ import { Card } from '@/components/ui/card';
 import { Button } from '@/components/ui/button';
 import { FormError } from '@/components/ui/form-error';
 import { EmptyState, QueryState } from '@/components/ui/states';
+import { paths } from '@shared/paths';
 
 /** Due dates of every probe: what is overdue, what comes due in 30 days, what has no approved set. */
 export function CalibrationDashboardRoute() {
@@ -22,12 +23,12 @@ export function CalibrationDashboardRoute() {
         description="A reading taken after its set's due date is flagged as calibration lapsed. Reminders go to calibration staff for probes due within 14 days or overdue, at most once a week per probe."
         actions={(
           <>
-            <Link to="/calibration/probes" className="inline-flex items-center gap-2 rounded-lg bg-white px-4 py-2 text-sm font-medium text-ink-900 ring-1 ring-inset ring-ink-200 hover:bg-ink-50"><List className="h-4 w-4" aria-hidden />Probe list</Link>
+            <Link to={paths.probes.to()} className="inline-flex items-center gap-2 rounded-lg bg-white px-4 py-2 text-sm font-medium text-ink-900 ring-1 ring-inset ring-ink-200 hover:bg-ink-50"><List className="h-4 w-4" aria-hidden />Probe list</Link>
             {can(user.role, 'reminders.run') && (
               <Button variant="secondary" busy={reminders.isPending} onClick={() => reminders.mutate()}><BellRing className="h-4 w-4" aria-hidden />Send reminders now</Button>
             )}
             {can(user.role, 'probes.write') && (
-              <Link to="/calibration/probes/new" className="inline-flex items-center gap-2 rounded-lg bg-ink-900 px-4 py-2 text-sm font-medium text-white hover:bg-ink-800"><Plus className="h-4 w-4" aria-hidden />New probe</Link>
+              <Link to={paths.probeNew.to()} className="inline-flex items-center gap-2 rounded-lg bg-ink-900 px-4 py-2 text-sm font-medium text-white hover:bg-ink-800"><Plus className="h-4 w-4" aria-hidden />New probe</Link>
             )}
           </>
         )} />

@@ -17,6 +17,7 @@ import { Page, PageHeader } from '@/components/ui/page';
 import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { Button } from '@/components/ui/button';
 import { EmptyState, QueryState } from '@/components/ui/states';
+import { paths } from '@shared/paths';
 
 /** One probe: its properties, every coefficient-set version, bench runs and uploads. */
 export function ProbeDetailRoute() {
@@ -38,11 +39,11 @@ export function ProbeDetailRoute() {
           const current = sets.data?.items.find((s) => s.inForce) ?? null;
           return (
             <>
-              <PageHeader eyebrow={<Link to="/calibration/probes" className="hover:underline">Probes</Link>} title={p.serial} description={p.description}
+              <PageHeader eyebrow={<Link to={paths.probes.to()} className="hover:underline">Probes</Link>} title={p.serial} description={p.description}
                 actions={(
                   <>
-                    {can(user.role, 'audit.read') && <Link to={`/calibration/audit?probe=${p.id}`} className="inline-flex items-center gap-2 rounded-lg bg-white px-4 py-2 text-sm font-medium text-ink-900 ring-1 ring-inset ring-ink-200 hover:bg-ink-50"><History className="h-4 w-4" aria-hidden />Audit trail</Link>}
-                    {can(user.role, 'probes.write') && active && <Link to={`/calibration/probes/${p.id}/edit`} className="inline-flex items-center gap-2 rounded-lg bg-ink-900 px-4 py-2 text-sm font-medium text-white hover:bg-ink-800"><PenLine className="h-4 w-4" aria-hidden />Edit probe</Link>}
+                    {can(user.role, 'audit.read') && <Link to={paths.audit.to(p.id)} className="inline-flex items-center gap-2 rounded-lg bg-white px-4 py-2 text-sm font-medium text-ink-900 ring-1 ring-inset ring-ink-200 hover:bg-ink-50"><History className="h-4 w-4" aria-hidden />Audit trail</Link>}
+                    {can(user.role, 'probes.write') && active && <Link to={paths.probeEdit.to(p.id)} className="inline-flex items-center gap-2 rounded-lg bg-ink-900 px-4 py-2 text-sm font-medium text-white hover:bg-ink-800"><PenLine className="h-4 w-4" aria-hidden />Edit probe</Link>}
                   </>
                 )} />
               <div className="grid gap-6 lg:grid-cols-[22rem_1fr]">
@@ -72,7 +73,7 @@ export function ProbeDetailRoute() {
                       <CardBody className="space-y-6">
                         {can(user.role, 'probes.write') && active && (
                           <BenchUploadForm probeId={p.id} defaults={{ tRefMs: current?.tRefMs ?? 100, alphaPerK: current?.alphaPerK ?? 0, tCalC: current?.tCalC ?? 23 }}
-                            onUploaded={(r) => navigate(`/calibration/bench-runs/${r.id}`)} />
+                            onUploaded={(r) => navigate(paths.benchRun.to(r.id))} />
                         )}
                         <QueryState query={runs} isEmpty={(d) => d.items.length === 0} empty={<EmptyState title="No bench runs yet" />}>
                           {(d) => <BenchRunList runs={d.items} />}

@@ -23,6 +23,7 @@ import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { SelectField } from '@/components/ui/field';
 import { Page, PageHeader } from '@/components/ui/page';
 import { EmptyState, QueryState } from '@/components/ui/states';
+import { paths } from '@shared/paths';
 
 /** One survey for the facility manager: worst zones first, the map shaded by verdict, sign-off and reports. */
 export function SurveyComplianceRoute() {
@@ -35,7 +36,7 @@ export function SurveyComplianceRoute() {
         {(c) => (
           <div className="space-y-6">
             <PageHeader
-              eyebrow={<Link to="/compliance" className="hover:underline">{c.siteName}</Link>}
+              eyebrow={<Link to={paths.compliance.to()} className="hover:underline">{c.siteName}</Link>}
               title={c.surveyName}
               description={`${c.startedOn ?? 'No date'} · ${c.counts.meets} meet, ${c.counts.falls_short} fall short, ${c.counts.inconclusive} inconclusive, ${c.counts.not_assessed} not assessed`}
               actions={<Badge tone={c.status === 'signed_off' ? 'good' : c.status === 'returned' ? 'unsure' : 'info'}>{SURVEY_STATUS_LABELS[c.status]}</Badge>}

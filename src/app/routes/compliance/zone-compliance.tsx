@@ -10,6 +10,7 @@ import { ZoneTargetPicker } from '@/features/targets/components/zone-target-pick
 import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { Page, PageHeader } from '@/components/ui/page';
 import { EmptyState, QueryState } from '@/components/ui/states';
+import { paths } from '@shared/paths';
 
 /** One zone of a survey: its points, statistics, target and source. */
 export function ZoneComplianceRoute() {
@@ -24,7 +25,7 @@ export function ZoneComplianceRoute() {
       <QueryState query={detail} loadingLabel="Loading the zone…">
         {(d) => (
           <div className="space-y-6">
-            <PageHeader eyebrow={<Link to={`/compliance/surveys/${surveyId}`} className="hover:underline">Back to the survey</Link>} title={d.zone.name}
+            <PageHeader eyebrow={<Link to={paths.surveyCompliance.to(surveyId)} className="hover:underline">Back to the survey</Link>} title={d.zone.name}
               description={`${d.zone.planName} · ${d.zone.kind.replace('_', ' ')} · use type ${d.zone.useType}`} />
             <RuleNote rule={d.rule} ruleText={d.ruleText} frozen={d.frozen} />
             <ZoneSummaryCards detail={d} />

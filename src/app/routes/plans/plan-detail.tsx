@@ -19,6 +19,7 @@ import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { Button } from '@/components/ui/button';
 import { EmptyState, QueryState } from '@/components/ui/states';
 import { FormError } from '@/components/ui/form-error';
+import { paths } from '@shared/paths';
 
 /** One plan: set its scale, draw and edit its zones, open a survey on it. */
 export function PlanDetailRoute() {
@@ -35,7 +36,7 @@ export function PlanDetailRoute() {
   const navigate = useNavigate();
   const deleteThisPlan = (siteId: number, name: string) => {
     if (!window.confirm(`Delete the plan "${name}"? Only a plan with no zones and no readings on it can be deleted.`)) return;
-    removePlan.mutate({ planId, siteId }, { onSuccess: () => navigate(`/plans?site=${siteId}`) });
+    removePlan.mutate({ planId, siteId }, { onSuccess: () => navigate(paths.plans.to(siteId)) });
   };
 
   const startZone = () => { setEditing({ zone: null, corners: null }); setMode({ kind: 'draw' }); };
@@ -48,7 +49,7 @@ export function PlanDetailRoute() {
       <QueryState query={plan}>
         {(p) => (
           <>
-            <PageHeader eyebrow={<Link to={`/plans?site=${p.siteId}`} className="hover:underline">Plans</Link>} title={p.name}
+            <PageHeader eyebrow={<Link to={paths.plans.to(p.siteId)} className="hover:underline">Plans</Link>} title={p.name}
               description={p.widthM && p.heightM ? `${Math.round(p.widthM * 10) / 10} × ${Math.round(p.heightM * 10) / 10} m · ${p.widthPx} × ${p.heightPx} px` : 'The scale is not set yet: set it before drawing zones.'}
               actions={canEdit && !editing ? (
                 <Button variant="ghost" busy={removePlan.isPending} onClick={() => deleteThisPlan(p.siteId, p.name)}><Trash2 className="h-4 w-4" aria-hidden />Delete plan</Button>
@@ -98,7 +99,7 @@ export function PlanDetailRoute() {
                         {(d) => (
                           <ul className="space-y-1 text-sm">
                             {d.items.map((s) => (
-                              <li key={s.id}><Link className="font-medium text-lamp-800 underline-offset-2 hover:underline" to={`/surveys/${s.id}/map?planId=${p.id}`}>{s.name}</Link> <span className="text-xs text-ink-500">· {s.readingCount} readings</span></li>
+                              <li key={s.id}><Link className="font-medium text-lamp-800 underline-offset-2 hover:underline" to={paths.surveyMap.to(s.id, p.id)}>{s.name}</Link> <span className="text-xs text-ink-500">· {s.readingCount} readings</span></li>
                             ))}
                           </ul>
                         )}

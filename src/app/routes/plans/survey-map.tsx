@@ -8,6 +8,7 @@ import { SurveyMapView } from '@/components/plan-map/survey-map-view';
 import { Page, PageHeader } from '@/components/ui/page';
 import { SelectField } from '@/components/ui/field';
 import { EmptyState, QueryState } from '@/components/ui/states';
+import { paths } from '@shared/paths';
 
 /** A survey's readings on one of its site's plans, optionally as the change since another survey. */
 export function SurveyMapRoute() {
@@ -31,7 +32,7 @@ export function SurveyMapRoute() {
           const plan = plans.data?.items.find((p) => p.id === m.planId);
           return (
             <>
-              <PageHeader eyebrow={plan ? <Link to={`/plans/${plan.id}`} className="hover:underline">Plan {plan.name}</Link> : 'Survey map'} title={m.surveyName}
+              <PageHeader eyebrow={plan ? <Link to={paths.plan.to(plan.id)} className="hover:underline">Plan {plan.name}</Link> : 'Survey map'} title={m.surveyName}
                 description={compareId ? 'Each point where it was measured, coloured by its change since the survey compared with; zones shaded by their average.' : 'Each point where it was measured, coloured by illuminance; zones shaded by their average.'} />
               <div className="mb-4 grid gap-3 sm:grid-cols-2 lg:max-w-3xl">
                 <SelectField label="Plan" value={m.planId} onChange={(e) => set('planId', e.target.value)}>

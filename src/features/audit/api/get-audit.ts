@@ -1,5 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api, queryString } from '@/lib/api-client';
+import { auditKeys } from '@/lib/query-keys';
 
 export type AuditEvent = {
   id: number; entityType: string; entityId: number; action: string; probeId: number | null; surveyId: number | null;
@@ -8,5 +9,5 @@ export type AuditEvent = {
 export type AuditFilter = { probeId?: number; entityType?: string; limit?: number; offset?: number };
 
 export const getAudit = (f: AuditFilter) => api.get<{ items: AuditEvent[] }>(`/audit${queryString(f)}`);
-export const auditQueryOptions = (f: AuditFilter = {}) => queryOptions({ queryKey: ['audit', f], queryFn: () => getAudit(f) });
+export const auditQueryOptions = (f: AuditFilter = {}) => queryOptions({ queryKey: auditKeys.list(f), queryFn: () => getAudit(f) });
 export const useAudit = (f: AuditFilter) => useQuery(auditQueryOptions(f));

@@ -2,9 +2,10 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import { api } from '@/lib/api-client';
 import type { ForgotPasswordBody, SessionUser, TokenInfo, TokenPasswordBody } from '@shared/schemas/auth';
 import { meQueryOptions } from './get-me';
+import { authKeys } from '@/lib/query-keys';
 
 export const getTokenInfo = (token: string) => api.get<TokenInfo>(`/auth/tokens?token=${encodeURIComponent(token)}`);
-export const tokenInfoQueryOptions = (token: string) => queryOptions({ queryKey: ['auth', 'tokens', token], queryFn: () => getTokenInfo(token), enabled: token.length > 0 });
+export const tokenInfoQueryOptions = (token: string) => queryOptions({ queryKey: authKeys.token(token), queryFn: () => getTokenInfo(token), enabled: token.length > 0 });
 export const useTokenInfo = (token: string) => useQuery(tokenInfoQueryOptions(token));
 
 /** Accepts an invitation or completes a reset: both set a password and sign in. */

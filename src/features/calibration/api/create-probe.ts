@@ -1,8 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { CreateProbeBody, ProbeDto } from '@shared/schemas/probes';
-import { probesQueryOptions } from './get-probes';
-import { calibrationDashboardQueryOptions } from './get-calibration-dashboard';
+import { probeKeys } from '@/lib/query-keys';
 
 export const createProbe = (body: CreateProbeBody) => api.post<ProbeDto>('/probes', body);
 
@@ -11,8 +10,8 @@ export function useCreateProbe() {
   return useMutation({
     mutationFn: createProbe,
     onSuccess: () => Promise.all([
-      qc.invalidateQueries({ queryKey: probesQueryOptions().queryKey }),
-      qc.invalidateQueries({ queryKey: calibrationDashboardQueryOptions().queryKey }),
+      qc.invalidateQueries({ queryKey: probeKeys.list() }),
+      qc.invalidateQueries({ queryKey: probeKeys.dashboard() }),
     ]),
   });
 }

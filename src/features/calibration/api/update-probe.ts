@@ -1,9 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { ProbeDto, UpdateProbeBody } from '@shared/schemas/probes';
-import { probesQueryOptions } from './get-probes';
-import { probeQueryOptions } from './get-probe';
-import { calibrationDashboardQueryOptions } from './get-calibration-dashboard';
+import { probeKeys } from '@/lib/query-keys';
 
 export const updateProbe = ({ id, ...body }: UpdateProbeBody & { id: number }) => api.patch<ProbeDto>(`/probes/${id}`, body);
 
@@ -12,9 +10,9 @@ export function useUpdateProbe() {
   return useMutation({
     mutationFn: updateProbe,
     onSuccess: (p) => Promise.all([
-      qc.invalidateQueries({ queryKey: probesQueryOptions().queryKey }),
-      qc.invalidateQueries({ queryKey: probeQueryOptions(p.id).queryKey }),
-      qc.invalidateQueries({ queryKey: calibrationDashboardQueryOptions().queryKey }),
+      qc.invalidateQueries({ queryKey: probeKeys.list() }),
+      qc.invalidateQueries({ queryKey: probeKeys.detail(p.id) }),
+      qc.invalidateQueries({ queryKey: probeKeys.dashboard() }),
     ]),
   });
 }

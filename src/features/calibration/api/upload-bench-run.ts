@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api, type UploadProgress } from '@/lib/api-client';
 import type { BenchRunDetailDto } from '@shared/schemas/bench-runs';
-import { benchRunsQueryOptions } from './get-bench-runs';
+import { probeKeys } from '@/lib/query-keys';
 
 export type BenchUploadInput = { probeId: number; file: File; fields: Record<string, string>; onProgress?: (p: UploadProgress) => void };
 
@@ -14,5 +14,5 @@ export const uploadBenchRun = ({ probeId, file, fields, onProgress }: BenchUploa
 
 export function useUploadBenchRun() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: uploadBenchRun, onSuccess: (r) => qc.invalidateQueries({ queryKey: benchRunsQueryOptions(r.probeId).queryKey }) });
+  return useMutation({ mutationFn: uploadBenchRun, onSuccess: (r) => qc.invalidateQueries({ queryKey: probeKeys.benchRuns(r.probeId) }) });
 }

@@ -9,6 +9,7 @@ import { cx } from '@/components/ui/cx';
 import { EmptyState } from '@/components/ui/states';
 import { CalibrationStateBadge } from './calibration-state-badge';
 import { formatDueDate } from './format';
+import { paths } from '@shared/paths';
 
 export type DashboardFilter = 'all' | 'due30' | 'overdue' | 'no_set';
 
@@ -44,7 +45,7 @@ export function DashboardTable({ rows, dueSoonDays, showRetired }: { rows: Dashb
       header: 'Probe',
       cell: (c) => (
         <div>
-          <Link to={`/calibration/probes/${c.row.original.probeId}`} className="font-semibold text-ink-900 underline-offset-2 hover:underline">{c.getValue()}</Link>
+          <Link to={paths.probe.to(c.row.original.probeId)} className="font-semibold text-ink-900 underline-offset-2 hover:underline">{c.getValue()}</Link>
           <div className="text-xs text-ink-500">{c.row.original.description}</div>
         </div>
       ),

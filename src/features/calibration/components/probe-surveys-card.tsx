@@ -1,7 +1,7 @@
 import { RefreshCcw, ScrollText } from 'lucide-react';
-import { useQueryClient, type UseMutationResult } from '@tanstack/react-query';
+import type { UseMutationResult } from '@tanstack/react-query';
 import type { RedecodeResponse } from '@shared/schemas/readings';
-import { probeSurveysQueryOptions, useProbeSurveys } from '../api/get-probe-surveys';
+import { useProbeSurveys } from '../api/get-probe-surveys';
 import { Card, CardHeader } from '@/components/ui/card';
 import { Badge } from '@/components/ui/badge';
 import { Button } from '@/components/ui/button';
@@ -15,8 +15,8 @@ import { FormError } from '@/components/ui/form-error';
  */
 export function ProbeSurveysCard({ probeId, redecode }: { probeId: number; redecode: UseMutationResult<RedecodeResponse, Error, number> }) {
   const surveys = useProbeSurveys(probeId, true);
-  const qc = useQueryClient();
-  const start = (surveyId: number) => redecode.mutate(surveyId, { onSuccess: () => qc.invalidateQueries({ queryKey: probeSurveysQueryOptions(probeId).queryKey }) });
+  // The mutation refreshes the survey and every probe's list of surveys (probeKeys).
+  const start = (surveyId: number) => redecode.mutate(surveyId);
   return (
     <Card>
       <CardHeader title="Surveys decoded with this probe" description="A re-decode applies the approved sets in force now to the kept samples; the earlier decode stays recorded and the audit trail names who did it." />

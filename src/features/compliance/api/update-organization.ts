@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { Organization, UpdateOrganizationBody } from '@shared/schemas/organization';
 import { organizationQueryOptions } from './get-organization';
-import { sitesOverviewQueryOptions } from './get-sites-overview';
+import { siteKeys, surveyKeys } from '@/lib/query-keys';
 
 export const updateOrganization = (body: UpdateOrganizationBody) => api.patch<Organization>('/organization', body);
 
@@ -13,8 +13,10 @@ export function useUpdateOrganization() {
     mutationFn: updateOrganization,
     onSuccess: (org) => {
       qc.setQueryData(organizationQueryOptions().queryKey, org);
-      // Every compliance answer (sites overview, each survey, each zone) shares the root of this key.
-      return qc.invalidateQueries({ queryKey: [sitesOverviewQueryOptions().queryKey[0]] });
+      return Promise.all([
+        qc.invalidateQueries({ queryKey: siteKeys.overview() }),
+        qc.invalidateQueries({ queryKey: surveyKeys.details() }),
+      ]);
     },
   });
 }

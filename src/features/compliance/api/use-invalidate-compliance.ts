@@ -1,12 +1,15 @@
 import { useQueryClient } from '@tanstack/react-query';
-import { sitesOverviewQueryOptions } from './get-sites-overview';
-import { surveyComplianceQueryOptions } from './get-survey-compliance';
+import { siteKeys, surveyKeys } from '@/lib/query-keys';
 
-/** After a workflow step: the survey's verdicts (and its zones, keyed under it) and the sites overview. */
+/**
+ * After a workflow step: the survey with everything keyed under it (its status and abilities,
+ * verdicts, zones), the survey lists (status column) and the sites overview.
+ */
 export function useInvalidateCompliance() {
   const qc = useQueryClient();
   return (surveyId: number) => Promise.all([
-    qc.invalidateQueries({ queryKey: sitesOverviewQueryOptions().queryKey }),
-    qc.invalidateQueries({ queryKey: surveyComplianceQueryOptions(surveyId).queryKey }),
+    qc.invalidateQueries({ queryKey: siteKeys.overview() }),
+    qc.invalidateQueries({ queryKey: surveyKeys.detail(surveyId) }),
+    qc.invalidateQueries({ queryKey: surveyKeys.lists() }),
   ]);
 }

@@ -4,6 +4,7 @@ import type { SiteOverview } from '@shared/schemas/compliance';
 import { SURVEY_STATUS_LABELS } from '@shared/schemas/surveys';
 import { Badge } from '@/components/ui/badge';
 import { VerdictBadge } from './verdict-badge';
+import { paths } from '@shared/paths';
 
 /** Each site with its latest survey and how many zones meet, fall short or are inconclusive. */
 export function SitesOverviewList({ sites }: { sites: SiteOverview[] }) {
@@ -19,7 +20,7 @@ export function SitesOverviewList({ sites }: { sites: SiteOverview[] }) {
             </div>
           </div>
           {s.latestSurvey && s.counts ? (
-            <Link to={`/compliance/surveys/${s.latestSurvey.id}`} className="group mt-4 block rounded-lg p-3 ring-1 ring-ink-100 transition hover:bg-ink-50 hover:ring-lamp-300 focus-visible:outline-2 focus-visible:outline-lamp-500">
+            <Link to={paths.surveyCompliance.to(s.latestSurvey.id)} className="group mt-4 block rounded-lg p-3 ring-1 ring-ink-100 transition hover:bg-ink-50 hover:ring-lamp-300 focus-visible:outline-2 focus-visible:outline-lamp-500">
               <span className="flex items-center justify-between gap-2 text-sm">
                 <span className="min-w-0">
                   <span className="block font-medium text-ink-900">{s.latestSurvey.name}</span>

@@ -5,6 +5,7 @@ import { VERDICT_LABELS } from '@shared/schemas/compliance';
 import { useUnits } from '@/lib/units';
 import { formatNumber } from '@/lib/units';
 import { VerdictBadge } from './verdict-badge';
+import { paths } from '@shared/paths';
 
 /** The survey's zones, worst first as the server orders them, with the change since the last signed-off survey. */
 export function ZoneTable({ surveyId, zones, showChange }: { surveyId: number; zones: ZoneCompliance[]; showChange: boolean }) {
@@ -30,7 +31,7 @@ export function ZoneTable({ surveyId, zones, showChange }: { surveyId: number; z
           {zones.map((z) => (
             <tr key={z.zoneId} className="align-top hover:bg-ink-50/60">
               <th scope="row" className="px-4 py-2 text-left font-medium">
-                <Link to={`/compliance/surveys/${surveyId}/zones/${z.zoneId}`} className="text-ink-900 underline decoration-ink-200 underline-offset-2 hover:decoration-lamp-500">{z.name}</Link>
+                <Link to={paths.zoneCompliance.to(surveyId, z.zoneId)} className="text-ink-900 underline decoration-ink-200 underline-offset-2 hover:decoration-lamp-500">{z.name}</Link>
                 <span className="block text-xs font-normal text-ink-500">{z.planName} · {z.useType}</span>
               </th>
               <td className="px-3 py-2"><VerdictBadge verdict={z.verdict} /></td>

@@ -1,7 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import { planQueryOptions } from './get-plan';
-import { sitePlansQueryOptions } from './get-site-plans';
+import { planKeys } from '@/lib/query-keys';
 
 export const deletePlan = ({ planId }: { planId: number; siteId: number }) => api.delete<void>(`/plans/${planId}`);
 
@@ -11,8 +10,8 @@ export function useDeletePlan() {
   return useMutation({
     mutationFn: deletePlan,
     onSuccess: (_r, v) => {
-      qc.removeQueries({ queryKey: planQueryOptions(v.planId).queryKey });
-      qc.invalidateQueries({ queryKey: sitePlansQueryOptions(v.siteId).queryKey });
+      qc.removeQueries({ queryKey: planKeys.detail(v.planId) });
+      qc.invalidateQueries({ queryKey: planKeys.list(v.siteId) });
     },
   });
 }

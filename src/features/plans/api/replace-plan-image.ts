@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api, type UploadProgress } from '@/lib/api-client';
 import type { Plan } from '@shared/schemas/plans';
-import { surveyMapQueryOptions } from './get-survey-map';
 import { useStoreChangedPlan } from '../hooks/use-store-changed-plan';
+import { surveyKeys } from '@/lib/query-keys';
 
 export type ReplacePlanImageInput = { planId: number; file: File; onProgress?: (p: UploadProgress) => void };
 
@@ -12,7 +12,7 @@ export function replacePlanImage({ planId, file, onProgress }: ReplacePlanImageI
   return api.upload<Plan>(`/plans/${planId}/image`, form, onProgress, undefined, 'PUT');
 }
 
-/** Zones keep their coordinates in metres; survey maps are refetched (the plan's edge may have moved). */
+/** Zones keep their coordinates in metres; survey maps and verdicts are refetched (the plan's edge may have moved). */
 export function useReplacePlanImage() {
   const qc = useQueryClient();
   const store = useStoreChangedPlan();
@@ -20,7 +20,7 @@ export function useReplacePlanImage() {
     mutationFn: replacePlanImage,
     onSuccess: (plan) => {
       store(plan);
-      qc.invalidateQueries({ queryKey: surveyMapQueryOptions(0).queryKey.slice(0, 1) });
+      qc.invalidateQueries({ queryKey: surveyKeys.details() });
     },
   });
 }

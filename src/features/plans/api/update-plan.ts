@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { Plan, UpdatePlanBody } from '@shared/schemas/plans';
-import { zonesQueryOptions } from './get-zones';
 import { useStoreChangedPlan } from '../hooks/use-store-changed-plan';
+import { planKeys } from '@/lib/query-keys';
 
 export const updatePlan = ({ planId, ...body }: UpdatePlanBody & { planId: number }) => api.patch<Plan>(`/plans/${planId}`, body);
 
@@ -14,7 +14,7 @@ export function useUpdatePlan() {
     mutationFn: updatePlan,
     onSuccess: (plan) => {
       store(plan);
-      qc.invalidateQueries({ queryKey: zonesQueryOptions(plan.id).queryKey });
+      qc.invalidateQueries({ queryKey: planKeys.zones(plan.id) });
     },
   });
 }

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api, type UploadProgress } from '@/lib/api-client';
 import type { Plan } from '@shared/schemas/plans';
-import { sitePlansQueryOptions } from './get-site-plans';
+import { planKeys } from '@/lib/query-keys';
 
 export type UploadPlanInput = { siteId: number; file: File; name: string; widthM?: number; onProgress?: (p: UploadProgress) => void };
 
@@ -15,5 +15,5 @@ export function uploadPlan({ siteId, file, name, widthM, onProgress }: UploadPla
 
 export function useUploadPlan() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: uploadPlan, onSuccess: (_p, v) => qc.invalidateQueries({ queryKey: sitePlansQueryOptions(v.siteId).queryKey }) });
+  return useMutation({ mutationFn: uploadPlan, onSuccess: (_p, v) => qc.invalidateQueries({ queryKey: planKeys.list(v.siteId) }) });
 }

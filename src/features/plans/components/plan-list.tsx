@@ -2,6 +2,7 @@ import { Link } from 'react-router';
 import { Ruler, Shapes } from 'lucide-react';
 import type { Plan } from '@shared/schemas/plans';
 import { Badge } from '@/components/ui/badge';
+import { paths } from '@shared/paths';
 
 const m = (v: number) => (Math.round(v * 10) / 10).toLocaleString('en-GB');
 
@@ -10,7 +11,7 @@ export function PlanList({ plans }: { plans: readonly Plan[] }) {
     <ul className="grid gap-4 sm:grid-cols-2 xl:grid-cols-3">
       {plans.map((p) => (
         <li key={p.id}>
-          <Link to={`/plans/${p.id}`} className="group block overflow-hidden rounded-xl bg-white shadow-card ring-1 ring-ink-100 transition hover:ring-lamp-300">
+          <Link to={paths.plan.to(p.id)} className="group block overflow-hidden rounded-xl bg-white shadow-card ring-1 ring-ink-100 transition hover:ring-lamp-300">
             <div className="flex aspect-[16/9] items-center justify-center bg-ink-50">
               <img src={p.imageUrl} alt="" loading="lazy" className="max-h-full max-w-full object-contain" />
             </div>

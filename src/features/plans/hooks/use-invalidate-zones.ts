@@ -1,14 +1,15 @@
 import { useQueryClient } from '@tanstack/react-query';
-import { zonesQueryOptions } from '../api/get-zones';
-import { planQueryOptions } from '../api/get-plan';
-import { surveyMapQueryOptions } from '../api/get-survey-map';
+import { planKeys, siteKeys, surveyKeys } from '@/lib/query-keys';
 
-/** After a zone change: the plan's zones, its zone count, and every survey map (zone assignment changes). */
+/**
+ * After a zone change: the plan with its zones, and every survey's map and verdicts (which
+ * readings fall in which zone changes; the client cannot tell which surveys lie on the plan).
+ */
 export function useInvalidateZones() {
   const qc = useQueryClient();
   return (planId: number) => {
-    qc.invalidateQueries({ queryKey: zonesQueryOptions(planId).queryKey });
-    qc.invalidateQueries({ queryKey: planQueryOptions(planId).queryKey });
-    qc.invalidateQueries({ queryKey: surveyMapQueryOptions(0).queryKey.slice(0, 1) });
+    qc.invalidateQueries({ queryKey: planKeys.detail(planId) });
+    qc.invalidateQueries({ queryKey: surveyKeys.details() });
+    qc.invalidateQueries({ queryKey: siteKeys.overview() });
   };
 }

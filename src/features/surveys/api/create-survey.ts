@@ -1,8 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { CreateSurveyBody, Survey } from '@shared/schemas/surveys';
-import { surveysQueryOptions } from './get-surveys';
-import { sitesQueryOptions } from './get-sites';
+import { siteKeys, surveyKeys } from '@/lib/query-keys';
 
 export const createSurvey = (body: CreateSurveyBody) => api.post<Survey>('/surveys', body);
 
@@ -11,8 +10,8 @@ export function useCreateSurvey() {
   return useMutation({
     mutationFn: createSurvey,
     onSuccess: () => Promise.all([
-      qc.invalidateQueries({ queryKey: surveysQueryOptions().queryKey }),
-      qc.invalidateQueries({ queryKey: sitesQueryOptions().queryKey }),
+      qc.invalidateQueries({ queryKey: surveyKeys.lists() }),
+      qc.invalidateQueries({ queryKey: siteKeys.all }),
     ]),
   });
 }

@@ -1,12 +1,13 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { ImportStatus } from '@shared/schemas/imports';
+import { importKeys } from '@/lib/query-keys';
 
 export const getImport = (id: number) => api.get<ImportStatus>(`/imports/${id}`);
 
 /** Polls every 400 ms while the server is still reading the file. */
 export const importQueryOptions = (id: number) => queryOptions({
-  queryKey: ['imports', id],
+  queryKey: importKeys.detail(id),
   queryFn: () => getImport(id),
   refetchInterval: (q) => (q.state.data && (q.state.data.status === 'done' || q.state.data.status === 'failed') ? false : 400),
 });

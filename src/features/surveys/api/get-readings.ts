@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, queryString } from '@/lib/api-client';
 import type { ReadingFlag, ReadingsResponse } from '@shared/schemas/readings';
+import { surveyKeys } from '@/lib/query-keys';
 
 export type ReadingsFilter = { flag?: ReadingFlag; point?: string; sort: 'time' | 'point' | 'lux' | 'flag' | 'probe'; order: 'asc' | 'desc' };
 export const READINGS_PAGE = 500;
@@ -8,12 +9,9 @@ export const READINGS_PAGE = 500;
 export const getReadings = (surveyId: number, f: ReadingsFilter, offset: number, limit = READINGS_PAGE) =>
   api.get<ReadingsResponse>(`/surveys/${surveyId}/readings${queryString({ ...f, offset, limit })}`);
 
-/** Every readings query of a survey starts with this key (pages, series). */
-export const surveyReadingsKey = (surveyId: number) => ['readings', surveyId] as const;
-
 /** One page of readings; the virtualised table asks for the pages that scroll into view. */
 export const readingsPageQueryOptions = (surveyId: number, f: ReadingsFilter = { sort: 'time', order: 'asc' }, page = 0) => queryOptions({
-  queryKey: [...surveyReadingsKey(surveyId), f, page],
+  queryKey: surveyKeys.readingsPage(surveyId, f, page),
   queryFn: () => getReadings(surveyId, f, page * READINGS_PAGE),
   placeholderData: keepPreviousData,
   staleTime: 30_000,

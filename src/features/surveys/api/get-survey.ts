@@ -1,7 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { SurveyDetail } from '@shared/schemas/surveys';
+import { surveyKeys } from '@/lib/query-keys';
 
 export const getSurvey = (id: number) => api.get<SurveyDetail>(`/surveys/${id}`);
-export const surveyQueryOptions = (id: number) => queryOptions({ queryKey: ['surveys', 'detail', id], queryFn: () => getSurvey(id) });
+export const surveyQueryOptions = (id: number) => queryOptions({ queryKey: surveyKeys.detail(id), queryFn: () => getSurvey(id) });
 export const useSurvey = (id: number) => useQuery(surveyQueryOptions(id));

@@ -1,14 +1,15 @@
 import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { RedecodeResponse } from '@shared/schemas/readings';
-import { surveyQueryOptions } from './get-survey';
-import { surveyReadingsKey } from './get-readings';
+import { probeKeys, siteKeys, surveyKeys } from '@/lib/query-keys';
 
 export const redecodeSurvey = (surveyId: number) => api.post<RedecodeResponse>(`/surveys/${surveyId}/redecode`);
 
+/** New readings: the survey with its readings, map and verdicts, the overview, and its probes' survey lists. */
 const refreshSurvey = (qc: QueryClient, surveyId: number) => Promise.all([
-  qc.invalidateQueries({ queryKey: surveyQueryOptions(surveyId).queryKey }),
-  qc.invalidateQueries({ queryKey: surveyReadingsKey(surveyId) }),
+  qc.invalidateQueries({ queryKey: surveyKeys.detail(surveyId) }),
+  qc.invalidateQueries({ queryKey: siteKeys.overview() }),
+  qc.invalidateQueries({ queryKey: probeKeys.details() }),
 ]);
 
 export function useRedecodeSurvey(surveyId: number) {

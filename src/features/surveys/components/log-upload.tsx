@@ -4,13 +4,12 @@ import type { PlanListResponse } from '@shared/schemas/plans';
 import { CheckCircle2, Upload } from 'lucide-react';
 import { useUploadLog } from '../api/upload-log';
 import { useImport } from '../api/get-import';
-import { surveyQueryOptions } from '../api/get-survey';
-import { surveyReadingsKey } from '../api/get-readings';
 import { ImportErrorsTable, ImportWarningsList } from './import-errors-table';
 import { Button } from '@/components/ui/button';
 import { ProgressBar } from '@/components/ui/progress-bar';
 import { FormError } from '@/components/ui/form-error';
 import { SelectField } from '@/components/ui/field';
+import { probeKeys, siteKeys, surveyKeys } from '@/lib/query-keys';
 
 /**
  * Upload of one log: the plan its rows were taken on (the log's plan column by default), the
@@ -32,8 +31,9 @@ export function LogUpload({ surveyId, plans }: { surveyId: number; plans: UseQue
 
   useEffect(() => {
     if (status === 'done' || status === 'failed') {
-      void qc.invalidateQueries({ queryKey: surveyQueryOptions(surveyId).queryKey });
-      if (status === 'done') void qc.invalidateQueries({ queryKey: surveyReadingsKey(surveyId) });
+      // Accepted: new readings change the survey's readings, map and verdicts; refused: only its import list.
+      void qc.invalidateQueries({ queryKey: surveyKeys.detail(surveyId), exact: status !== 'done' });
+      if (status === 'done') void Promise.all([qc.invalidateQueries({ queryKey: surveyKeys.lists() }), qc.invalidateQueries({ queryKey: siteKeys.overview() }), qc.invalidateQueries({ queryKey: probeKeys.details() })]);
     }
   }, [status, surveyId, qc]);
 

@@ -18,6 +18,7 @@ import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { Button } from '@/components/ui/button';
 import { FormError } from '@/components/ui/form-error';
 import { QueryState } from '@/components/ui/states';
+import { paths } from '@shared/paths';
 
 function Summary({ survey }: { survey: SurveyDetail }) {
   const flagged = READING_FLAGS.filter((f) => f !== 'ok' && survey.flagCounts[f]);
@@ -80,7 +81,7 @@ export function SurveyPage({ surveyId, role, sitePlans }: { surveyId: number; ro
         {(s) => (
           <>
             <PageHeader
-              eyebrow={<Link to="/surveys" className="hover:underline">Surveys · {s.siteName}</Link>}
+              eyebrow={<Link to={paths.surveys.to()} className="hover:underline">Surveys · {s.siteName}</Link>}
               title={s.name}
               description={<span className="inline-flex flex-wrap items-center gap-2"><SurveyStatusBadge status={s.status} />{s.startedOn && <span>started {s.startedOn}</span>}{s.conditions && <span>{s.conditions.daylightExcluded ? 'daylight excluded' : 'daylight included'}</span>}</span>}
             />

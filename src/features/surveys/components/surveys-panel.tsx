@@ -12,6 +12,7 @@ import { SelectField, TextField } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { FormError } from '@/components/ui/form-error';
 import { EmptyState, QueryState } from '@/components/ui/states';
+import { paths } from '@shared/paths';
 
 type SurveyFormValues = { siteId: string; name: string; startedOn: string; daylightExcluded: boolean };
 
@@ -27,7 +28,7 @@ function CreateSurveyForm({ siteId }: { siteId: number | null }) {
       for (const issue of parsed.error.issues) form.setError(String(issue.path[0]) as keyof SurveyFormValues, { message: issue.path[0] === 'siteId' ? 'Choose a site' : issue.message });
       return;
     }
-    create.mutate(parsed.data, { onSuccess: (s) => navigate(`/surveys/${s.id}`) });
+    create.mutate(parsed.data, { onSuccess: (s) => navigate(paths.survey.to(s.id)) });
   });
   return (
     <form noValidate aria-label="Start a survey" className="grid gap-3 sm:grid-cols-2" onSubmit={submit}>
@@ -64,7 +65,7 @@ export function SurveysPanel({ role, siteId }: { role: Parameters<typeof can>[0]
                 <tbody className="divide-y divide-ink-100">
                   {d.items.map((s) => (
                     <tr key={s.id} className="hover:bg-ink-50">
-                      <td className="px-5 py-2"><Link className="font-medium text-ink-900 underline-offset-2 hover:underline focus-visible:underline" to={`/surveys/${s.id}`}>{s.name}</Link></td>
+                      <td className="px-5 py-2"><Link className="font-medium text-ink-900 underline-offset-2 hover:underline focus-visible:underline" to={paths.survey.to(s.id)}>{s.name}</Link></td>
                       <td className="px-3 py-2 text-ink-600">{s.siteName}</td>
                       <td className="px-3 py-2"><SurveyStatusBadge status={s.status} /></td>
                       <td className="num px-3 py-2 text-right">{s.readingCount.toLocaleString('en-GB')}</td>

@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { SetZoneTargetBody, ZoneTargetResponse } from '@shared/schemas/targets';
 import { zoneTargetQueryOptions } from './get-zone-target';
+import { siteKeys, surveyKeys } from '@/lib/query-keys';
 
 export const setZoneTarget = ({ zoneId, ...body }: SetZoneTargetBody & { zoneId: number }) => api.put<ZoneTargetResponse>(`/zones/${zoneId}/target`, body);
 
@@ -12,7 +13,8 @@ export function useSetZoneTarget(onChanged?: () => unknown) {
     mutationFn: setZoneTarget,
     onSuccess: async (z) => {
       qc.setQueryData(zoneTargetQueryOptions(z.zoneId).queryKey, z);
-      await onChanged?.();
+      // The zone's verdict changes in every survey not yet signed off.
+      await Promise.all([qc.invalidateQueries({ queryKey: surveyKeys.details() }), qc.invalidateQueries({ queryKey: siteKeys.overview() }), onChanged?.()]);
     },
   });
 }

@@ -1,0 +1,57 @@
+import type { Capability } from './policy';
+
+/**
+ * Every page of the client: its pattern for the router, the capability it needs (null: any
+ * signed-in user, or public for the sign-in pages) and `to(...)`, which builds a link to it.
+ * The router, the navigation, every link and the server's e-mailed URLs use these, so a page
+ * moves in one place.
+ */
+type Id = number | string;
+
+function query(values: Record<string, string | number | undefined | null>): string {
+  const search = new URLSearchParams();
+  for (const [key, value] of Object.entries(values)) if (value !== undefined && value !== null && value !== '') search.set(key, String(value));
+  const text = search.toString();
+  return text ? `?${text}` : '';
+}
+
+function page<const P extends string, A extends unknown[]>(pattern: P, capability: Capability | null, to: (...args: A) => string) {
+  return { pattern, capability, to };
+}
+
+export const paths = {
+  // Public pages (outside the signed-in shell).
+  signIn: page('/sign-in', null, (next?: string) => `/sign-in${query({ next })}`),
+  forgotPassword: page('/forgot-password', null, () => '/forgot-password'),
+  resetPassword: page('/reset-password', null, (token?: string) => `/reset-password${query({ token })}`),
+  acceptInvite: page('/accept-invite', null, (token?: string) => `/accept-invite${query({ token })}`),
+
+  // Signed-in pages.
+  home: page('/', null, () => '/'),
+  users: page('/users', 'users.manage', () => '/users'),
+  outbox: page('/outbox', 'outbox.read', () => '/outbox'),
+  plans: page('/plans', 'sites.read', (siteId?: Id) => `/plans${query({ site: siteId })}`),
+  plan: page('/plans/:planId', 'sites.read', (planId: Id) => `/plans/${planId}`),
+  surveys: page('/surveys', 'surveys.read', () => '/surveys'),
+  survey: page('/surveys/:surveyId', 'surveys.read', (surveyId: Id) => `/surveys/${surveyId}`),
+  surveyMap: page('/surveys/:surveyId/map', 'surveys.read', (surveyId: Id, planId?: Id) => `/surveys/${surveyId}/map${query({ planId })}`),
+  calibration: page('/calibration', 'probes.read', () => '/calibration'),
+  probes: page('/calibration/probes', 'probes.read', () => '/calibration/probes'),
+  probeNew: page('/calibration/probes/new', 'probes.write', () => '/calibration/probes/new'),
+  probe: page('/calibration/probes/:probeId', 'probes.read', (probeId: Id) => `/calibration/probes/${probeId}`),
+  probeEdit: page('/calibration/probes/:probeId/edit', 'probes.write', (probeId: Id) => `/calibration/probes/${probeId}/edit`),
+  benchRun: page('/calibration/bench-runs/:benchRunId', 'coefficients.read', (benchRunId: Id) => `/calibration/bench-runs/${benchRunId}`),
+  audit: page('/calibration/audit', 'audit.read', (probeId?: Id) => `/calibration/audit${query({ probe: probeId })}`),
+  compliance: page('/compliance', 'surveys.read', () => '/compliance'),
+  surveyCompliance: page('/compliance/surveys/:surveyId', 'surveys.read', (surveyId: Id) => `/compliance/surveys/${surveyId}`),
+  zoneCompliance: page('/compliance/surveys/:surveyId/zones/:zoneId', 'surveys.read', (surveyId: Id, zoneId: Id) => `/compliance/surveys/${surveyId}/zones/${zoneId}`),
+  targets: page('/targets', 'targets.read', () => '/targets'),
+  settings: page('/settings', 'organization.settings', () => '/settings'),
+} as const;
+
+export type PageName = keyof typeof paths;
+
+/** An absolute link for e-mails: the configured public URL plus a page's path. */
+export function absoluteUrl(publicUrl: string, path: string): string {
+  return `${publicUrl.replace(/\/+$/, '')}${path}`;
+}
