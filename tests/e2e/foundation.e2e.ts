@@ -7,7 +7,8 @@ beforeAll(async () => { app = await startE2eApp(); });
 afterAll(async () => { await app?.stop(); });
 
 describe('foundation in a real browser', () => {
-  it('shows each demo role the navigation its capabilities allow', async () => {
+  // Five sign-ins in a row: a generous limit for a busy machine.
+  it('shows each demo role the navigation its capabilities allow', { timeout: 240_000 }, async () => {
     const expectations: Record<string, { has: string[]; lacks: string[] }> = {
       'admin@luxtrail.test': { has: ['Overview', 'Users', 'Outbox'], lacks: [] },
       'surveyor@luxtrail.test': { has: ['Overview'], lacks: ['Users', 'Outbox'] },
