@@ -7,7 +7,8 @@ beforeAll(async () => { app = await startE2eApp(); });
 afterAll(async () => { await app?.stop(); });
 
 describe('verdicts, sign-off and the report in a real browser', () => {
-  it('a facility manager opens the demo site, finds a zone falling short, signs the survey off and the report reaches the outbox', async () => {
+  // A long journey (two sign-ins, a PDF rendered at sign-off): a generous limit for a busy machine.
+  it('a facility manager opens the demo site, finds a zone falling short, signs the survey off and the report reaches the outbox', { timeout: 180_000 }, async () => {
     const page = await app.newPage();
     await signInAs(page, 'facilities@luxtrail.test');
     await page.locator('aside').getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Verdicts' }).click();
