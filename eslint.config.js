@@ -2,6 +2,10 @@ import js from '@eslint/js';
 import tseslint from 'typescript-eslint';
 import reactHooks from 'eslint-plugin-react-hooks';
 import globals from 'globals';
+import fs from 'node:fs';
+
+const CLIENT_NEVER_IMPORTS_SERVER = { group: ['@server/*', '../server/*', '../../server/*'], message: 'The client never imports server code.' };
+const FEATURES = fs.readdirSync(new URL('./src/features', import.meta.url), { withFileTypes: true }).filter((e) => e.isDirectory()).map((e) => e.name);
 
 export default tseslint.config(
   { ignores: ['dist', 'node_modules', 'data', 'drizzle', 'coverage'] },
@@ -18,9 +22,22 @@ export default tseslint.config(
     plugins: { 'react-hooks': reactHooks },
     rules: {
       ...reactHooks.configs.recommended.rules,
-      'no-restricted-imports': ['error', { patterns: [{ group: ['@server/*', '../server/*', '../../server/*'], message: 'The client never imports server code.' }] }],
+      'no-restricted-imports': ['error', { patterns: [CLIENT_NEVER_IMPORTS_SERVER] }],
     },
   },
+  // Features never import each other: a page that needs two features composes them in src/app/routes/.
+  ...FEATURES.map((feature) => {
+    const others = FEATURES.filter((f) => f !== feature);
+    return {
+      files: [`src/features/${feature}/**/*.{ts,tsx}`],
+      rules: {
+        'no-restricted-imports': ['error', { patterns: [CLIENT_NEVER_IMPORTS_SERVER, {
+          group: others.flatMap((f) => [`@/features/${f}`, `@/features/${f}/*`, `../../${f}/*`, `../../../${f}/*`]),
+          message: `src/features/${feature} may not import another feature; compose features in src/app/routes/.`,
+        }] }],
+      },
+    };
+  }),
   {
     files: ['shared/**/*.ts'],
     rules: {

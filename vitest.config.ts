@@ -13,7 +13,7 @@ export default defineConfig({
   test: {
     projects: [
       // Generous limits: every server test file seeds the demo scenario, and CI has two cores.
-      { resolve: { alias }, test: { name: 'node', environment: 'node', include: ['tests/shared/**/*.test.ts', 'tests/server/**/*.test.ts'], testTimeout: 30_000, hookTimeout: 60_000 } },
+      { resolve: { alias }, test: { name: 'node', environment: 'node', include: ['tests/shared/**/*.test.ts', 'tests/server/**/*.test.ts', 'tests/architecture/**/*.test.ts'], testTimeout: 30_000, hookTimeout: 60_000 } },
       { resolve: { alias }, test: { name: 'client', environment: 'jsdom', include: ['tests/client/**/*.test.{ts,tsx}'], testTimeout: 15_000 } },
     ],
   },

@@ -12,17 +12,7 @@ import { sameOriginOnly } from './http/csrf';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import { SqliteSessionStore } from './http/session-store';
 import { loadSessionUser } from './modules/auth/auth-service';
-import { registerAuthRoutes } from './modules/auth/auth-routes';
-import { registerUserRoutes } from './modules/users/users-routes';
-import { registerOutboxRoutes } from './modules/outbox/outbox-routes';
-import { registerAuditRoutes } from './modules/audit/audit-routes';
-import { registerHealthRoutes } from './modules/health/health-routes';
-import { registerCalibrationRoutes } from './modules/calibration/calibration-routes';
-import { registerPlanRoutes } from './modules/plans/plans-routes';
-import { registerZoneRoutes } from './modules/zones/zones-routes';
-import { registerSurveyFeatureRoutes } from './modules/surveys/survey-feature-routes';
-import { registerComplianceFeatureRoutes } from './modules/compliance/compliance-feature-routes';
-import { registerEmergencyRoutes } from './modules/emergency/emergency-routes';
+import { SERVER_MODULES } from './modules';
 
 export const SESSION_TTL_MS = 8 * 3600_000;
 
@@ -82,17 +72,7 @@ export function createApp(deps: Deps, options: AppOptions = {}) {
   });
   app.use('/api', sameOriginOnly([deps.config.publicUrl]));
 
-  registerHealthRoutes(api, deps);
-  registerAuthRoutes(api, deps);
-  registerUserRoutes(api, deps);
-  registerOutboxRoutes(api, deps);
-  registerAuditRoutes(api, deps);
-  registerCalibrationRoutes(api, deps);
-  registerPlanRoutes(api, deps);
-  registerZoneRoutes(api, deps);
-  registerSurveyFeatureRoutes(api, deps);
-  registerComplianceFeatureRoutes(api, deps);
-  registerEmergencyRoutes(api, deps);
+  for (const m of SERVER_MODULES) m.routes?.(api, deps);
 
   const openApi = api.openApiDocument();
   app.get('/api/openapi.json', (_req, res) => { res.json(openApi); });

@@ -5,7 +5,6 @@ import { createMailer } from './mail/mailer';
 import { systemClock } from './lib/clock';
 import { createApp } from './app';
 import { seedIfEmpty } from './db/seed';
-import './db/seed-steps';
 import { startJobs } from './jobs';
 
 async function main() {

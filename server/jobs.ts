@@ -1,14 +1,15 @@
 import type { Deps } from './deps';
 import type { SqliteSessionStore } from './http/session-store';
 
-type Job = { name: string; everyMs: number; run: (deps: Deps) => Promise<unknown> | unknown };
+import { SERVER_MODULES, type Job } from './modules';
 
-/** Background jobs that run inside the server; modules add theirs to this list. */
-export const JOBS: Job[] = [];
+/** The background jobs every module declares in server/modules.ts. */
+export const serverJobs = (): Job[] => SERVER_MODULES.flatMap((m) => m.jobs ?? []);
 
+/** Runs the modules' jobs inside a real server (config.runJobs); returns a stop function. */
 export function startJobs(deps: Deps, sessions: SqliteSessionStore): () => void {
   const timers = [setInterval(() => sessions.prune(), 3600_000)];
-  for (const job of JOBS) {
+  for (const job of serverJobs()) {
     const tick = async () => {
       try { await job.run(deps); } catch (err) { console.error(`Job ${job.name} failed`, err); }
     };

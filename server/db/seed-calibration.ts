@@ -1,5 +1,5 @@
 import type { Deps } from '../deps';
-import { SEED_STEPS, type SeedContext } from './seed';
+import type { SeedContext } from './seed-context';
 import { coefficientSets, probes } from './schema/calibration';
 import { DEMO_ANALOG_PROBE, DEMO_COUNTING_PROBES } from './demo/demo-probes';
 import { recordAudit } from '../modules/audit/audit-service';
@@ -90,5 +90,3 @@ export function seedCalibration(deps: Deps, ctx: SeedContext) {
     }, { drafter: null, approver: otherAdmin });
   });
 }
-
-SEED_STEPS.push({ name: 'calibration', run: seedCalibration });

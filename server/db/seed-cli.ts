@@ -3,7 +3,6 @@ import { openDatabase } from './client';
 import { createMailer } from '../mail/mailer';
 import { systemClock } from '../lib/clock';
 import { seedIfEmpty } from './seed';
-import './seed-steps';
 
 /** `npm run seed`: migrate and seed the demo scenario into an empty database, then exit. */
 const config = loadConfig();

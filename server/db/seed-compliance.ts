@@ -1,6 +1,6 @@
 import { and, eq } from 'drizzle-orm';
 import type { Deps } from '../deps';
-import { SEED_STEPS, type SeedContext } from './seed';
+import type { SeedContext } from './seed-context';
 import { surveys } from './schema/surveys';
 import { users } from './schema/organizations';
 import { seedShippedTargets } from '../modules/targets/targets-service';
@@ -23,5 +23,3 @@ export async function seedCompliance(deps: Deps, ctx: SeedContext) {
   const actor: SessionUser = { id: fm.id, email: fm.email, name: fm.name, role: fm.role, organizationId: ctx.demoOrgId, organizationName: 'Fernmoor Civic Trust' };
   await signOffSurvey(deps, actor, spring.id, { comment: 'Spring levels reviewed with the Trust\'s buildings committee.' });
 }
-
-SEED_STEPS.push({ name: 'compliance', run: seedCompliance });

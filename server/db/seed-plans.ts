@@ -4,8 +4,8 @@ import crypto from 'node:crypto';
 import { PNG } from 'pngjs';
 import { and, asc, eq } from 'drizzle-orm';
 import type { Deps } from '../deps';
-import { SEED_STEPS, type SeedContext } from './seed';
-import { sites } from './schema/surveys';
+import type { SeedContext } from './seed-context';
+import { sites } from './schema/sites';
 import { DEMO_PLANS, DEMO_REFERENCE_POINT, DEMO_SITE, type DemoPlan } from './demo/library-layout';
 import { createPlan } from '../modules/plans/plans-service';
 import { createZone } from '../modules/zones/zones-service';
@@ -127,7 +127,7 @@ function firstSite(deps: Deps, organizationId: number, name?: string) {
 /** Plans step: the library's three plans with their zones, and one plan of the second organisation. */
 export async function seedPlans(deps: Deps, ctx: SeedContext) {
   const library = firstSite(deps, ctx.demoOrgId, DEMO_SITE.name);
-  if (!library) throw new Error('The plans seed step needs the demo site from the surveys step: register it first in server/db/seed-steps.ts');
+  if (!library) throw new Error('The plans seed step needs the demo site from the surveys step: list the surveys module before plans in server/modules.ts');
   const surveyor: SessionUser = { id: ctx.usersByEmail['surveyor@luxtrail.test'], email: 'surveyor@luxtrail.test', name: 'seed', role: 'surveyor', organizationId: ctx.demoOrgId, organizationName: '' };
   for (const plan of DEMO_PLANS) await seedPlan(deps, surveyor, library.id, plan);
 
@@ -137,5 +137,3 @@ export async function seedPlans(deps: Deps, ctx: SeedContext) {
     await seedPlan(deps, otherAdmin, works.id, QUILLBANK_PLAN);
   }
 }
-
-SEED_STEPS.push({ name: 'plans', run: seedPlans });

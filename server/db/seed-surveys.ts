@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { and, eq } from 'drizzle-orm';
 import type { Deps } from '../deps';
-import { SEED_STEPS, type SeedContext } from './seed';
+import type { SeedContext } from './seed-context';
 import { surveys } from './schema/surveys';
 import { DEMO_SITE } from './demo/library-layout';
 import { createSite } from '../modules/sites/sites-service';
@@ -68,5 +68,3 @@ export async function seedSurveyLogs(deps: Deps, ctx: SeedContext) {
     deps.db.update(surveys).set({ status: 'submitted', submittedBy: surveyor.id, submittedAt: ctx.now }).where(eq(surveys.id, s.id)).run();
   }
 }
-
-SEED_STEPS.push({ name: 'surveys', run: seedSurveys });

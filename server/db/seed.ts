@@ -3,19 +3,11 @@ import type { Deps } from '../deps';
 import { organizations, users } from './schema/organizations';
 import { hashPassword } from '../modules/auth/passwords';
 import type { Role } from '@shared/roles';
+import type { SeedContext } from './seed-context';
+import { SERVER_MODULES } from '../modules';
 
 export const DEMO_PASSWORD = 'luxtrail-demo';
 
-/** What later seed steps need from the first: the organisations and users it made. */
-export type SeedContext = {
-  now: number;
-  demoOrgId: number;
-  otherOrgId: number;
-  usersByEmail: Record<string, number>;
-};
-
-/** Seed steps of the features, run in order on an empty database. */
-export const SEED_STEPS: { name: string; run: (deps: Deps, ctx: SeedContext) => Promise<void> | void }[] = [];
 
 const DEMO_USERS: { email: string; name: string; role: Role; org: 'demo' | 'other' }[] = [
   { email: 'admin@luxtrail.test', name: 'Imogen Aldercott', role: 'admin', org: 'demo' },
@@ -37,7 +29,7 @@ export async function seedIfEmpty(deps: Deps): Promise<boolean> {
   if (count > 0) return false;
   const passwordHash = await hashPassword(DEMO_PASSWORD);
   const now = deps.clock.now();
-  const ctx = deps.db.transaction((tx) => {
+  const ctx = deps.db.transaction((tx): SeedContext => {
     const demo = tx.insert(organizations).values({ name: 'Fernmoor Civic Trust', decisionRule: 'guarded', createdAt: now }).returning().get();
     const other = tx.insert(organizations).values({ name: 'Quillbank Works', decisionRule: 'simple', createdAt: now }).returning().get();
     const usersByEmail: Record<string, number> = {};
@@ -47,6 +39,7 @@ export async function seedIfEmpty(deps: Deps): Promise<boolean> {
     }
     return { now, demoOrgId: demo.id, otherOrgId: other.id, usersByEmail };
   });
-  for (const step of SEED_STEPS) await step.run(deps, ctx);
+  // Then each module's demo data, in the order of the module list.
+  for (const m of SERVER_MODULES) if (m.seed) await m.seed(deps, ctx);
   return true;
 }

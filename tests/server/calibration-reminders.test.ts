@@ -2,7 +2,7 @@ import { describe, it, expect, beforeEach } from 'vitest';
 import { createTestApp, DEMO, DEMO_START, type TestApp } from './helpers';
 import { outboxMessages } from '@server/db/schema/organizations';
 import { coefficientSets } from '@server/db/schema/calibration';
-import { JOBS } from '@server/jobs';
+import { serverJobs } from '@server/jobs';
 import { loadDecodingCalibration } from '@server/modules/probes/probe-calibration';
 import { createCoefficientSelector, isCalibrationLapsed } from '@shared/core/coefficient-sets';
 import { createCountingProbe, manualDraftBody, probeIdBySerial } from './calibration-factories';
@@ -129,7 +129,7 @@ describe('calibration reminders', () => {
   });
 
   it('runs the daily job across every organisation, when the server schedules it', async () => {
-    const job = JOBS.find((j) => j.name === 'calibration-reminders');
+    const job = serverJobs().find((j) => j.name === 'calibration-reminders');
     expect(job?.everyMs).toBe(24 * 3600_000);
     t.clock.advance(280 * DAY); // Quillbank's QW-0012 (due 275 days after the seed) is now overdue too.
     await job!.run(t.deps);

@@ -1,5 +1,6 @@
 import { eq } from 'drizzle-orm';
-import { sites, surveys, decodes, logImports, readings } from '@server/db/schema/surveys';
+import { surveys, decodes, logImports, readings } from '@server/db/schema/surveys';
+import { sites } from '@server/db/schema/sites';
 import { plans, zones } from '@server/db/schema/plans';
 import { coefficientSets, probes } from '@server/db/schema/calibration';
 import { storedFiles, users } from '@server/db/schema/organizations';

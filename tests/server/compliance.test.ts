@@ -1,7 +1,7 @@
 import { describe, it, expect, beforeEach } from 'vitest';
 import { createTestApp, DEMO, type TestApp } from './helpers';
 import { buildSurvey, gridReadings, OFFICE_AND_CORRIDOR, officeAndCorridorReadings, userId } from './compliance-fixtures';
-import { sites } from '@server/db/schema/surveys';
+import { sites } from '@server/db/schema/sites';
 import { plans, zones } from '@server/db/schema/plans';
 import { storedFiles, userSites } from '@server/db/schema/organizations';
 import { RULE_TEXT } from '@shared/core/decision';

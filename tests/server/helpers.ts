@@ -6,7 +6,6 @@ import { fixedClock } from '@server/lib/clock';
 import { createMailer } from '@server/mail/mailer';
 import { createApp } from '@server/app';
 import { seedIfEmpty, DEMO_PASSWORD } from '@server/db/seed';
-import '@server/db/seed-steps';
 import { outboxMessages } from '@server/db/schema/organizations';
 import { desc } from 'drizzle-orm';
 

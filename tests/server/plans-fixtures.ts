@@ -1,6 +1,7 @@
 import { PNG } from 'pngjs';
 import { eq } from 'drizzle-orm';
-import { sites, surveys, decodes, logImports, readings } from '@server/db/schema/surveys';
+import { surveys, decodes, logImports, readings } from '@server/db/schema/surveys';
+import { sites } from '@server/db/schema/sites';
 import { probes } from '@server/db/schema/calibration';
 import { storedFiles, users } from '@server/db/schema/organizations';
 import type { TestApp } from './helpers';

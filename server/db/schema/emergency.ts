@@ -1,6 +1,7 @@
 import { sqliteTable, integer, text, real, index, uniqueIndex } from 'drizzle-orm/sqlite-core';
 import { organizations, users } from './organizations';
-import { sites, surveys } from './surveys';
+import { surveys } from './surveys';
+import { sites } from './sites';
 import { plans } from './plans';
 import type { EmergencyCheck, EmergencyPass } from '@shared/core/emergency';
 

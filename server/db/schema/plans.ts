@@ -1,5 +1,5 @@
 import { sqliteTable, integer, text, real, index } from 'drizzle-orm/sqlite-core';
-import { sites } from './surveys';
+import { sites } from './sites';
 import { storedFiles } from './organizations';
 
 export const plans = sqliteTable('plans', {

@@ -2,15 +2,7 @@ import { sqliteTable, integer, text, real, blob, index, type AnySQLiteColumn } f
 import { organizations, users, storedFiles } from './organizations';
 import { probes } from './calibration';
 import { plans } from './plans';
-
-export const sites = sqliteTable('sites', {
-  id: integer('id').primaryKey({ autoIncrement: true }),
-  organizationId: integer('organization_id').notNull().references(() => organizations.id),
-  name: text('name').notNull(),
-  address: text('address'),
-  timeZone: text('time_zone').notNull(),
-  createdAt: integer('created_at').notNull(),
-}, (t) => [index('sites_org_idx').on(t.organizationId)]);
+import { sites } from './sites';
 
 export type SurveyConditions = { daylightExcluded: boolean; notes?: string };
 

@@ -5,7 +5,7 @@ import type { Deps } from '../../deps';
 import { singleFileUpload } from '../../http/upload';
 import { idParamsSchema } from '@shared/schemas/common';
 import { BENCH_MAX_BYTES, benchRunDetailSchema, benchRunFieldsSchema, benchRunListResponseSchema } from '@shared/schemas/bench-runs';
-import { sendStoredFile } from '../coefficient-sets/coefficient-sets-routes';
+import { sendStoredFile } from '../../http/send-file';
 import { benchRunFile, getBenchRun, listBenchRuns, uploadBenchRun } from './bench-runs-service';
 
 export function registerBenchRunRoutes(api: Api, deps: Deps) {

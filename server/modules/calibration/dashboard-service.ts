@@ -1,29 +1,10 @@
 import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import type { Deps } from '../../deps';
-import { calibrationReminders, coefficientSets, probes } from '../../db/schema/calibration';
+import { calibrationReminders, probes } from '../../db/schema/calibration';
 import type { SessionUser } from '@shared/schemas/auth';
 import { DASHBOARD_DUE_SOON_DAYS, type DashboardResponse, type DashboardRow } from '@shared/schemas/probes';
-import { calibrationStatus } from '../probes/calibration-state';
-import { toCoreCoefficientSet } from '../probes/probe-calibration';
+import { probesWithCalibration } from '../probes/calibration-state';
 import { visibleStatuses } from '../probes/probes-service';
-
-type ProbeRow = typeof probes.$inferSelect;
-type SetRow = typeof coefficientSets.$inferSelect;
-
-export type ProbeCalibrationRow = { probe: ProbeRow; sets: SetRow[]; status: ReturnType<typeof calibrationStatus>; current: SetRow | null };
-
-/** Each probe with its sets and its calibration state at the clock's now (shared/core selection). */
-export function probesWithCalibration(deps: Deps, probeRows: ProbeRow[], dueSoonDays: number): ProbeCalibrationRow[] {
-  if (probeRows.length === 0) return [];
-  const sets = deps.db.select().from(coefficientSets).where(inArray(coefficientSets.probeId, probeRows.map((p) => p.id)))
-    .orderBy(asc(coefficientSets.effectiveFrom), asc(coefficientSets.version)).all();
-  const now = deps.clock.now();
-  return probeRows.map((probe) => {
-    const mine = sets.filter((s) => s.probeId === probe.id);
-    const status = calibrationStatus(mine.filter((s) => s.status === 'approved').map(toCoreCoefficientSet), now, dueSoonDays);
-    return { probe, sets: mine, status, current: status.current ? mine.find((s) => String(s.id) === status.current!.id)! : null };
-  });
-}
 
 /** The calibration dashboard: every probe with its due date and state; the screen sorts and filters. */
 export function calibrationDashboard(deps: Deps, user: SessionUser): DashboardResponse {

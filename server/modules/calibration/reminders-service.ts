@@ -4,7 +4,7 @@ import { calibrationReminders, probes } from '../../db/schema/calibration';
 import { organizations, users } from '../../db/schema/organizations';
 import type { ReminderRunResponse } from '@shared/schemas/coefficient-sets';
 import { DAY_MS } from '../probes/calibration-state';
-import { probesWithCalibration } from './dashboard-service';
+import { probesWithCalibration } from '../probes/calibration-state';
 import { absoluteUrl, paths } from '@shared/paths';
 
 /** A probe is reminded when its set in force is due within this many days, or overdue. */

@@ -1,20 +1,12 @@
-import type { Response } from 'express';
 import type { Api } from '../../http/api';
 import type { Deps } from '../../deps';
 import { singleFileUpload } from '../../http/upload';
+import { sendStoredFile } from '../../http/send-file';
 import { idParamsSchema } from '@shared/schemas/common';
 import { CERTIFICATE_MAX_BYTES, coefficientSetListResponseSchema, coefficientSetSchema, createCoefficientSetBodySchema } from '@shared/schemas/coefficient-sets';
 import {
   approveCoefficientSet, attachCertificate, certificateFile, createCoefficientSetDraft, discardCoefficientSetDraft, listCoefficientSets,
 } from './coefficient-sets-service';
-
-/** Sends a stored file as a download and resolves once it is on its way (so the route adds nothing). */
-export function sendStoredFile(res: Response, file: { path: string; filename: string }, contentType: string): Promise<void> {
-  const safeName = file.filename.replace(/[^\w.-]/g, '_');
-  return new Promise((resolve, reject) => {
-    res.sendFile(file.path, { headers: { 'Content-Type': contentType, 'Content-Disposition': `attachment; filename="${safeName}"`, 'X-Content-Type-Options': 'nosniff' } }, (err) => (err ? reject(err) : resolve()));
-  });
-}
 
 export function registerCoefficientSetRoutes(api: Api, deps: Deps) {
   api.route({ method: 'get', path: '/probes/:id/coefficient-sets', access: 'coefficients.read', tag: 'calibration', summary: 'Every version of a probe\'s coefficient sets, newest first (drafts only for those who may draft)', params: idParamsSchema, response: coefficientSetListResponseSchema },

@@ -1,6 +1,7 @@
 import { and, desc, eq, ne, sql } from 'drizzle-orm';
 import type { Db } from '../../db/client';
-import { sites, surveys } from '../../db/schema/surveys';
+import { surveys } from '../../db/schema/surveys';
+import { sites } from '../../db/schema/sites';
 import { RULE_TEXT, type AcceptanceRule } from '@shared/core/decision';
 import { GRID_RULE } from '@shared/core/zone-stats';
 import type { SessionUser } from '@shared/schemas/auth';

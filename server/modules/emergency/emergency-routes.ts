@@ -1,7 +1,6 @@
 import { z } from 'zod';
 import type { Api } from '../../http/api';
 import type { Deps } from '../../deps';
-import { JOBS } from '../../jobs';
 import { idParamsSchema } from '@shared/schemas/common';
 import {
   createEmergencySurveyBodySchema, criteriaSetBodySchema, criteriaSetListSchema, criteriaSetSchema, elementResponseParamsSchema,
@@ -15,9 +14,6 @@ import { createEmergencySurvey, judgeEmergencySurvey, listEmergencySurveys, setR
 import { addLogbookEntry, scheduleOf, setSchedule, siteLogbook, testsDueOverview } from './logbook-service';
 import { runEmergencyTestReminders } from './test-reminders-service';
 import { emergencyReportPdf } from './emergency-report';
-
-// Daily inside the server, beside the calibration reminders (module scope: added once).
-JOBS.push({ name: 'emergency-test-reminders', everyMs: 24 * 3600_000, run: (deps) => runEmergencyTestReminders(deps) });
 
 const reminderRunSchema = z.object({ messagesSent: z.number().int(), reminded: z.array(z.object({ siteId: z.number().int(), kind: z.enum(['functional', 'full_duration']), state: z.enum(['due_soon', 'overdue']), dueOn: z.string() })) });
 

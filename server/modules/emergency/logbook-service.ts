@@ -1,7 +1,7 @@
 import { and, desc, eq, sql } from 'drizzle-orm';
 import type { Deps } from '../../deps';
 import type { Db } from '../../db/client';
-import { sites } from '../../db/schema/surveys';
+import { sites } from '../../db/schema/sites';
 import { users } from '../../db/schema/organizations';
 import { emergencyTests, emergencyTestSchedules } from '../../db/schema/emergency';
 import type { SessionUser } from '@shared/schemas/auth';

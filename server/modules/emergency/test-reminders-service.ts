@@ -1,7 +1,7 @@
 import { and, eq, gt, inArray } from 'drizzle-orm';
 import type { Deps } from '../../deps';
 import { organizations, users, userSites } from '../../db/schema/organizations';
-import { sites } from '../../db/schema/surveys';
+import { sites } from '../../db/schema/sites';
 import { emergencyTestReminders, emergencyTests } from '../../db/schema/emergency';
 import { testDueDates } from '@shared/core/emergency-schedule';
 import { localDate, scheduleOf } from './logbook-service';

@@ -5,6 +5,8 @@ import { importStatusSchema, uploadLogResponseSchema } from '@shared/schemas/imp
 import { singleFileUpload } from '../../http/upload';
 import { getImport, uploadLog } from './imports-service';
 import { failInterruptedImports } from './import-runner';
+import { redecodeSurvey } from './redecode-service';
+import { redecodeResponseSchema } from '@shared/schemas/readings';
 
 export function registerImportRoutes(api: Api, deps: Deps) {
   void failInterruptedImports(deps);
@@ -21,4 +23,8 @@ export function registerImportRoutes(api: Api, deps: Deps) {
 
   api.route({ method: 'get', path: '/imports/:id', access: 'surveys.read', tag: 'imports', summary: 'An import\'s status, progress, warnings and line-numbered errors', params: idParamsSchema, response: importStatusSchema },
     ({ user, params }) => getImport(deps, user, params.id));
+
+  // Re-decoding reuses the import's decoder and writer, so it lives with the imports.
+  api.route({ method: 'post', path: '/surveys/:id/redecode', access: 'surveys.redecode', tag: 'readings', summary: 'Re-decode the survey\'s kept samples with the current approved coefficient sets (the previous decode stays recorded)', params: idParamsSchema, response: redecodeResponseSchema },
+    ({ user, params }) => redecodeSurvey(deps, user, params.id));
 }

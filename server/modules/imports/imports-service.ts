@@ -1,7 +1,8 @@
 import fs from 'node:fs';
 import { and, desc, eq, ne } from 'drizzle-orm';
 import type { Deps } from '../../deps';
-import { logImports, sites } from '../../db/schema/surveys';
+import { logImports } from '../../db/schema/surveys';
+import { sites } from '../../db/schema/sites';
 import { plans } from '../../db/schema/plans';
 import { storedFiles } from '../../db/schema/organizations';
 import type { SessionUser } from '@shared/schemas/auth';

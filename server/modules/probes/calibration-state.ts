@@ -1,6 +1,10 @@
+import { asc, inArray } from 'drizzle-orm';
+import type { Deps } from '../../deps';
+import { coefficientSets, probes } from '../../db/schema/calibration';
 import { createCoefficientSelector, isCalibrationLapsed } from '@shared/core/coefficient-sets';
 import type { CoefficientSet } from '@shared/core/types';
 import type { CalibrationState } from '@shared/schemas/probes';
+import { toCoreCoefficientSet } from './probe-calibration';
 
 export const DAY_MS = 86_400_000;
 
@@ -20,4 +24,22 @@ export function calibrationStatus(approvedSets: readonly CoefficientSet[], now: 
   const daysUntilDue = Math.floor((current.dueDate - now) / DAY_MS);
   if (isCalibrationLapsed(current, now)) return { current, state: 'overdue', daysUntilDue };
   return { current, state: current.dueDate - now <= dueSoonDays * DAY_MS ? 'due_soon' : 'ok', daysUntilDue };
+}
+
+type ProbeRow = typeof probes.$inferSelect;
+type SetRow = typeof coefficientSets.$inferSelect;
+
+export type ProbeCalibrationRow = { probe: ProbeRow; sets: SetRow[]; status: ReturnType<typeof calibrationStatus>; current: SetRow | null };
+
+/** Each probe with its sets and its calibration state at the clock's now (shared/core selection). */
+export function probesWithCalibration(deps: Deps, probeRows: ProbeRow[], dueSoonDays: number): ProbeCalibrationRow[] {
+  if (probeRows.length === 0) return [];
+  const sets = deps.db.select().from(coefficientSets).where(inArray(coefficientSets.probeId, probeRows.map((p) => p.id)))
+    .orderBy(asc(coefficientSets.effectiveFrom), asc(coefficientSets.version)).all();
+  const now = deps.clock.now();
+  return probeRows.map((probe) => {
+    const mine = sets.filter((s) => s.probeId === probe.id);
+    const status = calibrationStatus(mine.filter((s) => s.status === 'approved').map(toCoreCoefficientSet), now, dueSoonDays);
+    return { probe, sets: mine, status, current: status.current ? mine.find((s) => String(s.id) === status.current!.id)! : null };
+  });
 }

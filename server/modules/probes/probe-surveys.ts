@@ -4,7 +4,8 @@ import type { SessionUser } from '@shared/schemas/auth';
 import type { ProbeSurvey } from '@shared/schemas/probes';
 import { createCoefficientSelector } from '@shared/core/coefficient-sets';
 import { probes } from '../../db/schema/calibration';
-import { readings, sites, surveys } from '../../db/schema/surveys';
+import { readings, surveys } from '../../db/schema/surveys';
+import { sites } from '../../db/schema/sites';
 import { notFound } from '../../http/errors';
 import { loadDecodingCalibration } from './probe-calibration';
 

@@ -10,7 +10,7 @@ import {
 } from '@shared/schemas/probes';
 import { badRequest, conflict, notFound } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
-import { probesWithCalibration } from '../calibration/dashboard-service';
+import { probesWithCalibration } from './calibration-state';
 
 export type ProbeRow = typeof probes.$inferSelect;
 

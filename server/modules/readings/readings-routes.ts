@@ -1,9 +1,8 @@
 import type { Api } from '../../http/api';
 import type { Deps } from '../../deps';
 import { idParamsSchema } from '@shared/schemas/common';
-import { readingSeriesSchema, readingsExportQuerySchema, readingsQuerySchema, readingsResponseSchema, redecodeResponseSchema } from '@shared/schemas/readings';
+import { readingSeriesSchema, readingsExportQuerySchema, readingsQuerySchema, readingsResponseSchema } from '@shared/schemas/readings';
 import { exportReadingsCsv, listReadings, readingSeries } from './readings-service';
-import { redecodeSurvey } from '../imports/redecode-service';
 
 export function registerReadingRoutes(api: Api, deps: Deps) {
   api.route({ method: 'get', path: '/surveys/:id/readings', access: 'surveys.read', tag: 'readings', summary: 'The survey\'s current readings (filter by flag and point, sort, page)', params: idParamsSchema, query: readingsQuerySchema, response: readingsResponseSchema },
@@ -14,7 +13,4 @@ export function registerReadingRoutes(api: Api, deps: Deps) {
 
   api.route({ method: 'get', path: '/surveys/:id/readings.csv', access: 'surveys.read', tag: 'readings', summary: 'The current readings as CSV in lux or foot-candles (formula cells neutralised)', params: idParamsSchema, query: readingsExportQuerySchema, produces: 'text/csv' },
     ({ user, params, query, res }) => exportReadingsCsv(deps.db, user, params.id, query.unit, res));
-
-  api.route({ method: 'post', path: '/surveys/:id/redecode', access: 'surveys.redecode', tag: 'readings', summary: 'Re-decode the survey\'s kept samples with the current approved coefficient sets (the previous decode stays recorded)', params: idParamsSchema, response: redecodeResponseSchema },
-    ({ user, params }) => redecodeSurvey(deps, user, params.id));
 }

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { organizations, users } from '../../db/schema/organizations';
-import { sites } from '../../db/schema/surveys';
+import { sites } from '../../db/schema/sites';
 import type { ComplianceResponse } from '@shared/schemas/compliance';
 import type { SurveyRow } from '../surveys/surveys-service';
 import { complianceOf, surveyVerdicts } from '../compliance/compliance-service';

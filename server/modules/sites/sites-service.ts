@@ -1,6 +1,7 @@
 import { and, eq, inArray, sql, type SQL } from 'drizzle-orm';
 import type { Deps } from '../../deps';
-import { sites, surveys } from '../../db/schema/surveys';
+import { surveys } from '../../db/schema/surveys';
+import { sites } from '../../db/schema/sites';
 import type { SessionUser } from '@shared/schemas/auth';
 import type { CreateSiteBody, Site } from '@shared/schemas/sites';
 import { createSiteBodySchema } from '@shared/schemas/sites';

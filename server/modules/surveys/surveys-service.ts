@@ -1,6 +1,7 @@
 import { and, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
 import type { Deps } from '../../deps';
-import { decodes, logImports, readings, sites, surveys } from '../../db/schema/surveys';
+import { decodes, logImports, readings, surveys } from '../../db/schema/surveys';
+import { sites } from '../../db/schema/sites';
 import { coefficientSets } from '../../db/schema/calibration';
 import { storedFiles, users } from '../../db/schema/organizations';
 import type { SessionUser } from '@shared/schemas/auth';

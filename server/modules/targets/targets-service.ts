@@ -3,7 +3,7 @@ import type { Deps } from '../../deps';
 import type { Db } from '../../db/client';
 import { targets } from '../../db/schema/targets';
 import { plans, zones } from '../../db/schema/plans';
-import { sites } from '../../db/schema/surveys';
+import { sites } from '../../db/schema/sites';
 import { luxToFootcandles } from '@shared/core/units';
 import type { SessionUser } from '@shared/schemas/auth';
 import type { CreateTargetBody, TargetEntry, UpdateTargetBody, ZoneTargetResponse } from '@shared/schemas/targets';

@@ -1,7 +1,7 @@
 import { and, eq, inArray } from 'drizzle-orm';
 import type { Deps } from '../../deps';
 import { userSites, users } from '../../db/schema/organizations';
-import { sites } from '../../db/schema/surveys';
+import { sites } from '../../db/schema/sites';
 import type { InviteBody, UpdateUserBody, User } from '@shared/schemas/users';
 import { ROLE_LABELS } from '@shared/roles';
 import type { SessionUser } from '@shared/schemas/auth';

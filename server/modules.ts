@@ -1,0 +1,77 @@
+import type { Api } from './http/api';
+import type { Deps } from './deps';
+import type { SeedContext } from './db/seed-context';
+import { registerHealthRoutes } from './modules/health/health-routes';
+import { registerAuthRoutes } from './modules/auth/auth-routes';
+import { registerUserRoutes } from './modules/users/users-routes';
+import { registerOutboxRoutes } from './modules/outbox/outbox-routes';
+import { registerAuditRoutes } from './modules/audit/audit-routes';
+import { registerProbeRoutes } from './modules/probes/probes-routes';
+import { registerCoefficientSetRoutes } from './modules/coefficient-sets/coefficient-sets-routes';
+import { registerBenchRunRoutes } from './modules/bench-runs/bench-runs-routes';
+import { registerCalibrationRoutes } from './modules/calibration/calibration-routes';
+import { runCalibrationReminders } from './modules/calibration/reminders-service';
+import { registerSiteRoutes } from './modules/sites/sites-routes';
+import { registerSurveyRoutes } from './modules/surveys/surveys-routes';
+import { registerPlanRoutes } from './modules/plans/plans-routes';
+import { registerZoneRoutes } from './modules/zones/zones-routes';
+import { registerImportRoutes } from './modules/imports/imports-routes';
+import { registerReadingRoutes } from './modules/readings/readings-routes';
+import { registerTargetRoutes } from './modules/targets/targets-routes';
+import { registerOrganizationRoutes } from './modules/organization/organization-routes';
+import { registerComplianceRoutes } from './modules/compliance/compliance-routes';
+import { registerWorkflowRoutes } from './modules/workflow/workflow-routes';
+import { registerReportRoutes } from './modules/reports/reports-routes';
+import { registerEmergencyRoutes } from './modules/emergency/emergency-routes';
+import { runEmergencyTestReminders } from './modules/emergency/test-reminders-service';
+import { seedCalibration } from './db/seed-calibration';
+import { seedSurveyLogs, seedSurveys } from './db/seed-surveys';
+import { seedPlans } from './db/seed-plans';
+import { seedCompliance } from './db/seed-compliance';
+
+/** Background work a real server runs every `everyMs` (server/jobs.ts). */
+export type Job = { name: string; everyMs: number; run: (deps: Deps) => Promise<unknown> | unknown };
+/** A feature's demo data, run once on an empty database after the organisations and users (server/db/seed.ts). */
+export type SeedStep = (deps: Deps, ctx: SeedContext) => Promise<void> | void;
+
+export type ServerModule = {
+  name: string;
+  /** Declares the module's routes on the one route table. */
+  routes?: (api: Api, deps: Deps) => void;
+  jobs?: Job[];
+  seed?: SeedStep;
+};
+
+const DAY_MS = 24 * 3600_000;
+
+/**
+ * Every server module, read by app.ts (routes), jobs.ts (jobs) and seed.ts (demo data). Nothing
+ * registers itself by being imported: a new module is added here. Seed steps run in this order,
+ * so a module comes after those whose demo data it builds on.
+ */
+export const SERVER_MODULES: ServerModule[] = [
+  { name: 'health', routes: registerHealthRoutes },
+  { name: 'auth', routes: registerAuthRoutes },
+  { name: 'users', routes: registerUserRoutes },
+  { name: 'outbox', routes: registerOutboxRoutes },
+  { name: 'audit', routes: registerAuditRoutes },
+  // Probes and coefficient sets first: every survey log is decoded with them.
+  { name: 'probes', routes: registerProbeRoutes, seed: seedCalibration },
+  { name: 'coefficient-sets', routes: registerCoefficientSetRoutes },
+  { name: 'bench-runs', routes: registerBenchRunRoutes },
+  { name: 'calibration', routes: registerCalibrationRoutes, jobs: [{ name: 'calibration-reminders', everyMs: DAY_MS, run: (deps) => runCalibrationReminders(deps) }] },
+  { name: 'sites', routes: registerSiteRoutes },
+  // The demo site and its surveys, then the site's plans and zones, then the logs (rows name their plan).
+  { name: 'surveys', routes: registerSurveyRoutes, seed: seedSurveys },
+  { name: 'plans', routes: registerPlanRoutes, seed: seedPlans },
+  { name: 'zones', routes: registerZoneRoutes },
+  { name: 'imports', routes: registerImportRoutes, seed: seedSurveyLogs },
+  { name: 'readings', routes: registerReadingRoutes },
+  { name: 'targets', routes: registerTargetRoutes },
+  { name: 'organization', routes: registerOrganizationRoutes },
+  // The target library and the sign-off of the earlier walk-through.
+  { name: 'compliance', routes: registerComplianceRoutes, seed: seedCompliance },
+  { name: 'workflow', routes: registerWorkflowRoutes },
+  { name: 'reports', routes: registerReportRoutes },
+  { name: 'emergency', routes: registerEmergencyRoutes, jobs: [{ name: 'emergency-test-reminders', everyMs: DAY_MS, run: (deps) => runEmergencyTestReminders(deps) }] },
+];
