@@ -1,6 +1,8 @@
 import { z } from 'zod';
+import { READING_PLANES } from '../core/planes';
 import { DECISION_RULES } from './organization';
 import { TARGET_CONFIDENCE } from './targets';
+import { installationInfoSchema } from './surveys';
 
 export const VERDICTS = ['meets', 'falls_short', 'inconclusive', 'not_assessed'] as const;
 export type ZoneVerdict = (typeof VERDICTS)[number];
@@ -26,6 +28,41 @@ export const zoneChangeSchema = z.object({
 });
 export type ZoneChange = z.infer<typeof zoneChangeSchema>;
 
+/** A check of a zone beyond its horizontal task plane: a surface, cylindrical illuminance or a derived area around a task. */
+export const CHECK_KINDS = ['wall', 'ceiling', 'cylindrical', 'surrounding', 'background'] as const;
+export type CheckKind = (typeof CHECK_KINDS)[number];
+export const CHECK_LABELS: Record<CheckKind, string> = {
+  wall: 'Walls (Em,wall)',
+  ceiling: 'Ceiling (Em,ceiling)',
+  cylindrical: 'Cylindrical (Ez)',
+  surrounding: 'Immediate surrounding area',
+  background: 'Background area',
+};
+
+export const zoneCheckSchema = z.object({
+  kind: z.enum(CHECK_KINDS),
+  /** The maintained value for this check, lux (null: the entry gives none). */
+  targetLux: z.number().nullable(),
+  /** What the measured value is compared with: targetLux, or targetLux / MF for a new installation. */
+  limitLux: z.number().nullable(),
+  u0Min: z.number().nullable(),
+  /** Where the value and its relation come from, and how sure we are. */
+  source: z.string(),
+  confidence: z.enum(TARGET_CONFIDENCE),
+  points: z.number().int(),
+  eavg: z.number().nullable(),
+  emin: z.number().nullable(),
+  u0: z.number().nullable(),
+  uEavg: z.number().nullable(),
+  bounds: z.object({ eavg: statBound, emin: statBound, u0: statBound }),
+  verdict: z.enum(VERDICTS),
+  reasons: z.array(z.string()),
+  /** A derived area in plan metres (surrounding and background bands): its pieces, each an outer ring then any holes. */
+  polygons: z.array(z.array(z.array(z.tuple([z.number(), z.number()])))).optional(),
+  areaM2: z.number().optional(),
+});
+export type ZoneCheck = z.infer<typeof zoneCheckSchema>;
+
 export const zoneComplianceSchema = z.object({
   zoneId: z.number().int(),
   name: z.string(),
@@ -38,9 +75,18 @@ export const zoneComplianceSchema = z.object({
   targetName: z.string().nullable(),
   targetSource: z.string().nullable(),
   targetConfidence: z.enum(TARGET_CONFIDENCE).nullable(),
-  /** Em, lux. */
+  /** The maintained value Em the zone is judged against (the entry's required value, or the value its design chose), lux. */
   targetLux: z.number().nullable(),
   targetU0: z.number().nullable(),
+  /** The entry's required and modified values (EN 12464-1:2021), lux; absent in sign-offs frozen before they were kept. */
+  requiredLux: z.number().nullable().optional(),
+  modifiedLux: z.number().nullable().optional(),
+  /** Which value was judged and why (context modifiers). */
+  design: z.object({ basis: z.enum(['required', 'modified', 'stepped']), steps: z.number().int(), explanation: z.string(), modifiers: z.array(z.string()) }).optional(),
+  /** What Eavg was compared with: targetLux, or targetLux / MF for a new installation. */
+  limitLux: z.number().nullable().optional(),
+  /** Ra and RUGL of the entry, for information (a meter cannot measure them). */
+  info: z.object({ ra: z.number().nullable(), rugl: z.number().nullable(), note: z.string() }).optional(),
   /** Valid points inside the zone and outside its wall band. */
   points: z.number().int(),
   /** Points the grid rule (GRID_RULE) asks for, from the zone's extent less the wall band. */
@@ -62,6 +108,10 @@ export const zoneComplianceSchema = z.object({
   dfWarning: z.string().optional(),
   verdict: z.enum(VERDICTS),
   reasons: z.array(z.string()),
+  /** Walls, ceiling, cylindrical illuminance and the areas around a task, each judged on its own. */
+  checks: z.array(zoneCheckSchema).optional(),
+  /** Ez / Eh where both exist; 0.30 to 0.60 was the 2011 recommendation (informative). */
+  modelling: z.object({ ratio: z.number(), ezLux: z.number(), ehLux: z.number(), withinRecommendation: z.boolean(), source: z.string() }).optional(),
   /** Against the previous signed-off survey of the site, when there is one with this zone. */
   change: zoneChangeSchema.optional(),
 });
@@ -87,6 +137,9 @@ export const complianceResponseSchema = z.object({
   frozenAt: z.string().nullable(),
   /** Whether an outdoor reference probe logged during the survey. */
   hasDaylightReference: z.boolean(),
+  /** New (judged against Em / MF) or in service (against Em), and that case in words. */
+  installation: installationInfoSchema,
+  installationText: z.string(),
   counts: complianceCountsSchema,
   /** Worst first: falls short (largest shortfall first), inconclusive, not assessed, meets. */
   zones: z.array(zoneComplianceSchema),
@@ -111,6 +164,8 @@ export const zonePointSchema = z.object({
   flag: z.string(),
   /** In the wall band: shown, left out of the statistics. */
   inWallBand: z.boolean(),
+  plane: z.enum(READING_PLANES).optional(),
+  azimuthDeg: z.number().nullable().optional(),
   dfPercent: z.number().optional(),
 });
 export type ZonePoint = z.infer<typeof zonePointSchema>;
@@ -138,3 +193,32 @@ export const siteOverviewSchema = z.object({
 export type SiteOverview = z.infer<typeof siteOverviewSchema>;
 export const sitesOverviewResponseSchema = z.object({ items: z.array(siteOverviewSchema), rule: z.enum(DECISION_RULES), ruleText: z.string() });
 export type SitesOverviewResponse = z.infer<typeof sitesOverviewResponseSchema>;
+
+export const MAINTENANCE_STATES = ['due', 'due_soon', 'ok', 'unknown'] as const;
+export const MAINTENANCE_LABELS: Record<(typeof MAINTENANCE_STATES)[number], string> = {
+  due: 'Maintenance due',
+  due_soon: 'Due within a year',
+  ok: 'No maintenance due',
+  unknown: 'No signed-off value',
+};
+
+export const maintenanceZoneSchema = z.object({
+  siteId: z.number().int(),
+  siteName: z.string(),
+  zoneId: z.number().int(),
+  zoneName: z.string(),
+  planName: z.string(),
+  /** The maintained value Em of the latest sign-off (never Em / MF), lux. */
+  targetLux: z.number(),
+  state: z.enum(MAINTENANCE_STATES),
+  /** Least-squares slope of the signed-off Eavg values, lux per year. */
+  slopeLuxPerYear: z.number().nullable(),
+  /** When the fitted line reaches Em, if it falls towards it (ISO date). */
+  reachesTargetOn: z.string().nullable(),
+  reason: z.string(),
+  /** The zone's signed-off values, oldest first. */
+  trend: z.array(z.object({ surveyId: z.number().int(), surveyName: z.string(), date: z.string(), eavg: z.number(), verdict: z.enum(VERDICTS), installation: z.enum(['in_service', 'new']) })),
+});
+export type MaintenanceZone = z.infer<typeof maintenanceZoneSchema>;
+export const maintenanceResponseSchema = z.object({ rule: z.string(), items: z.array(maintenanceZoneSchema) });
+export type MaintenanceResponse = z.infer<typeof maintenanceResponseSchema>;

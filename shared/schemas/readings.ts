@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { READING_PLANES } from '../core/planes';
 import type { ReadingFlag as CoreReadingFlag } from '../core/types';
 
 export const READING_FLAGS = ['ok', 'over_range', 'under_range', 'fault', 'calibration_lapsed', 'low_confidence'] as const;
@@ -53,6 +54,9 @@ export const readingSchema = z.object({
   chosenSample: z.number().int().nullable(),
   /** Relative standard uncertainties (k = 1) that make up uLux. */
   budget: z.array(budgetPartSchema),
+  /** Where the sensor faced; azimuth (degrees clockwise from the plan's +y) for vertical and wall readings. */
+  plane: z.enum(READING_PLANES),
+  azimuthDeg: z.number().nullable(),
 });
 export type Reading = z.infer<typeof readingSchema>;
 

@@ -20,11 +20,38 @@ export const surveyConditionsSchema = z.object({
 });
 export type SurveyConditions = z.infer<typeof surveyConditionsSchema>;
 
+const factorPart = (name: string) => z.number({ message: `Enter ${name} as a number` }).gt(0, `${name} must be above 0`).max(1, `${name} is at most 1`);
+
+/** Maintenance factor parts (CIE 97:2005): MF = LLMF × LSF × LMF × RSMF. */
+export const mfPartsSchema = z.object({ llmf: factorPart('LLMF'), lsf: factorPart('LSF'), lmf: factorPart('LMF'), rsmf: factorPart('RSMF') });
+
+/**
+ * New installation (judged against Em / MF) or in service (against Em). A new one gives its design's
+ * maintenance factor, or its parts, or both (then they must agree to 0.001).
+ */
+export const installationSchema = z.discriminatedUnion('state', [
+  z.object({ state: z.literal('in_service') }),
+  z.object({ state: z.literal('new'), maintenanceFactor: factorPart('The maintenance factor').optional(), parts: mfPartsSchema.optional() })
+    .refine((i) => i.maintenanceFactor !== undefined || i.parts !== undefined, { message: 'A new installation needs its maintenance factor or its parts (LLMF, LSF, LMF, RSMF)', path: ['maintenanceFactor'] })
+    .refine((i) => i.maintenanceFactor === undefined || i.parts === undefined || Math.abs(i.parts.llmf * i.parts.lsf * i.parts.lmf * i.parts.rsmf - i.maintenanceFactor) <= 0.001,
+      { message: 'The maintenance factor differs from LLMF × LSF × LMF × RSMF', path: ['maintenanceFactor'] }),
+]);
+export type InstallationInput = z.infer<typeof installationSchema>;
+
+/** As stored and answered: the factor is always given for a new installation. */
+export const installationInfoSchema = z.object({
+  state: z.enum(['in_service', 'new']),
+  maintenanceFactor: z.number().nullable(),
+  parts: mfPartsSchema.nullable(),
+});
+export type InstallationInfo = z.infer<typeof installationInfoSchema>;
+
 export const createSurveyBodySchema = z.object({
   siteId: z.number().int().positive(),
   name: z.string().trim().min(1, 'Enter a survey name').max(160),
   startedOn: z.iso.date({ message: 'Use a date such as 2026-11-20' }).optional(),
   conditions: surveyConditionsSchema.optional(),
+  installation: installationSchema.optional(),
 });
 export type CreateSurveyBody = z.input<typeof createSurveyBodySchema>;
 
@@ -41,6 +68,7 @@ export const surveySchema = z.object({
   name: z.string(),
   startedOn: z.string().nullable(),
   conditions: surveyConditionsSchema.nullable(),
+  installation: installationInfoSchema,
   status: z.enum(SURVEY_STATUSES),
   activeDecodeId: z.number().int().nullable(),
   readingCount: z.number().int(),

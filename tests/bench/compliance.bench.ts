@@ -28,9 +28,9 @@ for (let s = start; s <= t + 60_000; s += 60_000) readings.push({ id: readings.l
 const result = judgeZones({ zones, readings, rule: 'guarded', daylightExcluded: false });
 const data: ReportData = {
   organizationName: 'Bench Trust', site: { name: 'Bench site', address: null, timeZone: 'Europe/London' },
-  survey: { id: 1, organizationId: 1, siteId: 1, name: 'Bench survey', startedOn: '2026-11-01', conditions: { daylightExcluded: false }, status: 'submitted', activeDecodeId: 1, reviewComment: null, submittedBy: null, submittedAt: null, signedOffBy: null, signedOffAt: null, frozen: null, createdBy: null, createdAt: 0 },
+  survey: { id: 1, organizationId: 1, siteId: 1, name: 'Bench survey', startedOn: '2026-11-01', conditions: { daylightExcluded: false }, status: 'submitted', activeDecodeId: 1, reviewComment: null, submittedBy: null, submittedAt: null, signedOffBy: null, signedOffAt: null, frozen: null, createdBy: null, createdAt: 0, installation: 'in_service', maintenanceFactor: null, mfParts: null },
   submittedByName: 'Bench', signedOffByName: null,
-  compliance: { surveyId: 1, surveyName: 'Bench survey', siteId: 1, siteName: 'Bench site', startedOn: null, status: 'submitted', reviewComment: null, rule: 'guarded', ruleText: 'guarded', gridRule: 'grid', frozen: false, frozenAt: null, hasDaylightReference: true, counts: { meets: 0, falls_short: 0, inconclusive: 0, not_assessed: 0 }, zones: result.zones, unassignedPoints: 0, previous: null, warnings: [] },
+  compliance: { surveyId: 1, surveyName: 'Bench survey', siteId: 1, siteName: 'Bench site', startedOn: null, status: 'submitted', reviewComment: null, rule: 'guarded', ruleText: 'guarded', gridRule: 'grid', frozen: false, frozenAt: null, hasDaylightReference: true, installation: { state: 'in_service', maintenanceFactor: null, parts: null }, installationText: 'In service', counts: { meets: 0, falls_short: 0, inconclusive: 0, not_assessed: 0 }, zones: result.zones, unassignedPoints: 0, previous: null, warnings: [] },
   zones: result.zones.map((z) => ({ ...z, readings: readings.filter((r) => z.readingIds.includes(r.id)), wallBandReadings: [] })),
   coefficientSets: [], generatedAt: Date.now(),
 };

@@ -124,8 +124,12 @@ describe('CSV exports', () => {
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/text\/csv/);
     const rows = Papa.parse<Record<string, string>>(res.text, { header: true, skipEmptyLines: true }).data;
-    expect(rows.map((r) => r.zone)).toEqual(['Fixture corridor', '\'=HYPERLINK("http://x.test","office")']);
-    expect(rows[0]).toMatchObject({ use_type: 'corridor', em_lx: '100', eavg_lx: '85', verdict: 'Falls short', decision_rule: 'guarded' });
+    const zoneRows = rows.filter((r) => r.check === 'task_plane');
+    expect(zoneRows.map((r) => r.zone)).toEqual(['Fixture corridor', '\'=HYPERLINK("http://x.test","office")']);
+    expect(zoneRows[0]).toMatchObject({ use_type: 'corridor', required_em_lx: '100', em_lx: '100', limit_lx: '100', installation: 'in_service', eavg_lx: '85', verdict: 'Falls short', decision_rule: 'guarded' });
+    // The office entry (EN 12464-1:2021 shape, secondary) adds a row per further check: walls 150 lx, ceiling 100 lx, Ez 150 lx, none measured here.
+    const officeChecks = rows.filter((r) => r.check !== 'task_plane' && r.zone !== 'Fixture corridor');
+    expect(officeChecks.map((r) => [r.check, r.em_lx, r.u0_min, r.verdict])).toEqual([['wall', '150', '0.1', 'Not assessed'], ['ceiling', '100', '0.1', 'Not assessed'], ['cylindrical', '150', '', 'Not assessed']]);
   });
 
   it('the readings, when exported, carry their zone and neutralise point labels that start a formula', async () => {

@@ -6,7 +6,7 @@ import { drizzle } from 'drizzle-orm/better-sqlite3';
 import { migrate } from 'drizzle-orm/better-sqlite3/migrator';
 import { describe, it, expect, afterAll } from 'vitest';
 import { schema, type Db } from '@server/db/client';
-import { createBatchBuilder, fillReadingValues, unpackF64Block, READING_WIDTH, SAMPLE_WIDTH } from '@server/modules/imports/batch-format.mjs';
+import { createBatchBuilder, fillReadingValues, unpackF64Block, PLANE_SAMPLE_WIDTH, READING_WIDTH, SAMPLE_WIDTH } from '@server/modules/imports/batch-format.mjs';
 import { pagesOfSamples, unpackSampleBlock } from '@server/modules/imports/sample-blocks';
 import type { DecodedReading, LogSample } from '@server/modules/imports/log-decoder';
 import { encodeBudget } from '@server/modules/readings/stored-budget.mjs';
@@ -25,18 +25,18 @@ describe('batch format: how accepted rows travel between threads and are kept', 
     const input = [
       sample({}),
       sample({ line: 3, point: '=SUM(A1:A9)', gainCode: undefined, counts: undefined, ma: 12.345678901234567, intMs: undefined, tempC: -4.25, xM: null, yM: null, planId: null, role: 'reference', note: 'Café "north" door, ajar' }),
-      sample({ line: 4, point: 'A1', volts: 0, counts: 0, note: 'Café "north" door, ajar' }),
+      sample({ line: 4, point: 'A1', volts: 0, counts: 0, note: 'Café "north" door, ajar', plane: 'vertical', azimuthDeg: 270 }),
     ];
     input.forEach((s, i) => b.addSample(s, 10 + i));
     const batch = b.take();
     expect(batch.sampleRows).toBe(3);
-    expect(batch.samples).toHaveLength(3 * SAMPLE_WIDTH);
+    expect(batch.samples).toHaveLength(3 * PLANE_SAMPLE_WIDTH);
     // Each distinct text once: A1, the formula-like label, the note.
     expect(batch.strings).toEqual(['A1', '=SUM(A1:A9)', 'Café "north" door, ajar']);
-    const back = unpackF64Block(new Uint8Array(batch.samples.buffer), batch.strings, 3);
+    const back = unpackF64Block(new Uint8Array(batch.samples.buffer), batch.strings, 3, 'f64p');
     expect(back).toEqual(input.map((s, i) => ({
       line: s.line, timeMs: s.timeMs, probeId: 10 + i, point: s.point, gainCode: s.gainCode ?? null, counts: s.counts ?? null, ma: s.ma ?? null, volts: s.volts ?? null,
-      intMs: s.intMs ?? null, tempC: s.tempC ?? null, xM: s.xM, yM: s.yM, planId: s.planId, role: s.role, note: s.note,
+      intMs: s.intMs ?? null, tempC: s.tempC ?? null, xM: s.xM, yM: s.yM, planId: s.planId, role: s.role, note: s.note, plane: s.plane ?? 'horizontal', azimuthDeg: s.azimuthDeg ?? null,
     })));
     // The builder starts empty after take().
     expect(b.take()).toMatchObject({ sampleRows: 0, readingRows: 0, strings: [] });
@@ -51,13 +51,13 @@ describe('batch format: how accepted rows travel between threads and are kept', 
       lux: null, uLux: null, luxBound: 'lower', flag: 'over_range', gainCode: 0, samples: 4, chosenSample: null, coefficientSetId: 3, budget: [...counting],
     };
     b.addReading(r);
-    b.addReading({ ...r, point: 'C-4', lux: 512.25, uLux: 20.5, luxBound: 'exact', flag: 'ok', gainCode: null, chosenSample: 2, note: null, budget: [...analog, { name: 'temperature', uRel: Number.NaN }] });
+    b.addReading({ ...r, point: 'C-4', lux: 512.25, uLux: 20.5, luxBound: 'exact', flag: 'ok', gainCode: null, chosenSample: 2, note: null, budget: [...analog, { name: 'temperature', uRel: Number.NaN }], plane: 'vertical', azimuthDeg: 90 });
     const batch = b.take();
     expect(batch.readings).toHaveLength(2 * READING_WIDTH);
     const out: unknown[] = [];
-    expect(fillReadingValues(batch, 0, 2, out)).toBe(34);
-    expect(out.slice(0, 17)).toEqual(['C-3', 12.5, 8, null, 'task', 1_795_000_000_123, 7, null, null, 'lower', 'over_range', 0, 4, null, 3, encodeBudget(counting), 'under the stair']);
-    expect(out.slice(17)).toEqual(['C-4', 12.5, 8, null, 'task', 1_795_000_000_123, 7, 512.25, 20.5, 'exact', 'ok', null, 4, 2, 3, encodeBudget(analog), null]);
+    expect(fillReadingValues(batch, 0, 2, out)).toBe(38);
+    expect(out.slice(0, 19)).toEqual(['C-3', 12.5, 8, null, 'task', 1_795_000_000_123, 7, null, null, 'lower', 'over_range', 0, 4, null, 3, encodeBudget(counting), 'under the stair', 'horizontal', null]);
+    expect(out.slice(19)).toEqual(['C-4', 12.5, 8, null, 'task', 1_795_000_000_123, 7, 512.25, 20.5, 'exact', 'ok', null, 4, 2, 3, encodeBudget(analog), null, 'vertical', 90]);
   });
 
   it('refuses what it cannot carry: an unknown role, flag or budget part', () => {
@@ -68,14 +68,27 @@ describe('batch format: how accepted rows travel between threads and are kept', 
     expect(() => b.addReading({ ...r, flag: 'ok', budget: [{ name: 'wind', uRel: 0.1 }] } as never)).toThrow(/unknown budget part "wind"/);
   });
 
+  it('a block written before planes (encoding f64, 15 numbers a sample) still reads back, as horizontal readings', () => {
+    const b = createBatchBuilder();
+    b.addSample(sample({}), 9);
+    const batch = b.take();
+    // The earlier layout is the new one without its last two slots (plane, azimuth).
+    const old = new Float64Array(SAMPLE_WIDTH);
+    old.set(batch.samples.subarray(0, SAMPLE_WIDTH));
+    const back = unpackSampleBlock({ id: 7, rowCount: 1, encoding: 'f64', strings: JSON.stringify(batch.strings), data: Buffer.from(old.buffer) });
+    expect(back).toEqual([expect.objectContaining({ point: 'A1', probeId: 9, counts: 41_873, plane: 'horizontal', azimuthDeg: null })]);
+  });
+
   it('a damaged block fails naming the block and what is wrong, never returning made-up samples', () => {
     const b = createBatchBuilder();
     b.addSample(sample({}), 1);
     const batch = b.take();
     const data = Buffer.from(batch.samples.buffer);
-    expect(() => unpackSampleBlock({ id: 41, rowCount: 2, encoding: 'f64', strings: '["A1"]', data })).toThrow(/Sample block 41 is damaged: it holds 120 bytes, not 2 samples of 15 numbers/);
-    expect(() => unpackSampleBlock({ id: 42, rowCount: 1, encoding: 'f64', strings: '[]', data })).toThrow(/Sample block 42 is damaged: it gives sample 0 a text or role it does not hold/);
-    expect(() => unpackSampleBlock({ id: 43, rowCount: 1, encoding: 'f64', strings: null, data })).toThrow(/Sample block 43 is damaged: it has no string table/);
+    expect(() => unpackSampleBlock({ id: 41, rowCount: 2, encoding: 'f64p', strings: '["A1"]', data })).toThrow(/Sample block 41 is damaged: it holds 136 bytes, not 2 samples of 17 numbers/);
+    // Read with the layout of before planes, the same bytes do not fit.
+    expect(() => unpackSampleBlock({ id: 40, rowCount: 1, encoding: 'f64', strings: '["A1"]', data })).toThrow(/Sample block 40 is damaged: it holds 136 bytes, not 1 samples of 15 numbers/);
+    expect(() => unpackSampleBlock({ id: 42, rowCount: 1, encoding: 'f64p', strings: '[]', data })).toThrow(/Sample block 42 is damaged: it gives sample 0 a text, role or plane it does not hold/);
+    expect(() => unpackSampleBlock({ id: 43, rowCount: 1, encoding: 'f64p', strings: null, data })).toThrow(/Sample block 43 is damaged: it has no string table/);
     expect(() => unpackSampleBlock({ id: 44, rowCount: 2, encoding: 'json', strings: null, data: Buffer.from('[1,2,3]') })).toThrow(/Sample block 44 is damaged: it does not hold 2 samples of 15 values/);
   });
 });
@@ -113,7 +126,7 @@ describe('migration 0003: samples kept one row each before it are moved into blo
     ]);
     const kept = [5, 6].flatMap((importId) => [...pagesOfSamples(db, importId)].flat());
     expect(kept).toEqual(rows.map((r) => ({
-      line: r[2], timeMs: r[3], probeId: r[4], point: r[5], gainCode: r[6], counts: r[7], ma: r[8], volts: r[9], intMs: r[10], tempC: r[11], xM: r[12], yM: r[13], planId: r[14], role: r[15], note: r[16],
+      line: r[2], timeMs: r[3], probeId: r[4], point: r[5], gainCode: r[6], counts: r[7], ma: r[8], volts: r[9], intMs: r[10], tempC: r[11], xM: r[12], yM: r[13], planId: r[14], role: r[15], note: r[16], plane: 'horizontal', azimuthDeg: null,
     })));
     sqlite.close();
   });

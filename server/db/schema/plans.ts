@@ -23,6 +23,11 @@ export const zones = sqliteTable('zones', {
   targetId: integer('target_id'),
   planeHeightM: real('plane_height_m').notNull().default(0.75),
   wallBandM: real('wall_band_m').notNull().default(0.5),
+  /** The maintained value the design chose between the entry's required and modified ones; null: the required. */
+  chosenEmLux: real('chosen_em_lux'),
+  /** Context modifiers (shared/core/illuminance-scale CONTEXT_MODIFIERS ids) that led to the chosen value. */
+  contextModifiers: text('context_modifiers', { mode: 'json' }).$type<string[]>().notNull().default([]),
+  contextNote: text('context_note'),
   /** Corners in plan metres from the lower-left corner, y upwards. */
   polygon: text('polygon', { mode: 'json' }).$type<[number, number][]>().notNull(),
   createdAt: integer('created_at').notNull(),

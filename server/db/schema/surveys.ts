@@ -6,6 +6,9 @@ import { sites } from './sites';
 
 export type SurveyConditions = { daylightExcluded: boolean; notes?: string };
 
+/** The parts of a maintenance factor (CIE 97:2005), when the design states them. */
+export type MaintenanceFactorParts = { llmf: number; lsf: number; lmf: number; rsmf: number };
+
 export const surveys = sqliteTable('surveys', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   organizationId: integer('organization_id').notNull().references(() => organizations.id),
@@ -14,6 +17,10 @@ export const surveys = sqliteTable('surveys', {
   startedOn: text('started_on'),
   conditions: text('conditions', { mode: 'json' }).$type<SurveyConditions>(),
   status: text('status', { enum: ['draft', 'submitted', 'signed_off', 'returned'] }).notNull().default('draft'),
+  /** A new installation is judged against Em / MF; one in service against Em. */
+  installation: text('installation', { enum: ['in_service', 'new'] }).notNull().default('in_service'),
+  maintenanceFactor: real('maintenance_factor'),
+  mfParts: text('mf_parts', { mode: 'json' }).$type<MaintenanceFactorParts>(),
   /** The decode whose readings are current; earlier decodes stay recorded. */
   activeDecodeId: integer('active_decode_id'),
   reviewComment: text('review_comment'),
@@ -57,7 +64,7 @@ export const decodes = sqliteTable('decodes', {
  * An import's accepted samples, kept for re-decoding, a batch to a row in file order (one row per
  * batch, not per sample, keeps a million-row import's writes short). `encoding` says how `data`
  * holds them: 'f64', the batch's Float64Array with `strings` its text table
- * (server/modules/imports/batch-format.mjs); 'json', a flat JSON array of the SAMPLE_SLOTS
+ * (server/modules/imports/batch-format.mjs) before readings had planes; 'f64p', the same with plane and azimuth added; 'json', a flat JSON array of the SAMPLE_SLOTS
  * values per sample (blocks migration 0003 made from the earlier one-row-per-sample table).
  */
 export const sampleBlocks = sqliteTable('sample_blocks', {
@@ -66,7 +73,7 @@ export const sampleBlocks = sqliteTable('sample_blocks', {
   surveyId: integer('survey_id').notNull(),
   firstLine: integer('first_line').notNull(),
   rowCount: integer('row_count').notNull(),
-  encoding: text('encoding', { enum: ['f64', 'json'] }).notNull(),
+  encoding: text('encoding', { enum: ['f64', 'f64p', 'json'] }).notNull(),
   strings: text('strings'),
   data: blob('data', { mode: 'buffer' }).notNull(),
 }, (t) => [index('sample_blocks_import_idx').on(t.importId)]);
@@ -82,6 +89,10 @@ export const readings = sqliteTable('readings', {
   /** The plan x_m, y_m refer to (from its samples); null: the reading cannot be placed. */
   planId: integer('plan_id').references((): AnySQLiteColumn => plans.id),
   role: text('role', { enum: ['task', 'reference'] }).notNull(),
+  /** Where the sensor faced: the horizontal working plane, a vertical plane (with azimuthDeg), a wall or a ceiling. */
+  plane: text('plane', { enum: ['horizontal', 'vertical', 'wall', 'ceiling'] }).notNull().default('horizontal'),
+  /** Direction a vertical reading faced, degrees clockwise from the plan's +y axis. */
+  azimuthDeg: real('azimuth_deg'),
   timeMs: integer('time_ms').notNull(),
   probeId: integer('probe_id').notNull().references(() => probes.id),
   lux: real('lux'),

@@ -11,6 +11,14 @@ export const targets = sqliteTable('targets', {
   /** The unit the source states its value in; emLux is always lux. */
   sourceUnit: text('source_unit', { enum: ['lx', 'fc'] }).notNull().default('lx'),
   u0Min: real('u0_min'),
+  /** EN 12464-1:2021 fields, null where the entry gives none (entries made before them keep working). */
+  emModifiedLux: real('em_modified_lux'),
+  ezLux: real('ez_lux'),
+  emWallLux: real('em_wall_lux'),
+  emCeilingLux: real('em_ceiling_lux'),
+  /** For information only: a meter cannot measure colour rendering or glare. */
+  ra: integer('ra'),
+  rugl: integer('rugl'),
   dfTargetPercent: real('df_target_percent'),
   source: text('source').notNull(),
   confidence: text('confidence', { enum: ['published', 'secondary', 'memory'] }).notNull(),

@@ -22,8 +22,11 @@ export function loadSitePlans(db: Db, organizationId: number, siteId: number): P
       const t = resolveZoneTarget(db, organizationId, z);
       return {
         id: z.id, name: z.name, kind: z.kind, useType: z.useType, planId: p.id, planName: p.name, planeHeightM: z.planeHeightM, wallBandM: z.wallBandM,
-        polygon: z.polygon,
-        target: t ? { id: t.id, name: t.name, emLux: t.emLux, u0Min: t.u0Min, dfTargetPercent: t.dfTargetPercent, source: t.source, confidence: t.confidence } : null,
+        polygon: z.polygon, chosenEmLux: z.chosenEmLux, contextModifiers: z.contextModifiers,
+        target: t ? {
+          id: t.id, name: t.name, emLux: t.emLux, u0Min: t.u0Min, dfTargetPercent: t.dfTargetPercent, source: t.source, confidence: t.confidence,
+          emModifiedLux: t.emModifiedLux, ezLux: t.ezLux, emWallLux: t.emWallLux, emCeilingLux: t.emCeilingLux, ra: t.ra, rugl: t.rugl,
+        } : null,
       };
     }),
   }));
@@ -32,6 +35,7 @@ export function loadSitePlans(db: Db, organizationId: number, siteId: number): P
 const readingColumns = {
   id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, planId: readings.planId, role: readings.role, timeMs: readings.timeMs, probeId: readings.probeId,
   lux: readings.lux, uLux: readings.uLux, luxBound: readings.luxBound, flag: readings.flag, budget: readings.budget, coefficientSetId: readings.coefficientSetId,
+  plane: readings.plane, azimuthDeg: readings.azimuthDeg,
 };
 
 /** The survey's current readings (active decode, accepted imports), in time order. */

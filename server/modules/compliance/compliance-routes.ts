@@ -1,8 +1,8 @@
 import type { Api } from '../../http/api';
 import type { Deps } from '../../deps';
 import { idParamsSchema } from '@shared/schemas/common';
-import { complianceResponseSchema, sitesOverviewResponseSchema, zoneDetailParamsSchema, zoneDetailResponseSchema } from '@shared/schemas/compliance';
-import { getCompliance, getZoneDetail, sitesOverview } from './compliance-service';
+import { complianceResponseSchema, maintenanceResponseSchema, sitesOverviewResponseSchema, zoneDetailParamsSchema, zoneDetailResponseSchema } from '@shared/schemas/compliance';
+import { getCompliance, getZoneDetail, maintenanceOverview, sitesOverview } from './compliance-service';
 
 export function registerComplianceRoutes(api: Api, deps: Deps) {
   api.route({ method: 'get', path: '/compliance/sites', access: 'surveys.read', tag: 'compliance', summary: 'Sites with their latest survey and counts of zones meeting, falling short, inconclusive', response: sitesOverviewResponseSchema },
@@ -13,4 +13,7 @@ export function registerComplianceRoutes(api: Api, deps: Deps) {
 
   api.route({ method: 'get', path: '/surveys/:id/zones/:zoneId/compliance', access: 'surveys.read', tag: 'compliance', summary: 'One zone: its points, statistics, target and source', params: zoneDetailParamsSchema, response: zoneDetailResponseSchema },
     ({ user, params }) => getZoneDetail(deps.db, user, params.id, params.zoneId));
+
+  api.route({ method: 'get', path: '/compliance/maintenance', access: 'surveys.read', tag: 'compliance', summary: 'Zones due for maintenance (signed-off Eavg below its maintained value, or heading there within a year), with the trend of their signed-off values', response: maintenanceResponseSchema },
+    ({ user }) => maintenanceOverview(deps.db, user));
 }

@@ -5,10 +5,12 @@ import { sites } from '../../db/schema/sites';
 import { RULE_TEXT, type AcceptanceRule } from '@shared/core/decision';
 import { GRID_RULE } from '@shared/core/zone-stats';
 import type { SessionUser } from '@shared/schemas/auth';
-import type { ComplianceCounts, ComplianceResponse, SitesOverviewResponse, ZoneCompliance, ZoneDetailResponse } from '@shared/schemas/compliance';
+import type { ComplianceCounts, ComplianceResponse, MaintenanceResponse, MaintenanceZone, SitesOverviewResponse, ZoneCompliance, ZoneDetailResponse } from '@shared/schemas/compliance';
 import type { TargetEntry } from '@shared/schemas/targets';
 import { notFound } from '../../http/errors';
-import { getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
+import { getSurveyRow, installationOf, type SurveyRow } from '../surveys/surveys-service';
+import { installationSummary, maintenanceStatus, type Installation } from '@shared/core/maintained';
+import type { InstallationInfo } from '@shared/schemas/surveys';
 import { siteConditions } from '../sites/sites-service';
 import { decisionRuleOf } from '../organization/organization-service';
 import { getVisibleTarget, presentTarget } from '../targets/targets-service';
@@ -29,7 +31,16 @@ export type FrozenCompliance = {
   zones: JudgedZone[];
   targets: TargetEntry[];
   coefficientSets: UsedCoefficientSet[];
+  /** New or in service (absent in sign-offs frozen before it was kept: in service). */
+  installation?: InstallationInfo;
 };
+
+const IN_SERVICE: InstallationInfo = { state: 'in_service', maintenanceFactor: null, parts: null };
+
+/** The core's Installation from the stored or frozen one. */
+export function coreInstallation(info: InstallationInfo): Installation {
+  return info.state === 'new' && info.maintenanceFactor !== null ? { state: 'new', maintenanceFactor: info.maintenanceFactor, parts: info.parts } : { state: 'in_service' };
+}
 
 /** The verdicts as they stand now, from the current readings, zones, targets and the organisation's rule. */
 export function liveCompliance(db: Db, organizationId: number, survey: SurveyRow, rule: AcceptanceRule = decisionRuleOf(db, organizationId)) {
@@ -46,7 +57,8 @@ export function liveCompliance(db: Db, organizationId: number, survey: SurveyRow
   }
   const reference = allReadings.filter((r) => r.role === 'reference');
   const daylightExcluded = survey.conditions?.daylightExcluded ?? false;
-  const perPlan = plans.map((p) => judgeZones({ zones: p.zones, readings: [...byPlan.get(p.planId)!, ...reference], rule, daylightExcluded }));
+  const installation = coreInstallation(installationOf(survey));
+  const perPlan = plans.map((p) => judgeZones({ zones: p.zones, readings: [...byPlan.get(p.planId)!, ...reference], rule, daylightExcluded, installation }));
   const unplaced = plans.length === 0 ? allReadings.filter((r) => r.role === 'task').length : withoutPlan;
   const result: JudgeResult = {
     zones: worstFirst(perPlan.flatMap((r) => r.zones)),
@@ -70,7 +82,7 @@ export function buildFrozen(db: Db, organizationId: number, survey: SurveyRow, a
   return {
     version: 1, frozenAt: at, rule, ruleText: RULE_TEXT[rule], gridRule: GRID_RULE, decodeId: survey.activeDecodeId,
     hasDaylightReference: result.hasDaylightReference, unassignedPoints: result.unassignedPoints, warnings: result.warnings,
-    zones: result.zones, targets, coefficientSets: loadUsedCoefficientSets(db, readings),
+    zones: result.zones, targets, coefficientSets: loadUsedCoefficientSets(db, readings), installation: installationOf(survey),
   };
 }
 
@@ -95,14 +107,22 @@ export function previousSignedOff(db: Db, survey: SurveyRow): SurveyRow | null {
 
 const siteNameOf = (db: Db, siteId: number) => db.select({ name: sites.name }).from(sites).where(eq(sites.id, siteId)).get()?.name ?? '';
 
-const strip = ({ polygon: _p, readingIds: _r, wallBandReadingIds: _w, pointDf: _d, ...zone }: JudgedZone): ZoneCompliance => zone;
+const strip = ({ polygon: _p, readingIds: _r, wallBandReadingIds: _w, otherPlaneReadingIds: _o, pointDf: _d, ...zone }: JudgedZone): ZoneCompliance => zone;
 
 /** The verdicts and judged zones of a survey: frozen if signed off, else live. */
 export function surveyVerdicts(db: Db, survey: SurveyRow) {
   const frozen = frozenOf(survey);
-  if (frozen) return { rule: frozen.rule, zones: frozen.zones, unassignedPoints: frozen.unassignedPoints, hasDaylightReference: frozen.hasDaylightReference, warnings: frozen.warnings, frozen };
+  if (frozen) {
+    return {
+      rule: frozen.rule, zones: frozen.zones, unassignedPoints: frozen.unassignedPoints, hasDaylightReference: frozen.hasDaylightReference, warnings: frozen.warnings,
+      installation: frozen.installation ?? IN_SERVICE, frozen,
+    };
+  }
   const { rule, result } = liveCompliance(db, survey.organizationId, survey);
-  return { rule, zones: result.zones, unassignedPoints: result.unassignedPoints, hasDaylightReference: result.hasDaylightReference, warnings: result.warnings, frozen: null };
+  return {
+    rule, zones: result.zones, unassignedPoints: result.unassignedPoints, hasDaylightReference: result.hasDaylightReference, warnings: result.warnings,
+    installation: installationOf(survey), frozen: null,
+  };
 }
 
 export function complianceOf(db: Db, survey: SurveyRow): ComplianceResponse {
@@ -127,6 +147,7 @@ export function complianceOf(db: Db, survey: SurveyRow): ComplianceResponse {
     surveyId: survey.id, surveyName: survey.name, siteId: survey.siteId, siteName: siteNameOf(db, survey.siteId), startedOn: survey.startedOn,
     status: survey.status, reviewComment: survey.reviewComment, rule: v.rule, ruleText: RULE_TEXT[v.rule], gridRule: v.frozen?.gridRule ?? GRID_RULE,
     frozen: v.frozen !== null, frozenAt: v.frozen ? new Date(v.frozen.frozenAt).toISOString() : null, hasDaylightReference: v.hasDaylightReference,
+    installation: v.installation, installationText: installationSummary(coreInstallation(v.installation)),
     counts: countVerdicts(zones), zones, unassignedPoints: v.unassignedPoints,
     previous: prev ? { surveyId: prev.id, name: prev.name, signedOffAt: prev.signedOffAt ? new Date(prev.signedOffAt).toISOString() : null } : null,
     warnings: v.warnings,
@@ -145,13 +166,13 @@ export function getZoneDetail(db: Db, user: SessionUser, surveyId: number, zoneI
   const judged = surveyVerdicts(db, survey).zones.find((z) => z.zoneId === zoneId);
   if (!zone || !judged) throw notFound('Zone of this survey');
   const wallBand = new Set(judged.wallBandReadingIds);
-  const pointReadings = loadReadingsById(db, survey.id, [...judged.readingIds, ...judged.wallBandReadingIds]);
+  const pointReadings = loadReadingsById(db, survey.id, [...judged.readingIds, ...judged.wallBandReadingIds, ...(judged.otherPlaneReadingIds ?? [])]);
   return {
     surveyId: survey.id, rule: compliance.rule, ruleText: compliance.ruleText, gridRule: compliance.gridRule, frozen: compliance.frozen,
     zone, polygon: judged.polygon,
     points: pointReadings.filter((r) => r.xM !== null && r.yM !== null).map((r) => ({
       readingId: r.id, point: r.point, xM: r.xM as number, yM: r.yM as number, timestamp: new Date(r.timeMs).toISOString(),
-      lux: r.lux, uLux: r.uLux, luxBound: r.luxBound, flag: r.flag, inWallBand: wallBand.has(r.id),
+      lux: r.lux, uLux: r.uLux, luxBound: r.luxBound, flag: r.flag, inWallBand: wallBand.has(r.id), plane: r.plane ?? 'horizontal', azimuthDeg: r.azimuthDeg ?? null,
       ...(judged.pointDf?.[r.id] !== undefined ? { dfPercent: judged.pointDf[r.id] } : {}),
     })),
   };
@@ -174,4 +195,44 @@ export function sitesOverview(db: Db, user: SessionUser): SitesOverviewResponse 
     };
   });
   return { items, rule: orgRule, ruleText: RULE_TEXT[orgRule] };
+}
+
+/** Our rule in words (shared/core/maintained maintenanceStatus), for the page and the README. */
+export const MAINTENANCE_RULE = 'A zone is due for maintenance when its latest signed-off Eavg is below its maintained value Em, and due within a year when the least-squares line through its signed-off Eavg values falls and reaches Em within a year of the latest one. Values come from signed-off surveys only (dated by their start date, else their sign-off), exact averages only.';
+
+/**
+ * Maintenance due for the facility manager: every zone of every site the caller may see, with the
+ * trend of its signed-off Eavg values (from the frozen verdicts) against its latest maintained value.
+ */
+export function maintenanceOverview(db: Db, user: SessionUser): MaintenanceResponse {
+  const siteRows = db.select().from(sites).where(and(...siteConditions(db, user))).orderBy(sites.name).all();
+  const items: MaintenanceZone[] = [];
+  for (const site of siteRows) {
+    const signed = db.select().from(surveys).where(and(eq(surveys.siteId, site.id), eq(surveys.status, 'signed_off'))).all();
+    const byZone = new Map<number, { zone: JudgedZone; survey: SurveyRow; timeMs: number; installation: InstallationInfo }[]>();
+    for (const s of signed) {
+      const frozen = frozenOf(s);
+      if (!frozen) continue;
+      const timeMs = s.startedOn ? Date.parse(`${s.startedOn}T00:00:00Z`) : s.signedOffAt ?? frozen.frozenAt;
+      for (const z of frozen.zones) {
+        if (z.eavg === null || z.bounds.eavg !== null || z.targetLux === null) continue;
+        byZone.set(z.zoneId, [...(byZone.get(z.zoneId) ?? []), { zone: z, survey: s, timeMs, installation: frozen.installation ?? IN_SERVICE }]);
+      }
+    }
+    for (const [zoneId, entries] of byZone) {
+      entries.sort((a, b) => a.timeMs - b.timeMs);
+      const latest = entries[entries.length - 1];
+      const targetLux = latest.zone.targetLux as number;
+      const status = maintenanceStatus(entries.map((e) => ({ timeMs: e.timeMs, eavg: e.zone.eavg as number })), targetLux);
+      items.push({
+        siteId: site.id, siteName: site.name, zoneId, zoneName: latest.zone.name, planName: latest.zone.planName, targetLux,
+        state: status.state, slopeLuxPerYear: status.slopeLuxPerYear,
+        reachesTargetOn: status.reachesTargetAtMs === null ? null : new Date(status.reachesTargetAtMs).toISOString().slice(0, 10), reason: status.reason,
+        trend: entries.map((e) => ({ surveyId: e.survey.id, surveyName: e.survey.name, date: new Date(e.timeMs).toISOString().slice(0, 10), eavg: e.zone.eavg as number, verdict: e.zone.verdict, installation: e.installation.state })),
+      });
+    }
+  }
+  const order = { due: 0, due_soon: 1, ok: 2, unknown: 3 } as const;
+  items.sort((a, b) => order[a.state] - order[b.state] || a.siteName.localeCompare(b.siteName) || a.zoneName.localeCompare(b.zoneName));
+  return { rule: MAINTENANCE_RULE, items };
 }

@@ -1,14 +1,23 @@
 import { mean } from 'simple-statistics';
 import { zoneStats, gridAdequacy, GRID_RULE } from '@shared/core/zone-stats';
 import { decideZone, type AcceptanceRule } from '@shared/core/decision';
-import { combineBudget, COVERAGE_K } from '@shared/core/uncertainty';
+import { combineBudget, COVERAGE_K, meanUncertainty } from '@shared/core/uncertainty';
 import { createOutdoorReference, pairDaylight, type OutdoorReference } from '@shared/core/daylight';
 import type { BudgetPart, LuxBound, Reading, ReadingFlag } from '@shared/core/types';
 import { createZoneAssigner, type ZoneKind } from '@shared/spatial/zone-assignment';
-import type { PlanPoint } from '@shared/spatial/polygon';
 import type { TargetConfidence } from '@shared/schemas/targets';
 import type { ZoneCompliance, ZoneVerdict } from '@shared/schemas/compliance';
 import { decodeBudget } from '../readings/stored-budget.mjs';
+import { designValue } from '@shared/core/illuminance-scale';
+import { installationText, limitFor, type Installation } from '@shared/core/maintained';
+import {
+  BACKGROUND_BAND_M, BACKGROUND_RELATION_SOURCE, backgroundEmFor, CYLINDRICAL_METHOD, cylindricalFromVertical, modellingRatio, MODELLING_RANGE, SURFACE_U0_MIN,
+  SURROUNDING_BAND_M, SURROUNDING_RELATION_SOURCE, SURROUNDING_U0_MIN, surroundingEmFor, type ReadingPlane,
+} from '@shared/core/planes';
+import { polygonAreaM2, polygonCentre, type PlanPoint } from '@shared/spatial/polygon';
+import { bandArea, deriveTaskBands, pointInBand, pointInPolygon } from '@shared/spatial/task-bands';
+import { INFO_ONLY_NOTE } from '@shared/schemas/targets';
+import type { CheckKind, ZoneCheck } from '@shared/schemas/compliance';
 
 /** Fewer valid points than this give no uniformity worth judging: the zone is not assessed (project's own choice). */
 export const MIN_ASSESSABLE_POINTS = 3;
@@ -30,13 +39,23 @@ export type JudgeReading = {
   flag: ReadingFlag;
   budget: unknown;
   coefficientSetId: number | null;
+  /** Where the sensor faced (readings before planes were kept are horizontal). */
+  plane?: ReadingPlane;
+  azimuthDeg?: number | null;
 };
 
 export type JudgeTarget = {
   id: number;
   name: string;
+  /** The required maintained value (EN 12464-1:2021), lux. */
   emLux: number;
   u0Min: number | null;
+  emModifiedLux?: number | null;
+  ezLux?: number | null;
+  emWallLux?: number | null;
+  emCeilingLux?: number | null;
+  ra?: number | null;
+  rugl?: number | null;
   dfTargetPercent: number | null;
   source: string;
   confidence: TargetConfidence;
@@ -53,11 +72,16 @@ export type JudgeZone = {
   wallBandM: number;
   polygon: PlanPoint[];
   target: JudgeTarget | null;
+  /** The value the design chose and the context modifiers behind it (null / empty: the required value). */
+  chosenEmLux?: number | null;
+  contextModifiers?: string[];
 };
 
 /** A zone's verdict plus what a frozen sign-off keeps to show the same points later. */
 export type JudgedZone = ZoneCompliance & {
   polygon: PlanPoint[]; readingIds: number[]; wallBandReadingIds: number[];
+  /** Readings on walls, ceilings and vertical planes in the zone (absent in sign-offs frozen before planes were kept). */
+  otherPlaneReadingIds?: number[];
   /** Daylight factor (%) of each included reading that paired with the outdoor reference, by reading id (absent in sign-offs frozen before it was kept). */
   pointDf?: Record<string, number>;
 };
@@ -109,16 +133,22 @@ export function judgeZones(input: {
   rule: AcceptanceRule;
   /** Survey conditions: daylight excluded means no daylight factor is computed. */
   daylightExcluded: boolean;
+  /** New installation (limits Em / MF) or in service (Em); in service when absent. */
+  installation?: Installation;
 }): JudgeResult {
+  const installation: Installation = input.installation ?? { state: 'in_service' };
   const warnings: string[] = [];
   const assign = createZoneAssigner(input.zones.map((z) => ({ id: z.id, kind: z.kind, wallBandM: z.wallBandM, polygon: z.polygon })));
   const inZone = new Map<number, { included: JudgeReading[]; wallBand: JudgeReading[] }>(input.zones.map((z) => [z.id, { included: [], wallBand: [] }]));
+  // Readings on walls, ceilings and vertical planes belong to the zone they stand in; the wall band concerns the working plane only.
+  const onOtherPlanes = new Map<number, JudgeReading[]>(input.zones.map((z) => [z.id, []]));
   let unassigned = 0;
   const task = input.readings.filter((r) => r.role === 'task');
   for (const r of task) {
     if (r.xM === null || r.yM === null) { unassigned++; continue; }
     const a = assign([r.xM, r.yM]);
     if (a.zoneId === null) { unassigned++; continue; }
+    if ((r.plane ?? 'horizontal') !== 'horizontal') { onOtherPlanes.get(a.zoneId)!.push(r); continue; }
     const bucket = inZone.get(a.zoneId)!;
     (a.inWallBand ? bucket.wallBand : bucket.included).push(r);
   }
@@ -152,6 +182,10 @@ export function judgeZones(input: {
     if (lapsed > 0) reasons.push(`${lapsed} point(s) were taken with a probe whose calibration had lapsed.`);
     if (z.target?.confidence === 'memory') reasons.push('The target value is from memory and unchecked against the standard: confirm it before relying on the verdict.');
 
+    const design = z.target ? designValue({ requiredLux: z.target.emLux, modifiedLux: z.target.emModifiedLux ?? null, chosenLux: z.chosenEmLux ?? null, modifiers: z.contextModifiers ?? [] }) : null;
+    const limit = design ? limitFor(design.emLux, installation) : null;
+    // Which value was judged and why, and which case (new or in service): said right after the verdict's own reasons.
+    const designReasons = design ? [design.explanation, installationText(design.emLux, installation)] : [];
     let verdict: ZoneVerdict;
     if (!z.target) {
       verdict = 'not_assessed';
@@ -160,11 +194,11 @@ export function judgeZones(input: {
       verdict = 'not_assessed';
       reasons.unshift(stats.validPoints === 0
         ? 'No valid reading in this zone (outside its wall band).'
-        : `Only ${stats.validPoints} valid point(s) outside the wall band; at least ${MIN_ASSESSABLE_POINTS} are needed to judge a zone.`);
+        : `Only ${stats.validPoints} valid point(s) outside the wall band; at least ${MIN_ASSESSABLE_POINTS} are needed to judge a zone.`, ...designReasons);
     } else {
-      const v = decideZone(stats, { emLux: z.target.emLux, ...(z.target.u0Min !== null ? { u0Min: z.target.u0Min } : {}) }, input.rule, { gridAdequate: grid.adequate });
+      const v = decideZone(stats, { emLux: limit as number, ...(z.target.u0Min !== null ? { u0Min: z.target.u0Min } : {}) }, input.rule, { gridAdequate: grid.adequate });
       verdict = v.verdict;
-      reasons.unshift(...v.reasons);
+      reasons.unshift(...v.reasons, ...designReasons);
     }
     if (!grid.adequate && stats.validPoints > 0) reasons.push(`${stats.validPoints} of ${grid.required} points the grid rule asks for (${GRID_RULE}).`);
     reasons.push(...stats.reasons);
@@ -184,10 +218,56 @@ export function judgeZones(input: {
       if (dfAvg !== undefined && z.target?.dfTargetPercent) reasons.push(`Average daylight factor ${dfAvg.toFixed(1)} % against ${z.target.dfTargetPercent} % (informative, not part of the verdict).`);
     }
 
+    const checks: ZoneCheck[] = [];
+    let modelling: ZoneCompliance['modelling'];
+    if (z.target) {
+      const other = onOtherPlanes.get(z.id)!;
+      const t = z.target;
+      const surface = (plane: 'wall' | 'ceiling', lux: number | null | undefined) => {
+        const rs = other.filter((r) => r.plane === plane);
+        if (lux == null && rs.length === 0) return;
+        checks.push(judgeCheck({
+          kind: plane, readings: rs.map(toCoreReading), targetLux: lux ?? null, u0Min: SURFACE_U0_MIN, minPoints: MIN_ASSESSABLE_POINTS,
+          source: `${t.source}; U0 ≥ ${SURFACE_U0_MIN} for walls and ceilings (EN 12464-1:2021, secondary)`, confidence: t.confidence, installation, rule: input.rule,
+          none: `No ${plane} readings in this zone (log rows with plane = ${plane}).`,
+        }));
+      };
+      surface('wall', t.emWallLux);
+      surface('ceiling', t.emCeilingLux);
+      const vertical = other.filter((r) => r.plane === 'vertical');
+      if (t.ezLux != null || vertical.length > 0) {
+        const cyl = cylindricalPoints(vertical);
+        const c = judgeCheck({
+          kind: 'cylindrical', readings: cyl.points, targetLux: t.ezLux ?? null, u0Min: null, minPoints: 1,
+          source: `${t.source}; ${CYLINDRICAL_METHOD}`, confidence: t.confidence, installation, rule: input.rule,
+          none: 'No cylindrical point in this zone (four log rows with plane = vertical and azimuth_deg 90° apart at one point).',
+        });
+        c.reasons.push(...cyl.reasons);
+        checks.push(c);
+        if (c.eavg !== null && c.bounds.eavg === null && stats.eavg !== null && stats.bounded.eavg === null) {
+          const ratio = modellingRatio(c.eavg, stats.eavg);
+          if (ratio !== null) {
+            modelling = { ratio, ezLux: c.eavg, ehLux: stats.eavg, withinRecommendation: ratio >= MODELLING_RANGE.min && ratio <= MODELLING_RANGE.max, source: MODELLING_RANGE.source };
+            reasons.push(`Modelling Ez / Eh = ${ratio.toFixed(2)} (${MODELLING_RANGE.min.toFixed(2)} to ${MODELLING_RANGE.max.toFixed(2)} recommended in 2011; informative).`);
+          }
+        }
+      }
+      if (z.kind === 'task_area' && design) {
+        const room = containingRoom(z, input.zones);
+        const roomReadings = room ? inZone.get(room.id)!.included : [];
+        checks.push(...judgeTaskAreas({ task: z, room, roomReadings, taskEmLux: design.emLux, installation, rule: input.rule }));
+      }
+    }
+
     return {
       zoneId: z.id, name: z.name, kind: z.kind, useType: z.useType, planId: z.planId, planName: z.planName, planeHeightM: z.planeHeightM,
       targetId: z.target?.id ?? null, targetName: z.target?.name ?? null, targetSource: z.target?.source ?? null, targetConfidence: z.target?.confidence ?? null,
-      targetLux: z.target?.emLux ?? null, targetU0: z.target?.u0Min ?? null,
+      targetLux: design?.emLux ?? null, targetU0: z.target?.u0Min ?? null,
+      ...(z.target ? {
+        requiredLux: z.target.emLux, modifiedLux: z.target.emModifiedLux ?? null, limitLux: limit,
+        design: { basis: design!.basis, steps: design!.steps, explanation: design!.explanation, modifiers: z.contextModifiers ?? [] },
+        info: { ra: z.target.ra ?? null, rugl: z.target.rugl ?? null, note: INFO_ONLY_NOTE },
+      } : {}),
       points: stats.validPoints, requiredPoints: grid.required, gridAdequate: grid.adequate, wallBandPoints: wallBand.length,
       eavg: stats.eavg, emin: stats.validPoints ? stats.emin : null, emax: stats.validPoints ? stats.emax : null, u0: stats.u0, uEavg: stats.uEavg,
       bounds: { eavg: stats.bounded.eavg, emin: stats.bounded.emin, u0: stats.bounded.u0 },
@@ -195,10 +275,117 @@ export function judgeZones(input: {
       ...(z.target?.dfTargetPercent ? { dfTargetPercent: z.target.dfTargetPercent } : {}),
       ...(dfWarning ? { dfWarning } : {}),
       verdict, reasons,
+      ...(checks.length > 0 ? { checks } : {}),
+      ...(modelling ? { modelling } : {}),
       polygon: z.polygon, readingIds: included.map((r) => r.id), wallBandReadingIds: wallBand.map((r) => r.id),
+      ...(onOtherPlanes.get(z.id)!.length > 0 ? { otherPlaneReadingIds: onOtherPlanes.get(z.id)!.map((r) => r.id) } : {}),
       ...(Object.keys(pointDf).length > 0 ? { pointDf } : {}),
     };
   });
   if (unassigned > 0) warnings.push(`${unassigned} task reading(s) lie in no zone and are not judged.`);
   return { zones: worstFirst(zones), unassignedPoints: unassigned, hasDaylightReference, warnings };
+}
+
+type CheckInput = {
+  kind: CheckKind;
+  readings: Reading[];
+  targetLux: number | null;
+  u0Min: number | null;
+  minPoints: number;
+  source: string;
+  confidence: TargetConfidence;
+  installation: Installation;
+  rule: AcceptanceRule;
+  /** The reason when no reading applies. */
+  none: string;
+};
+
+/** One check beyond the task plane: statistics, then Eavg (and U0) against the maintained value or Em / MF when new. */
+export function judgeCheck(c: CheckInput): ZoneCheck {
+  const stats = zoneStats(c.readings);
+  const limit = c.targetLux === null ? null : limitFor(c.targetLux, c.installation);
+  const reasons: string[] = [];
+  let verdict: ZoneVerdict;
+  if (c.targetLux === null) {
+    verdict = 'not_assessed';
+    reasons.push('The library entry gives no value for this check.');
+  } else if (stats.validPoints === 0) {
+    verdict = 'not_assessed';
+    reasons.push(c.none);
+  } else if (stats.validPoints < c.minPoints) {
+    verdict = 'not_assessed';
+    reasons.push(`Only ${stats.validPoints} valid point(s); at least ${c.minPoints} are needed.`);
+  } else {
+    const v = decideZone(stats, { emLux: limit as number, ...(c.u0Min !== null ? { u0Min: c.u0Min } : {}) }, c.rule);
+    verdict = v.verdict;
+    reasons.push(...v.reasons);
+    if (c.installation.state === 'new') reasons.push(`New installation: compared with ${fmtLux(c.targetLux)} / MF ${c.installation.maintenanceFactor} = ${fmtLux(limit as number)}.`);
+  }
+  reasons.push(...stats.reasons);
+  return {
+    kind: c.kind, targetLux: c.targetLux, limitLux: limit, u0Min: c.u0Min, source: c.source, confidence: c.confidence,
+    points: stats.validPoints, eavg: stats.eavg, emin: stats.validPoints ? stats.emin : null, u0: stats.u0, uEavg: stats.uEavg,
+    bounds: { eavg: stats.bounded.eavg, emin: stats.bounded.emin, u0: stats.bounded.u0 }, verdict, reasons,
+  };
+}
+
+const fmtLux = (v: number) => `${Number(v.toPrecision(6))} lx`;
+
+/**
+ * Cylindrical points from vertical readings grouped by point label: each point's Ez is the mean of its
+ * four vertical readings 90° apart (shared/core/planes), carried as one reading whose budget is that
+ * mean's (systematic parts whole, random parts shrunk).
+ */
+export function cylindricalPoints(vertical: readonly JudgeReading[]): { points: Reading[]; reasons: string[] } {
+  const byPoint = new Map<string, JudgeReading[]>();
+  for (const r of vertical) byPoint.set(r.point, [...(byPoint.get(r.point) ?? []), r]);
+  const points: Reading[] = [];
+  const reasons: string[] = [];
+  for (const [label, rs] of byPoint) {
+    if (rs.some((r) => r.lux === null || r.luxBound !== 'exact' || r.azimuthDeg == null)) {
+      reasons.push(`Point ${label}: a vertical reading is a fault, a bound or has no azimuth, so no Ez is given there.`);
+      continue;
+    }
+    const c = cylindricalFromVertical(rs.map((r) => ({ azimuthDeg: r.azimuthDeg as number, lux: r.lux as number })));
+    if (!c.ok) { reasons.push(`Point ${label}: ${c.reason}`); continue; }
+    const core = rs.map(toCoreReading);
+    const mu = meanUncertainty(core)!;
+    const uRel = combineBudget(mu.budget);
+    points.push({ ...core[0], point: label, lux: c.ezLux, luxBound: 'exact', flag: 'ok', flags: ['ok'], budget: mu.budget, uRel, uLux: COVERAGE_K * uRel * c.ezLux });
+  }
+  if (points.length > 0) reasons.push(`Ez from ${points.length} point(s): ${CYLINDRICAL_METHOD}.`);
+  return { points, reasons };
+}
+
+/** The smallest room whose outline holds the task area's centre: the room its background is clipped to. */
+export function containingRoom(task: JudgeZone, zones: readonly JudgeZone[]): JudgeZone | null {
+  const centre = polygonCentre(task.polygon);
+  const rooms = zones.filter((z) => z.kind === 'room' && z.planId === task.planId && pointInPolygon(centre, z.polygon));
+  return rooms.sort((a, b) => polygonAreaM2(a.polygon) - polygonAreaM2(b.polygon))[0] ?? null;
+}
+
+/**
+ * The immediate surrounding (a 0.5 m band) and background (a 3 m band beyond it) of a task area,
+ * clipped to its room (shared/spatial/task-bands), each judged on the room's working-plane readings
+ * that fall in it: surrounding against EN 12464-1's relation to the task value, background against a
+ * third of the surrounding with U0 ≥ 0.10 (secondary sources).
+ */
+export function judgeTaskAreas(input: { task: JudgeZone; room: JudgeZone | null; roomReadings: JudgeReading[]; taskEmLux: number; installation: Installation; rule: AcceptanceRule }): ZoneCheck[] {
+  const bands = deriveTaskBands(input.task.polygon, input.room?.polygon ?? null);
+  const surroundingLux = surroundingEmFor(input.taskEmLux);
+  const out: ZoneCheck[] = [];
+  const clip = input.room ? `clipped to ${input.room.name}` : 'not clipped: the task area lies in no room';
+  for (const [kind, band, targetLux, u0Min, source] of [
+    ['surrounding', bands.surrounding, surroundingLux, SURROUNDING_U0_MIN, `${SURROUNDING_RELATION_SOURCE}; band ≥ ${SURROUNDING_BAND_M} m`],
+    ['background', bands.background, backgroundEmFor(surroundingLux), SURFACE_U0_MIN, `${BACKGROUND_RELATION_SOURCE}; band ≥ ${BACKGROUND_BAND_M} m`],
+  ] as const) {
+    const rs = input.roomReadings.filter((r) => r.xM !== null && r.yM !== null && pointInBand([r.xM, r.yM], band));
+    const c = judgeCheck({
+      kind, readings: rs.map(toCoreReading), targetLux, u0Min, minPoints: MIN_ASSESSABLE_POINTS, source, confidence: kind === 'surrounding' ? 'memory' : 'secondary',
+      installation: input.installation, rule: input.rule, none: `No working-plane reading of the room lies in this band (${clip}).`,
+    });
+    c.reasons.push(`Band derived from the task area by planar offsetting, ${clip}.`);
+    out.push({ ...c, polygons: band, areaM2: bandArea(band) });
+  }
+  return out;
 }

@@ -6,19 +6,26 @@
 // Plain JavaScript for the writer thread (no TypeScript loader there); types in batch-format.d.mts.
 import { BUDGET_PARTS, encodeBudgetSlots } from '../readings/stored-budget.mjs';
 
-/** A sample's slots in a batch's samples array and in a stored block. */
+/** A sample's slots in a stored block of encoding 'f64' (and 'json'): blocks written before readings had planes. */
 export const SAMPLE_SLOTS = ['line', 'timeMs', 'probeId', 'point', 'gainCode', 'counts', 'ma', 'volts', 'intMs', 'tempC', 'xM', 'yM', 'planId', 'role', 'note'];
-/** A reading's slots in a batch's readings array: its budget last, one uRel per BUDGET_PARTS entry. */
+/** A sample's slots in a batch's samples array and in a stored block of encoding 'f64p' (what imports write now): plane and azimuth added. */
+export const PLANE_SAMPLE_SLOTS = [...SAMPLE_SLOTS, 'plane', 'azimuthDeg'];
+/** The encoding a builder's sample arrays are stored under. */
+export const SAMPLE_ENCODING = 'f64p';
+/** A reading's slots in a batch's readings array: its budget, one uRel per BUDGET_PARTS entry, then plane and azimuth. */
 export const READING_SLOTS = ['point', 'xM', 'yM', 'planId', 'role', 'timeMs', 'probeId', 'lux', 'uLux', 'luxBound', 'flag', 'gainCode', 'samples', 'chosenSample', 'coefficientSetId', 'note',
-  ...BUDGET_PARTS.map((name) => `budget.${name}`)];
+  ...BUDGET_PARTS.map((name) => `budget.${name}`), 'plane', 'azimuthDeg'];
 const BUDGET_SLOT = READING_SLOTS.indexOf(`budget.${BUDGET_PARTS[0]}`);
+const READING_PLANE_SLOT = READING_SLOTS.indexOf('plane');
 export const SAMPLE_WIDTH = SAMPLE_SLOTS.length;
+export const PLANE_SAMPLE_WIDTH = PLANE_SAMPLE_SLOTS.length;
 export const READING_WIDTH = READING_SLOTS.length;
 
 /** Stored codes of the enumerations (their index); append only, stored blocks keep them. */
 export const ROLES = ['task', 'reference'];
 export const LUX_BOUNDS = ['exact', 'lower', 'upper'];
 export const FLAGS = ['ok', 'over_range', 'under_range', 'fault', 'calibration_lapsed', 'low_confidence'];
+export const PLANES = ['horizontal', 'vertical', 'wall', 'ceiling'];
 
 const codeOf = (list, value, what) => {
   const i = list.indexOf(value);
@@ -30,7 +37,7 @@ const orNaN = (v) => (v === null || v === undefined ? NaN : v);
 
 /** Collects one batch; take() hands it over (its arrays are then the receiver's) and starts the next. */
 export function createBatchBuilder(capacityRows = 2048) {
-  let samples = new Float64Array(capacityRows * SAMPLE_WIDTH);
+  let samples = new Float64Array(capacityRows * PLANE_SAMPLE_WIDTH);
   let readings = new Float64Array(capacityRows * READING_WIDTH);
   let sampleRows = 0;
   let readingRows = 0;
@@ -59,8 +66,8 @@ export function createBatchBuilder(capacityRows = 2048) {
     get readingRows() { return readingRows; },
     /** s: the sample as LogSample, with the probe by id. */
     addSample(s, probeId) {
-      samples = grow(samples, (sampleRows + 1) * SAMPLE_WIDTH);
-      let o = sampleRows * SAMPLE_WIDTH;
+      samples = grow(samples, (sampleRows + 1) * PLANE_SAMPLE_WIDTH);
+      let o = sampleRows * PLANE_SAMPLE_WIDTH;
       samples[o++] = s.line;
       samples[o++] = s.timeMs;
       samples[o++] = probeId;
@@ -75,7 +82,9 @@ export function createBatchBuilder(capacityRows = 2048) {
       samples[o++] = orNaN(s.yM);
       samples[o++] = orNaN(s.planId);
       samples[o++] = codeOf(ROLES, s.role, 'role');
-      samples[o] = stringIndex(s.note);
+      samples[o++] = stringIndex(s.note);
+      samples[o++] = codeOf(PLANES, s.plane ?? 'horizontal', 'plane');
+      samples[o] = orNaN(s.azimuthDeg);
       sampleRows++;
     },
     /** r: a DecodedReading. */
@@ -100,13 +109,16 @@ export function createBatchBuilder(capacityRows = 2048) {
       readings[o] = stringIndex(r.note);
       readings.fill(NaN, o + 1, o + 1 + BUDGET_PARTS.length);
       for (const part of r.budget) readings[o + 1 + codeOf(BUDGET_PARTS, part.name, 'budget part')] = part.uRel;
+      const base = readingRows * READING_WIDTH;
+      readings[base + READING_PLANE_SLOT] = codeOf(PLANES, r.plane ?? 'horizontal', 'plane');
+      readings[base + READING_PLANE_SLOT + 1] = orNaN(r.azimuthDeg);
       readingRows++;
     },
     /** The batch so far, its arrays trimmed to length (transferOf gives the transfer list); the builder starts empty. */
     take() {
       const batch = {
         sampleRows, readingRows,
-        samples: samples.slice(0, sampleRows * SAMPLE_WIDTH),
+        samples: samples.slice(0, sampleRows * PLANE_SAMPLE_WIDTH),
         readings: readings.slice(0, readingRows * READING_WIDTH),
         strings,
       };
@@ -158,25 +170,32 @@ export function fillReadingValues(batch, from, to, out) {
     out[k++] = encodeBudgetSlots(readings, o + BUDGET_SLOT);
     const note = readings[o + 15];
     out[k++] = note === note ? strings[note] : null;
+    out[k++] = PLANES[readings[o + READING_PLANE_SLOT]];
+    out[k++] = valueOrNull(readings[o + READING_PLANE_SLOT + 1]);
   }
   return k;
 }
 
-/** A stored block's samples (the batch's samples array as bytes, and its strings) back as values. */
-export function unpackF64Block(data, strings, rowCount) {
-  if (data.byteLength !== rowCount * SAMPLE_WIDTH * 8) throw new Error(`holds ${data.byteLength} bytes, not ${rowCount} samples of ${SAMPLE_WIDTH} numbers`);
+/**
+ * A stored block's samples (the batch's samples array as bytes, and its strings) back as values.
+ * encoding 'f64p' holds plane and azimuth; 'f64' blocks (written before) are horizontal readings.
+ */
+export function unpackF64Block(data, strings, rowCount, encoding = 'f64') {
+  const width = encoding === 'f64p' ? PLANE_SAMPLE_WIDTH : SAMPLE_WIDTH;
+  if (data.byteLength !== rowCount * width * 8) throw new Error(`holds ${data.byteLength} bytes, not ${rowCount} samples of ${width} numbers`);
   // A copy: a Buffer from SQLite need not be 8-byte aligned.
   const f = new Float64Array(new Uint8Array(data).buffer);
   const out = new Array(rowCount);
-  for (let r = 0, o = 0; r < rowCount; r++, o += SAMPLE_WIDTH) {
+  for (let r = 0, o = 0; r < rowCount; r++, o += width) {
     const note = f[o + 14];
     out[r] = {
       line: f[o], timeMs: f[o + 1], probeId: f[o + 2], point: strings[f[o + 3]],
       gainCode: valueOrNull(f[o + 4]), counts: valueOrNull(f[o + 5]), ma: valueOrNull(f[o + 6]), volts: valueOrNull(f[o + 7]),
       intMs: valueOrNull(f[o + 8]), tempC: valueOrNull(f[o + 9]), xM: valueOrNull(f[o + 10]), yM: valueOrNull(f[o + 11]),
       planId: valueOrNull(f[o + 12]), role: ROLES[f[o + 13]], note: note === note ? strings[note] : null,
+      plane: width === PLANE_SAMPLE_WIDTH ? PLANES[f[o + 15]] : 'horizontal', azimuthDeg: width === PLANE_SAMPLE_WIDTH ? valueOrNull(f[o + 16]) : null,
     };
-    if (out[r].point === undefined || out[r].role === undefined) throw new Error(`gives sample ${r} a text or role it does not hold`);
+    if (out[r].point === undefined || out[r].role === undefined || out[r].plane === undefined) throw new Error(`gives sample ${r} a text, role or plane it does not hold`);
   }
   return out;
 }

@@ -4,6 +4,7 @@ import { createCoefficientSelector, isCalibrationLapsed, type CoefficientSelecto
 import { DecodeError, type DecodeErrorCode } from '../../../shared/core/errors';
 import type { AnalogProbe, BudgetPart, LuxBound, Reading, ReadingFlag } from '../../../shared/core/types';
 import type { DecodingCalibration } from '../probes/probe-calibration';
+import type { ReadingPlane } from '../../../shared/core/planes';
 
 /** One sample as the decoder takes it: parsed from a log row, or read back from the samples table. */
 export type LogSample = {
@@ -24,6 +25,9 @@ export type LogSample = {
   planId: number | null;
   role: 'task' | 'reference';
   note: string | null;
+  /** Where the sensor faced (absent: horizontal) and, for vertical readings, its azimuth in degrees. */
+  plane?: ReadingPlane;
+  azimuthDeg?: number | null;
 };
 
 export type DecodedReading = {
@@ -34,6 +38,9 @@ export type DecodedReading = {
   planId: number | null;
   role: 'task' | 'reference';
   note: string | null;
+  /** Absent: horizontal. */
+  plane?: ReadingPlane;
+  azimuthDeg?: number | null;
   timeMs: number;
   lux: number | null;
   uLux: number | null;
@@ -64,7 +71,16 @@ function valueOf(sample: LogSample, column: string): string {
   return v[column] === undefined ? '' : String(v[column]);
 }
 
-type BurstMeta = Pick<LogSample, 'xM' | 'yM' | 'planId' | 'role' | 'note'>;
+type BurstMeta = Pick<LogSample, 'point' | 'xM' | 'yM' | 'planId' | 'role' | 'note' | 'plane' | 'azimuthDeg'>;
+
+/**
+ * What the burst assembler groups by: the point label, and for readings off the horizontal plane
+ * also plane and azimuth, so four vertical readings at one point in quick succession stay four readings.
+ */
+function burstKey(s: LogSample): string {
+  const plane = s.plane ?? 'horizontal';
+  return plane === 'horizontal' ? s.point : `${s.point}\u001f${plane}\u001f${s.azimuthDeg ?? ''}`;
+}
 
 /**
  * Decodes a log's samples in file order with the measurement core: counting probes through the
@@ -92,7 +108,8 @@ export function createLogDecoder(calibration: ReadonlyMap<string, DecodingCalibr
 
   const emit = (r: Reading, meta: BurstMeta) => {
     onReading({
-      probeId: calibration.get(r.probe)!.probeId, point: r.point, xM: meta.xM, yM: meta.yM, planId: meta.planId, role: meta.role, note: meta.note,
+      probeId: calibration.get(r.probe)!.probeId, point: meta.point, xM: meta.xM, yM: meta.yM, planId: meta.planId, role: meta.role, note: meta.note,
+      plane: meta.plane ?? 'horizontal', azimuthDeg: meta.azimuthDeg ?? null,
       timeMs: r.timeMs, lux: r.lux, uLux: r.lux === null ? null : r.uLux, luxBound: r.luxBound, flag: r.flag, gainCode: r.gainCode,
       samples: r.samples, chosenSample: r.chosenSample, coefficientSetId: r.coefficientSetId === null ? null : Number(r.coefficientSetId), budget: r.budget,
     });
@@ -136,7 +153,7 @@ export function createLogDecoder(calibration: ReadonlyMap<string, DecodingCalibr
       current = s;
       let r: Reading | null;
       try {
-        r = assembler.push({ probe: s.probe, point: s.point, timeMs: s.timeMs, gainCode: s.gainCode, counts: s.counts, intMs: s.intMs, tempC: s.tempC });
+        r = assembler.push({ probe: s.probe, point: burstKey(s), timeMs: s.timeMs, gainCode: s.gainCode, counts: s.counts, intMs: s.intMs, tempC: s.tempC });
       } catch (e) {
         if (e instanceof DecodeError) return problem(s, COLUMN_OF_CODE[e.code] ?? 'probe', e.message);
         throw e;

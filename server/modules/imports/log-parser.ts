@@ -1,12 +1,13 @@
 import fs from 'node:fs';
 import Papa from 'papaparse';
+import { READING_PLANES, type ReadingPlane } from '../../../shared/core/planes';
 import type { DecodingCalibration } from '../probes/probe-calibration';
 import { createLogDecoder, type DecodedReading, type LogSample, type SampleProblem } from './log-decoder';
 import { createTimestampParser } from './log-time';
 import { createBatchBuilder, type Batch } from './batch-format.mjs';
 
 /** The log format's columns (README, "Survey logs and the log format"). */
-export const LOG_COLUMNS = ['timestamp', 'probe', 'point', 'gain', 'counts', 'ma', 'volts', 'x_m', 'y_m', 'plan', 'int_ms', 'temp_c', 'role', 'note'] as const;
+export const LOG_COLUMNS = ['timestamp', 'probe', 'point', 'gain', 'counts', 'ma', 'volts', 'x_m', 'y_m', 'plan', 'int_ms', 'temp_c', 'role', 'note', 'plane', 'azimuth_deg'] as const;
 export const REQUIRED_COLUMNS = ['timestamp', 'probe', 'point'] as const;
 type Column = (typeof LOG_COLUMNS)[number];
 
@@ -233,6 +234,17 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     } else planId = input.defaultPlanId ?? (xM !== undefined && xM !== null ? onlyPlanId : null);
     const roleText = text(row, at.role).toLowerCase();
     if (roleText !== '' && roleText !== 'task' && roleText !== 'reference') addError({ line, column: 'role', value: text(row, at.role), message: 'role must be task or reference' });
+    const planeText = text(row, at.plane).toLowerCase();
+    const plane = (planeText === '' ? 'horizontal' : planeText) as ReadingPlane;
+    if (!(READING_PLANES as readonly string[]).includes(plane)) addError({ line, column: 'plane', value: text(row, at.plane), message: `plane must be one of ${READING_PLANES.join(', ')} (empty: horizontal)` });
+    const azimuthDeg = num(row, at.azimuth_deg, 'azimuth_deg', line);
+    if (azimuthDeg !== undefined && azimuthDeg !== null && !(azimuthDeg >= 0 && azimuthDeg < 360)) {
+      addError({ line, column: 'azimuth_deg', value: text(row, at.azimuth_deg), message: 'azimuth_deg is a direction from 0 up to (not including) 360 degrees, clockwise from the plan\'s up (+y)' });
+    } else if (plane === 'vertical' && azimuthDeg === undefined) {
+      addError({ line, column: 'azimuth_deg', value: '', message: 'a vertical reading needs azimuth_deg, the direction its sensor faced' });
+    } else if ((plane === 'horizontal' || plane === 'ceiling') && azimuthDeg !== undefined && azimuthDeg !== null) {
+      addError({ line, column: 'azimuth_deg', value: text(row, at.azimuth_deg), message: `azimuth_deg applies to vertical and wall readings, not to a ${plane} one` });
+    }
     if (errorCount > before) return;
     const note = text(row, at.note);
     const sample: LogSample = {
@@ -240,6 +252,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
       gainCode: gainCode ?? undefined, counts: counts ?? undefined, ma: ma ?? undefined, volts: volts ?? undefined,
       intMs: intMs ?? undefined, tempC: tempC ?? undefined, xM: xM ?? null, yM: yM ?? null, planId,
       role: roleText === 'reference' ? 'reference' : 'task', note: note === '' ? null : note.slice(0, MAX_NOTE_LENGTH),
+      plane, azimuthDeg: azimuthDeg ?? null,
     };
     const cal = input.calibration.get(probe);
     if (cal && cal.status !== 'in_service' && !warnedProbes.has(probe)) {

@@ -51,7 +51,7 @@ export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: n
           decoder.push({
             line: s.line, timeMs: s.timeMs, probe: serialOf.get(s.probeId) ?? `#${s.probeId}`, point: s.point,
             gainCode: s.gainCode ?? undefined, counts: s.counts ?? undefined, ma: s.ma ?? undefined, volts: s.volts ?? undefined,
-            intMs: s.intMs ?? undefined, tempC: s.tempC ?? undefined, xM: s.xM, yM: s.yM, planId: s.planId, role: s.role, note: s.note,
+            intMs: s.intMs ?? undefined, tempC: s.tempC ?? undefined, xM: s.xM, yM: s.yM, planId: s.planId, role: s.role, note: s.note, plane: s.plane, azimuthDeg: s.azimuthDeg,
           });
         }
         flush();

@@ -5,7 +5,7 @@ import { ROLES, SAMPLE_SLOTS, SAMPLE_WIDTH, unpackF64Block, type StoredSample } 
 
 export type { StoredSample };
 
-type Block = { id: number; rowCount: number; encoding: 'f64' | 'json'; strings: string | null; data: Buffer };
+type Block = { id: number; rowCount: number; encoding: 'f64' | 'f64p' | 'json'; strings: string | null; data: Buffer };
 
 /** A 'json' block (made by migration 0003): one flat array of SAMPLE_SLOTS values per sample. */
 function unpackJsonBlock(data: Buffer, rowCount: number): StoredSample[] {
@@ -13,7 +13,7 @@ function unpackJsonBlock(data: Buffer, rowCount: number): StoredSample[] {
   if (!Array.isArray(flat) || flat.length !== rowCount * SAMPLE_WIDTH) throw new Error(`does not hold ${rowCount} samples of ${SAMPLE_WIDTH} values`);
   const out: StoredSample[] = new Array(rowCount);
   for (let r = 0; r < rowCount; r++) {
-    const s = Object.fromEntries(SAMPLE_SLOTS.map((slot, i) => [slot, flat[r * SAMPLE_WIDTH + i]])) as StoredSample;
+    const s = { ...Object.fromEntries(SAMPLE_SLOTS.map((slot, i) => [slot, flat[r * SAMPLE_WIDTH + i]])), plane: 'horizontal', azimuthDeg: null } as StoredSample;
     if (!(ROLES as readonly string[]).includes(s.role)) throw new Error(`gives sample ${r} the role "${String(s.role)}"`);
     out[r] = s;
   }
@@ -26,7 +26,7 @@ export function unpackSampleBlock(block: Block): StoredSample[] {
     if (block.encoding === 'json') return unpackJsonBlock(block.data, block.rowCount);
     const strings: unknown = JSON.parse(block.strings ?? 'null');
     if (!Array.isArray(strings)) throw new Error('has no string table');
-    return unpackF64Block(block.data, strings as string[], block.rowCount);
+    return unpackF64Block(block.data, strings as string[], block.rowCount, block.encoding);
   } catch (err) {
     throw new Error(`Sample block ${block.id} is damaged: it ${err instanceof Error ? err.message : String(err)}`);
   }

@@ -17,17 +17,19 @@ const columns = {
   id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, planId: readings.planId, role: readings.role, timeMs: readings.timeMs, probe: probes.serial,
   lux: readings.lux, uLux: readings.uLux, luxBound: readings.luxBound, flag: readings.flag, gainCode: readings.gainCode,
   samples: readings.sampleCount, chosenSample: readings.chosenSample, budget: readings.budget, note: readings.note,
+  plane: readings.plane, azimuthDeg: readings.azimuthDeg,
 };
 type Row = {
   id: number; point: string; xM: number | null; yM: number | null; planId: number | null; role: Reading['role']; timeMs: number; probe: string; lux: number | null; uLux: number | null;
   luxBound: Reading['luxBound']; flag: Reading['flag']; gainCode: number | null; samples: number; chosenSample: number | null; budget: unknown; note: string | null;
+  plane: Reading['plane']; azimuthDeg: number | null;
 };
 
 function present(r: Row): Reading {
   return {
     id: r.id, point: r.point, xM: r.xM, yM: r.yM, planId: r.planId, role: r.role, timestamp: new Date(r.timeMs).toISOString(), probe: r.probe,
     lux: r.lux, uLux: r.uLux, luxBound: r.luxBound, flag: r.flag, gainCode: r.gainCode, samples: r.samples, chosenSample: r.chosenSample,
-    budget: decodeBudget(r.budget),
+    budget: decodeBudget(r.budget), plane: r.plane, azimuthDeg: r.azimuthDeg,
   };
 }
 
@@ -81,7 +83,7 @@ export async function exportReadingsCsv(db: Deps['db'], user: SessionUser, surve
   const safeName = survey.name.replace(/[^A-Za-z0-9 _-]+/g, '').trim().replace(/\s+/g, '-') || 'survey';
   res.setHeader('Content-Type', 'text/csv; charset=utf-8');
   res.setHeader('Content-Disposition', `attachment; filename="${safeName}-readings-${u}.csv"`);
-  const header = ['timestamp_utc', 'point', 'x_m', 'y_m', 'plan', 'role', 'probe', `illuminance_${u}`, `expanded_uncertainty_${u}_k2`, 'bound', 'flag', 'gain', 'samples', 'chosen_sample', 'note'];
+  const header = ['timestamp_utc', 'point', 'x_m', 'y_m', 'plan', 'role', 'probe', `illuminance_${u}`, `expanded_uncertainty_${u}_k2`, 'bound', 'flag', 'gain', 'samples', 'chosen_sample', 'note', 'plane', 'azimuth_deg'];
   res.write(`${Papa.unparse([header], { newline: '\r\n' })}\r\n`);
   if (survey.activeDecodeId !== null) {
     let after = { t: Number.MIN_SAFE_INTEGER, id: 0 };
@@ -93,7 +95,7 @@ export async function exportReadingsCsv(db: Deps['db'], user: SessionUser, surve
       const data = rows.map((r) => [
         new Date(r.timeMs).toISOString(), neutraliseCell(r.point), r.xM ?? '', r.yM ?? '', r.planName === null ? '' : neutraliseCell(r.planName), r.role, neutraliseCell(r.probe),
         r.lux === null ? '' : round(convert(r.lux)), r.uLux === null ? '' : round(convert(r.uLux)), r.luxBound, r.flag, r.gainCode ?? '', r.samples,
-        r.chosenSample ?? '', r.note === null ? '' : neutraliseCell(r.note),
+        r.chosenSample ?? '', r.note === null ? '' : neutraliseCell(r.note), r.plane, r.azimuthDeg ?? '',
       ]);
       // Cells are already neutralised; escapeFormulae is off so papaparse adds no second quote mark.
       const chunk = Papa.unparse(data, { newline: '\r\n', escapeFormulae: false });

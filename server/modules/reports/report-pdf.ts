@@ -3,7 +3,7 @@ import { createRequire } from 'node:module';
 import { luxToFootcandles } from '@shared/core/units';
 import { COVERAGE_K } from '@shared/core/uncertainty';
 import { CONFIDENCE_LABELS } from '@shared/schemas/targets';
-import { VERDICT_LABELS, type ZoneVerdict } from '@shared/schemas/compliance';
+import { CHECK_LABELS, VERDICT_LABELS, type ZoneVerdict } from '@shared/schemas/compliance';
 import type { ReportData } from './report-data';
 
 const require = createRequire(import.meta.url);
@@ -99,6 +99,7 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
     ['Wall band', 'Points closer to a room\'s outline than its wall band are shown but left out of the statistics (EN 12464-1); task areas keep theirs.'],
     ['Statistics', 'Eavg, Emin, Emax and U0 = Emin / Eavg per zone (EN 12464-1); over- and under-range points enter only as bounds.'],
     ['Decision rule', c.ruleText],
+    ['Installation', c.installationText],
   ]);
 
   section(doc, 'Summary');
@@ -147,6 +148,11 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
     drawZonePlan(doc, z, u);
     keyValues(doc, [
       ['Target', z.targetName ? `${z.targetName}: Em ${u(z.targetLux)}${z.targetU0 !== null ? `, U0 ${z.targetU0}` : ''}${z.dfTargetPercent ? `, DF ${z.dfTargetPercent} %` : ''}` : 'none in the library'],
+      ...(z.requiredLux != null ? [['Required / modified', `${u(z.requiredLux)} / ${z.modifiedLux != null ? u(z.modifiedLux) : 'not given'}`] as [string, string]] : []),
+      ...(z.design ? [['Value judged', z.design.explanation] as [string, string]] : []),
+      ...(z.limitLux != null ? [['Compared with', `${u(z.limitLux)} (${c.installation.state === 'new' ? `new installation: Em / MF ${c.installation.maintenanceFactor}` : 'in service: Em'})`] as [string, string]] : []),
+      ...(z.info && (z.info.ra !== null || z.info.rugl !== null) ? [['Ra / RUGL', `${z.info.ra ?? '-'} / ${z.info.rugl ?? '-'} (for information: ${z.info.note})`] as [string, string]] : []),
+      ...(z.modelling ? [['Modelling Ez / Eh', `${z.modelling.ratio.toFixed(2)} (${z.modelling.withinRecommendation ? 'within' : 'outside'} 0.30 to 0.60, ${z.modelling.source}; informative)`] as [string, string]] : []),
       ['Source', z.targetSource ? `${z.targetSource} (${CONFIDENCE_LABELS[z.targetConfidence!]})` : 'n/a'],
       ['Eavg', uWith(z.eavg, z.uEavg) + boundNote(z.bounds.eavg)],
       ['Emin / Emax', `${u(z.emin)}${boundNote(z.bounds.emin)} / ${u(z.emax)}`],
@@ -158,6 +164,27 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
     doc.moveDown(0.4).font('bold').fontSize(9.5).fillColor(INK).text('Why');
     doc.font('body').fontSize(9).fillColor(INK);
     for (const r of z.reasons) textWithSymbols(doc, 'body', `- ${r}`, null, { width: CONTENT_W });
+    if (z.checks?.length) {
+      doc.moveDown(0.4).font('bold').fontSize(9.5).fillColor(INK).text('Further checks (each judged on its own)');
+      doc.moveDown(0.2);
+      table(doc, [
+        { title: 'Check', width: 120 },
+        { title: 'Em (compared with)', width: 100 },
+        { title: 'Eavg ± U', width: 90 },
+        { title: 'U0 (min)', width: 60 },
+        { title: 'Points', width: 40 },
+        { title: 'Verdict', width: CONTENT_W - 410 },
+      ], z.checks.map((k) => [
+        CHECK_LABELS[k.kind],
+        k.targetLux === null ? 'not given' : `${u(k.targetLux)}${k.limitLux !== null && k.limitLux !== k.targetLux ? ` (${u(k.limitLux)})` : ''}`,
+        uWith(k.eavg, k.uEavg) + boundMark(k.bounds.eavg),
+        `${k.u0 === null ? 'n/a' : k.u0.toFixed(2)}${k.u0Min !== null ? ` (${k.u0Min})` : ''}`,
+        String(k.points),
+        { text: VERDICT_LABELS[k.verdict], colour: VERDICT_COLOURS[k.verdict] },
+      ]));
+      doc.font('body').fontSize(8.5).fillColor(MUTED);
+      for (const k of z.checks) textWithSymbols(doc, 'body', `${CHECK_LABELS[k.kind]}: ${k.reasons.join(' ')} Source: ${k.source} (${CONFIDENCE_LABELS[k.confidence]}).`, null, { width: CONTENT_W });
+    }
     doc.moveDown(0.3).fontSize(8.5).fillColor(MUTED);
     textWithSymbols(doc, 'body', `Decision rule: ${c.ruleText}`, null, { width: CONTENT_W });
   }

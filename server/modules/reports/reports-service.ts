@@ -33,13 +33,22 @@ export function reportPdfFor(deps: Deps, user: SessionUser, surveyId: number, un
 export function zonesCsv(db: Db, user: SessionUser, surveyId: number): FileAnswer {
   const survey = getSurveyRow(db, user, surveyId);
   const c = complianceOf(db, survey);
-  const header = ['zone', 'plan', 'kind', 'use_type', 'target', 'target_source', 'target_confidence', 'em_lx', 'u0_min', 'points', 'required_points', 'wall_band_points',
-    'eavg_lx', 'u_eavg_lx_k2', 'emin_lx', 'emax_lx', 'u0', 'df_avg_percent', 'verdict', 'delta_eavg_lx', 'previous_verdict', 'decision_rule', 'reasons'];
-  const rows = c.zones.map((z) => [
-    z.name, z.planName, z.kind, z.useType, z.targetName, z.targetSource, z.targetConfidence, z.targetLux, z.targetU0, z.points, z.requiredPoints, z.wallBandPoints,
-    round(z.eavg), round(z.uEavg), round(z.emin), round(z.emax), z.u0 === null ? null : Number(z.u0.toFixed(3)), z.dfAvg === undefined ? null : Number(z.dfAvg.toFixed(2)),
-    VERDICT_LABELS[z.verdict], z.change ? round(z.change.deltaEavg) : null, z.change ? VERDICT_LABELS[z.change.previousVerdict] : null, c.rule, z.reasons.join(' '),
-  ]);
+  // One row per zone (check "task_plane"), then one per further check of it (walls, ceiling, cylindrical, the areas around a task).
+  const header = ['zone', 'check', 'plan', 'kind', 'use_type', 'target', 'target_source', 'target_confidence', 'required_em_lx', 'modified_em_lx', 'em_lx', 'design_basis',
+    'installation', 'maintenance_factor', 'limit_lx', 'u0_min', 'points', 'required_points', 'wall_band_points',
+    'eavg_lx', 'u_eavg_lx_k2', 'emin_lx', 'emax_lx', 'u0', 'modelling_ez_over_eh', 'df_avg_percent', 'verdict', 'delta_eavg_lx', 'previous_verdict', 'decision_rule', 'reasons'];
+  const mf = c.installation.maintenanceFactor;
+  const rows = c.zones.flatMap((z) => [[
+    z.name, 'task_plane', z.planName, z.kind, z.useType, z.targetName, z.targetSource, z.targetConfidence, z.requiredLux ?? null, z.modifiedLux ?? null, z.targetLux, z.design?.basis ?? null,
+    c.installation.state, mf, z.limitLux ?? z.targetLux, z.targetU0, z.points, z.requiredPoints, z.wallBandPoints,
+    z.eavg, z.uEavg, z.emin, z.emax, z.u0, z.modelling?.ratio ?? null, z.dfAvg ?? null,
+    VERDICT_LABELS[z.verdict], z.change?.deltaEavg ?? null, z.change ? VERDICT_LABELS[z.change.previousVerdict] : null, c.rule, z.reasons.join(' '),
+  ], ...(z.checks ?? []).map((k) => [
+    z.name, k.kind, z.planName, z.kind, z.useType, z.targetName, k.source, k.confidence, null, null, k.targetLux, null,
+    c.installation.state, mf, k.limitLux, k.u0Min, k.points, null, null,
+    k.eavg, k.uEavg, k.emin, null, k.u0, null, null,
+    VERDICT_LABELS[k.verdict], null, null, c.rule, k.reasons.join(' '),
+  ])]);
   return { filename: reportFilename(survey, 'csv', 'zones'), contentType: 'text/csv; charset=utf-8', content: Buffer.from(toSafeCsv(header, rows), 'utf8') };
 }
 

@@ -6,7 +6,10 @@ import { coefficientSets } from '../../db/schema/calibration';
 import { storedFiles, users } from '../../db/schema/organizations';
 import type { SessionUser } from '@shared/schemas/auth';
 import { can } from '@shared/policy';
-import { createSurveyBodySchema, UPLOADABLE_STATUSES, type CreateSurveyBody, type Survey, type SurveyDetail, type SurveyStatus } from '@shared/schemas/surveys';
+import {
+  createSurveyBodySchema, UPLOADABLE_STATUSES, type CreateSurveyBody, type InstallationInfo, type InstallationInput, type Survey, type SurveyDetail, type SurveyStatus,
+} from '@shared/schemas/surveys';
+import { maintenanceFactor } from '@shared/core/maintained';
 import { conflict, notFound } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
 import { getSiteRow, siteConditions } from '../sites/sites-service';
@@ -51,8 +54,41 @@ function readingCount(db: Deps['db'], survey: Pick<SurveyRow, 'id' | 'activeDeco
   return db.select({ n: sql<number>`count(*)` }).from(readings).where(and(...currentReadingConditions(survey))).get()!.n;
 }
 
+/** The survey's installation as the core's Installation and as answered (a new one always carries its MF). */
+export function installationOf(row: Pick<SurveyRow, 'installation' | 'maintenanceFactor' | 'mfParts'>): InstallationInfo {
+  if (row.installation === 'new' && row.maintenanceFactor !== null) return { state: 'new', maintenanceFactor: row.maintenanceFactor, parts: row.mfParts ?? null };
+  return { state: 'in_service', maintenanceFactor: null, parts: null };
+}
+
+/** Columns for a new or changed installation: MF as given, else the product of its parts (CIE 97:2005). */
+export function installationColumns(input: InstallationInput | undefined) {
+  if (!input || input.state === 'in_service') return { installation: 'in_service' as const, maintenanceFactor: null, mfParts: null };
+  const mf = input.maintenanceFactor ?? maintenanceFactor(input.parts!);
+  return { installation: 'new' as const, maintenanceFactor: mf, mfParts: input.parts ?? null };
+}
+
+/**
+ * Says whether the installation is new (judged against Em / MF) or in service. Not once the
+ * survey is signed off: its verdicts are frozen (409).
+ */
+export function setInstallation(deps: Deps, actor: SessionUser, surveyId: number, input: InstallationInput): Survey {
+  const row = getSurveyRow(deps.db, actor, surveyId);
+  if (row.status === 'signed_off') throw conflict(`Survey "${row.name}" is signed off: its verdicts are frozen, so its installation cannot change`);
+  const cols = installationColumns(input);
+  const updated = deps.db.transaction((tx) => {
+    const after = tx.update(surveys).set(cols).where(eq(surveys.id, row.id)).returning().get();
+    recordAudit(tx, {
+      organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: row.id, surveyId: row.id, action: 'installation_set',
+      before: installationOf(row), after: installationOf(after), at: deps.clock.now(),
+    });
+    return after;
+  });
+  return present(updated, row.site, readingCount(deps.db, updated));
+}
+
 function present(row: SurveyRow, site: SiteRow, count: number): Survey {
   return {
+    installation: installationOf(row),
     id: row.id, siteId: row.siteId, siteName: site.name, siteTimeZone: site.timeZone, name: row.name, startedOn: row.startedOn,
     conditions: row.conditions ?? null, status: row.status, activeDecodeId: row.activeDecodeId, readingCount: count,
     createdAt: new Date(row.createdAt).toISOString(),
@@ -101,7 +137,7 @@ export function createSurvey(deps: Deps, actor: SessionUser, input: CreateSurvey
   const row = deps.db.transaction((tx) => {
     const created = tx.insert(surveys).values({
       organizationId: actor.organizationId, siteId: site.id, name: body.name, startedOn: body.startedOn ?? null,
-      conditions: body.conditions ?? null, status, createdBy: actor.id, createdAt: now,
+      conditions: body.conditions ?? null, status, createdBy: actor.id, createdAt: now, ...installationColumns(body.installation),
     }).returning().get();
     recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: created.id, surveyId: created.id, action: 'created', after: body, at: now });
     return created;

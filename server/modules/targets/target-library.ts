@@ -11,6 +11,8 @@ export type ShippedTarget = {
   dfTargetPercent: number | null;
   source: string;
   confidence: TargetConfidence;
+  /** EN 12464-1:2021 fields (lux), where a source gave them. */
+  en2021?: { emModifiedLux: number; ezLux: number | null; emWallLux: number | null; emCeilingLux: number | null; ra: number | null; rugl: number | null };
 };
 
 /**
@@ -19,7 +21,17 @@ export type ShippedTarget = {
  * published text of 29 CFR 1926.56 Table D-3 (osha.gov e-CFR page). Local codes take precedence.
  */
 export const SHIPPED_TARGETS: ShippedTarget[] = [
-  { useType: 'office_writing', name: 'Offices: writing, typing, reading, data processing', em: 500, sourceUnit: 'lx', u0Min: 0.6, dfTargetPercent: null, source: 'EN 12464-1:2011/2021, offices table (ISO/CIE 8995-1)', confidence: 'secondary' },
+  // 2021 shape (secondary sources, issue #15 and DOMAIN.md section 10): 500 lx required, 1000 lx modified, U0 0.60, Ra 80, RUGL 19, Ez 150, walls 150, ceiling 100 lx.
+  {
+    useType: 'office_writing', name: 'Offices: writing, typing, reading, data processing', em: 500, sourceUnit: 'lx', u0Min: 0.6, dfTargetPercent: null,
+    source: 'EN 12464-1:2021, offices table (ISO/CIE 8995-1)', confidence: 'secondary',
+    en2021: { emModifiedLux: 1000, ezLux: 150, emWallLux: 150, emCeilingLux: 100, ra: 80, rugl: 19 },
+  },
+  {
+    useType: 'office_filing', name: 'Offices: filing, copying', em: 300, sourceUnit: 'lx', u0Min: 0.4, dfTargetPercent: null,
+    source: 'EN 12464-1:2021, offices table', confidence: 'secondary',
+    en2021: { emModifiedLux: 500, ezLux: null, emWallLux: null, emCeilingLux: null, ra: null, rugl: null },
+  },
   { useType: 'technical_drawing', name: 'Offices: technical drawing', em: 750, sourceUnit: 'lx', u0Min: 0.7, dfTargetPercent: null, source: 'EN 12464-1:2011/2021, offices table', confidence: 'secondary' },
   { useType: 'conference', name: 'Conference and meeting rooms', em: 500, sourceUnit: 'lx', u0Min: 0.6, dfTargetPercent: null, source: 'EN 12464-1:2011/2021, offices table', confidence: 'memory' },
   { useType: 'corridor', name: 'Corridors and circulation areas', em: 100, sourceUnit: 'lx', u0Min: 0.4, dfTargetPercent: null, source: 'EN 12464-1:2011/2021, traffic zones inside buildings', confidence: 'secondary' },

@@ -20,6 +20,6 @@ export function registerTargetRoutes(api: Api, deps: Deps) {
   api.route({ method: 'get', path: '/zones/:zoneId/target', access: 'targets.read', tag: 'targets', summary: 'The library entry a zone is judged against', params: zoneTargetParamsSchema, response: zoneTargetResponseSchema },
     ({ user, params }) => zoneTarget(deps.db, user.organizationId, params.zoneId));
 
-  api.route({ method: 'put', path: '/zones/:zoneId/target', access: 'plans.write', tag: 'targets', summary: 'Choose the library entry for a zone (null: by its use type)', params: zoneTargetParamsSchema, body: setZoneTargetBodySchema, response: zoneTargetResponseSchema },
-    ({ user, params, body }) => setZoneTarget(deps, user, params.zoneId, body.targetId));
+  api.route({ method: 'put', path: '/zones/:zoneId/target', access: 'plans.write', tag: 'targets', summary: 'Choose the library entry for a zone (null: by its use type), the value its design chose and the context modifiers behind it', params: zoneTargetParamsSchema, body: setZoneTargetBodySchema, response: zoneTargetResponseSchema },
+    ({ user, params, body }) => setZoneTarget(deps, user, params.zoneId, body));
 }

@@ -6,10 +6,12 @@ import { plans, zones } from '../../db/schema/plans';
 import { sites } from '../../db/schema/sites';
 import { luxToFootcandles } from '@shared/core/units';
 import type { SessionUser } from '@shared/schemas/auth';
-import type { CreateTargetBody, TargetEntry, UpdateTargetBody, ZoneTargetResponse } from '@shared/schemas/targets';
-import { badRequest, conflict, forbidden, notFound } from '../../http/errors';
+import type { CreateTargetBody, SetZoneTargetBody, TargetEntry, UpdateTargetBody, ZoneTargetResponse } from '@shared/schemas/targets';
+import { designValue, designValueProblems } from '@shared/core/illuminance-scale';
+import { badRequest, conflict, forbidden, notFound, unprocessable } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
 import { emToLux, SHIPPED_TARGETS } from './target-library';
+import { SURFACE_U0_MIN } from '@shared/core/planes';
 
 type TargetRow = typeof targets.$inferSelect;
 
@@ -23,6 +25,13 @@ export function presentTarget(row: TargetRow): TargetEntry {
     // Round away float noise of the fc -> lx -> fc trip (the stored lux came from the fc value).
     emSourceValue: row.sourceUnit === 'fc' ? Number(luxToFootcandles(row.emLux).toPrecision(10)) : row.emLux,
     u0Min: row.u0Min,
+    emModifiedLux: row.emModifiedLux,
+    ezLux: row.ezLux,
+    emWallLux: row.emWallLux,
+    emCeilingLux: row.emCeilingLux,
+    surfaceU0Min: SURFACE_U0_MIN,
+    ra: row.ra,
+    rugl: row.rugl,
     ...(row.dfTargetPercent !== null ? { dfTargetPercent: row.dfTargetPercent } : {}),
     source: row.source,
     confidence: row.confidence,
@@ -56,6 +65,7 @@ export function createTarget(deps: Deps, actor: SessionUser, body: CreateTargetB
     const created = tx.insert(targets).values({
       organizationId: actor.organizationId, useType: body.useType, name: body.name, emLux: emToLux(body.emValue, body.sourceUnit),
       sourceUnit: body.sourceUnit, u0Min: body.u0Min, dfTargetPercent: body.dfTargetPercent, source: body.source, confidence: body.confidence, createdAt: now,
+      emModifiedLux: body.emModifiedLux, ezLux: body.ezLux, emWallLux: body.emWallLux, emCeilingLux: body.emCeilingLux, ra: body.ra, rugl: body.rugl,
     }).returning().get();
     recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'target', entityId: created.id, action: 'created', after: created, at: now });
     return created;
@@ -79,9 +89,20 @@ export function updateTarget(deps: Deps, actor: SessionUser, id: number, body: U
     ...(body.emValue !== undefined || body.sourceUnit !== undefined ? { emLux: emToLux(emValue, unit), sourceUnit: unit } : {}),
     ...(body.u0Min !== undefined ? { u0Min: body.u0Min } : {}),
     ...(body.dfTargetPercent !== undefined ? { dfTargetPercent: body.dfTargetPercent } : {}),
+    ...(body.emModifiedLux !== undefined ? { emModifiedLux: body.emModifiedLux } : {}),
+    ...(body.ezLux !== undefined ? { ezLux: body.ezLux } : {}),
+    ...(body.emWallLux !== undefined ? { emWallLux: body.emWallLux } : {}),
+    ...(body.emCeilingLux !== undefined ? { emCeilingLux: body.emCeilingLux } : {}),
+    ...(body.ra !== undefined ? { ra: body.ra } : {}),
+    ...(body.rugl !== undefined ? { rugl: body.rugl } : {}),
     ...(body.source !== undefined ? { source: body.source } : {}),
     ...(body.confidence !== undefined ? { confidence: body.confidence } : {}),
   };
+  const newEm = set.emLux ?? before.emLux;
+  const newModified = set.emModifiedLux !== undefined ? set.emModifiedLux : before.emModifiedLux;
+  if (newModified !== null && newModified < newEm) {
+    throw badRequest(`The modified value ${newModified} lx cannot be below the required value Em ${Number(newEm.toPrecision(6))} lx`, { field: 'emModifiedLux' });
+  }
   const row = deps.db.transaction((tx) => {
     const after = tx.update(targets).set(set).where(eq(targets.id, id)).returning().get();
     recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'target', entityId: id, action: 'updated', before, after, at: deps.clock.now() });
@@ -110,23 +131,46 @@ export function resolveZoneTarget(db: Db, organizationId: number, zone: { useTyp
   return candidates.find((t) => t.organizationId === organizationId) ?? candidates.find((t) => t.organizationId === null);
 }
 
+/** The value a zone is judged against (EN 12464-1:2021 required / modified, shared/core designValue). */
+export function zoneDesignValue(target: TargetRow, zone: { chosenEmLux: number | null; contextModifiers: string[] }) {
+  return designValue({ requiredLux: target.emLux, modifiedLux: target.emModifiedLux, chosenLux: zone.chosenEmLux, modifiers: zone.contextModifiers });
+}
+
 export function zoneTarget(db: Db, organizationId: number, zoneId: number): ZoneTargetResponse {
   const found = getOrganizationZone(db, organizationId, zoneId);
   if (!found) throw notFound('Zone');
-  const target = resolveZoneTarget(db, organizationId, found.zone);
-  return { zoneId, useType: found.zone.useType, targetId: found.zone.targetId, target: target ? presentTarget(target) : null };
+  const z = found.zone;
+  const target = resolveZoneTarget(db, organizationId, z);
+  return {
+    zoneId, useType: z.useType, targetId: z.targetId, target: target ? presentTarget(target) : null,
+    chosenEmLux: z.chosenEmLux, contextModifiers: z.contextModifiers, contextNote: z.contextNote,
+    design: target ? zoneDesignValue(target, z) : null,
+  };
 }
 
-/** Chooses which library entry a zone is judged against (signed-off surveys keep what they froze). */
-export function setZoneTarget(deps: Deps, actor: SessionUser, zoneId: number, targetId: number | null): ZoneTargetResponse {
+/**
+ * Chooses which library entry a zone is judged against and the value its design chose with the
+ * context modifiers behind it (signed-off surveys keep what they froze). A chosen value the entry
+ * does not allow answers 422 naming why.
+ */
+export function setZoneTarget(deps: Deps, actor: SessionUser, zoneId: number, body: SetZoneTargetBody): ZoneTargetResponse {
   const found = getOrganizationZone(deps.db, actor.organizationId, zoneId);
   if (!found) throw notFound('Zone');
+  const { targetId, chosenEmLux, contextModifiers, contextNote } = body;
   if (targetId !== null && !getVisibleTarget(deps.db, actor.organizationId, targetId)) {
     throw badRequest(`Target ${targetId} is not in your organisation's library`, { targetId });
   }
+  if (chosenEmLux !== null) {
+    const target = resolveZoneTarget(deps.db, actor.organizationId, { useType: found.zone.useType, targetId });
+    if (!target) throw unprocessable(`Zone ${zoneId} has no library entry, so it has no required value to step from`, { field: 'chosenEmLux' });
+    const problems = designValueProblems({ requiredLux: target.emLux, modifiedLux: target.emModifiedLux, chosenLux: chosenEmLux, modifiers: contextModifiers });
+    if (problems.length > 0) throw unprocessable(`The chosen value ${chosenEmLux} lx cannot be used with "${target.name}": ${problems.join(' ')}`, { field: 'chosenEmLux', problems });
+  }
+  const before = { targetId: found.zone.targetId, chosenEmLux: found.zone.chosenEmLux, contextModifiers: found.zone.contextModifiers, contextNote: found.zone.contextNote };
+  const after = { targetId, chosenEmLux, contextModifiers, contextNote };
   deps.db.transaction((tx) => {
-    tx.update(zones).set({ targetId }).where(eq(zones.id, zoneId)).run();
-    recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'zone', entityId: zoneId, action: 'target_chosen', before: { targetId: found.zone.targetId }, after: { targetId }, at: deps.clock.now() });
+    tx.update(zones).set(after).where(eq(zones.id, zoneId)).run();
+    recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'zone', entityId: zoneId, action: 'target_chosen', before, after, at: deps.clock.now() });
   });
   return zoneTarget(deps.db, actor.organizationId, zoneId);
 }
@@ -138,7 +182,7 @@ export function seedShippedTargets(db: Db, now: number): number {
   if (missing.length) {
     db.insert(targets).values(missing.map((t) => ({
       organizationId: null, useType: t.useType, name: t.name, emLux: emToLux(t.em, t.sourceUnit), sourceUnit: t.sourceUnit,
-      u0Min: t.u0Min, dfTargetPercent: t.dfTargetPercent, source: t.source, confidence: t.confidence, createdAt: now,
+      u0Min: t.u0Min, dfTargetPercent: t.dfTargetPercent, source: t.source, confidence: t.confidence, createdAt: now, ...(t.en2021 ?? {}),
     }))).run();
   }
   return missing.length;

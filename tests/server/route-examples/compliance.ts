@@ -31,6 +31,7 @@ export const complianceExamples: RouteExamples = {
   'GET /organization': () => ({ path: '/api/organization' }),
   'PATCH /organization': () => ({ path: '/api/organization', body: { decisionRule: 'guarded' } }),
   'GET /compliance/sites': () => ({ path: '/api/compliance/sites' }),
+  'GET /compliance/maintenance': () => ({ path: '/api/compliance/maintenance' }),
   'GET /surveys/:id/compliance': (t) => ({ path: `/api/surveys/${fixture(t).surveyId}/compliance` }),
   'GET /surveys/:id/zones/:zoneId/compliance': (t) => {
     const f = fixture(t);

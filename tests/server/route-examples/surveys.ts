@@ -24,6 +24,7 @@ export const surveyExamples: RouteExamples = {
   'GET /surveys': () => ({ path: '/api/surveys' }),
   'POST /surveys': async (t) => ({ path: '/api/surveys', body: { siteId: await demoSiteId(t), name: `Example survey ${unique()}` }, okStatus: 201 }),
   'GET /surveys/:id': async (t) => ({ path: `/api/surveys/${await draftSurveyId(t)}` }),
+  'PUT /surveys/:id/installation': async (t) => ({ path: `/api/surveys/${await draftSurveyId(t)}/installation`, body: { state: 'new', maintenanceFactor: 0.8 } }),
 };
 
 const LOG_HEADER = 'timestamp,probe,point,gain,counts';

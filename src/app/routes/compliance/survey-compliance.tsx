@@ -7,6 +7,8 @@ import { VERDICT_LABELS, VERDICTS, type ComplianceResponse } from '@shared/schem
 import type { Zone } from '@shared/schemas/zones';
 import { useCurrentUser } from '@/app/current-user';
 import { useSurveyCompliance } from '@/features/compliance/api/get-survey-compliance';
+import { useInvalidateCompliance } from '@/features/compliance/api/use-invalidate-compliance';
+import { InstallationForm } from '@/features/surveys/components/installation-form';
 import { ZoneTable } from '@/features/compliance/components/zone-table';
 import { RuleNote } from '@/features/compliance/components/rule-note';
 import { SafetyCaution } from '@/features/compliance/components/safety-caution';
@@ -30,6 +32,7 @@ export function SurveyComplianceRoute() {
   const surveyId = Number(useParams().surveyId);
   const user = useCurrentUser();
   const compliance = useSurveyCompliance(surveyId);
+  const invalidate = useInvalidateCompliance();
   return (
     <Page>
       <QueryState query={compliance} loadingLabel="Judging the zones…">
@@ -47,6 +50,12 @@ export function SurveyComplianceRoute() {
                 {c.warnings.map((w, i) => <li key={i} className="flex gap-2"><TriangleAlert className="mt-0.5 h-4 w-4 shrink-0 text-lamp-600" aria-hidden />{w}</li>)}
               </ul>
             )}
+            <Card>
+              <CardHeader title="Installation" description={c.installationText} />
+              {!c.frozen && can(user.role, 'surveys.write') && (
+                <CardBody><InstallationForm surveyId={surveyId} current={c.installation} onChanged={() => invalidate(surveyId)} /></CardBody>
+              )}
+            </Card>
             <Card>
               <CardHeader title="Review" description={c.previous ? `Compared with “${c.previous.name}”, the previous signed-off survey of this site.` : 'No earlier signed-off survey of this site to compare with.'} />
               <CardBody><WorkflowActions surveyId={surveyId} status={c.status} role={user.role} reviewComment={c.reviewComment} /></CardBody>

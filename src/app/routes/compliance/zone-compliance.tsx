@@ -3,7 +3,7 @@ import { can } from '@shared/policy';
 import { useCurrentUser } from '@/app/current-user';
 import { useZoneCompliance } from '@/features/compliance/api/get-zone-compliance';
 import { useInvalidateCompliance } from '@/features/compliance/api/use-invalidate-compliance';
-import { ZonePointsTable, ZoneSummaryCards } from '@/features/compliance/components/zone-detail';
+import { ZoneChecksCard, ZonePointsTable, ZoneSummaryCards } from '@/features/compliance/components/zone-detail';
 import { RuleNote } from '@/features/compliance/components/rule-note';
 import { SafetyCaution } from '@/features/compliance/components/safety-caution';
 import { ZoneTargetPicker } from '@/features/targets/components/zone-target-picker';
@@ -29,9 +29,10 @@ export function ZoneComplianceRoute() {
               description={`${d.zone.planName} · ${d.zone.kind.replace('_', ' ')} · use type ${d.zone.useType}`} />
             <RuleNote rule={d.rule} ruleText={d.ruleText} frozen={d.frozen} />
             <ZoneSummaryCards detail={d} />
+            <ZoneChecksCard detail={d} />
             {!d.frozen && can(user.role, 'plans.write') && (
               <Card>
-                <CardHeader title="Which library entry applies" description="By default a zone is judged against the entry for its use type; choose another, e.g. a client's stricter specification." />
+                <CardHeader title="Which library entry and value apply" description="By default a zone is judged against the required value of the entry for its use type; choose another entry (e.g. a client's stricter specification), or the value the design chose with the context modifiers behind it." />
                 <CardBody><ZoneTargetPicker zoneId={zoneId} onChanged={() => invalidate(surveyId)} /></CardBody>
               </Card>
             )}

@@ -1,10 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import type { SetZoneTargetBody, ZoneTargetResponse } from '@shared/schemas/targets';
+import type { SetZoneTargetInput, ZoneTargetResponse } from '@shared/schemas/targets';
 import { zoneTargetQueryOptions } from './get-zone-target';
 import { siteKeys, surveyKeys } from '@/lib/query-keys';
 
-export const setZoneTarget = ({ zoneId, ...body }: SetZoneTargetBody & { zoneId: number }) => api.put<ZoneTargetResponse>(`/zones/${zoneId}/target`, body);
+export const setZoneTarget = ({ zoneId, ...body }: SetZoneTargetInput & { zoneId: number }) => api.put<ZoneTargetResponse>(`/zones/${zoneId}/target`, body);
 
 /** `onChanged` lets the page refresh what depends on the choice (the survey's verdicts). */
 export function useSetZoneTarget(onChanged?: () => unknown) {
