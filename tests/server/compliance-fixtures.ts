@@ -7,7 +7,7 @@ import { storedFiles, users } from '@server/db/schema/organizations';
 import type { TestApp } from './helpers';
 
 export type FixtureZone = { key: string; name: string; kind?: 'room' | 'task_area' | 'outdoor'; useType: string; polygon: [number, number][]; wallBandM?: number };
-export type FixtureReading = { zone?: string; x: number | null; y: number | null; lux: number | null; point?: string; /** Default: the fixture plan for a positioned reading. */ planId?: number | null; role?: 'task' | 'reference'; flag?: typeof readings.$inferInsert['flag']; luxBound?: 'exact' | 'lower' | 'upper'; timeMs?: number };
+export type FixtureReading = { zone?: string; x: number | null; y: number | null; lux: number | null; point?: string; /** Default: the fixture plan for a positioned reading. */ planId?: number | null; role?: 'task' | 'reference'; flag?: typeof readings.$inferInsert['flag']; luxBound?: 'exact' | 'lower' | 'upper'; timeMs?: number; plane?: 'horizontal' | 'vertical' | 'wall' | 'ceiling'; azimuthDeg?: number };
 
 export const userId = (t: TestApp, email: string) => t.db.select().from(users).where(eq(users.email, email)).get()!;
 
@@ -63,7 +63,7 @@ export function buildSurvey(t: TestApp, opts: {
     t.db.insert(readings).values({
       surveyId: survey.id, decodeId: decode.id, importId: imp.id, point: r.point ?? `P${i + 1}`, xM: r.x, yM: r.y, planId: r.planId !== undefined ? r.planId : r.x === null ? null : planId, role: r.role ?? 'task', timeMs: r.timeMs ?? now + i * 5000, probeId,
       lux: r.lux, uLux: r.lux === null ? null : r.lux * 0.04, luxBound: r.luxBound ?? 'exact', flag: r.flag ?? 'ok', gainCode: 0, sampleCount: 1, coefficientSetId,
-      budget: r.lux === null ? [] : [{ name: 'calibration', uRel: 0.02 }],
+      budget: r.lux === null ? [] : [{ name: 'calibration', uRel: 0.02 }], plane: r.plane ?? 'horizontal', azimuthDeg: r.azimuthDeg ?? null,
     }).run();
   });
   t.db.update(surveys).set({ activeDecodeId: decode.id }).where(eq(surveys.id, survey.id)).run();

@@ -70,7 +70,8 @@ describe('log import: accepted files', () => {
     expect(page.items).toHaveLength(5);
     expect(page.total).toBeGreaterThan(100);
     const r = page.items.find((x: { flag: string }) => x.flag === 'ok');
-    expect(Object.keys(r).sort()).toEqual(['budget', 'chosenSample', 'flag', 'gainCode', 'id', 'lux', 'luxBound', 'planId', 'point', 'probe', 'role', 'samples', 'timestamp', 'uLux', 'xM', 'yM'].sort());
+    expect(Object.keys(r).sort()).toEqual(['azimuthDeg', 'budget', 'chosenSample', 'flag', 'gainCode', 'id', 'lux', 'luxBound', 'plane', 'planId', 'point', 'probe', 'role', 'samples', 'timestamp', 'uLux', 'xM', 'yM'].sort());
+    expect(r).toMatchObject({ plane: 'horizontal', azimuthDeg: null });
     const uc = Math.sqrt(r.budget.reduce((s: number, p: { uRel: number }) => s + p.uRel ** 2, 0));
     expect(r.uLux).toBeCloseTo(2 * uc * r.lux, 6); // GUM: U = k u_c, k = 2
     const sorted = (await c.get(`/api/surveys/${surveyId}/readings?sort=lux&order=desc&limit=3&flag=ok`)).body.items;
@@ -155,8 +156,34 @@ describe('log import: accepted files', () => {
     expect(head).toContain('illuminance_fc');
     // OWASP CSV injection: a leading apostrophe makes the cell text.
     expect(line).toContain(`"'=HYPERLINK(""http://x.invalid"")"`);
-    const fc = Number(line.split(',').at(-8));
+    const fc = Number(line.split(',').at(-10));
     expect(fc).toBeCloseTo(r.lux / 10.7639104167, 1); // 1 fc = 1/0.3048^2 lx (exact)
+  });
+});
+
+describe('log import: readings on other planes (plane, azimuth_deg)', () => {
+  it('four vertical readings at one point within seconds, when imported, stay four readings with their azimuths; wall and ceiling rows keep their plane', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const at = (s: number) => new Date(Date.parse('2026-11-02T08:00:00Z') + s * 1000).toISOString();
+    const lines = [0, 90, 180, 270].map((az, i) => `${at(i * 3)},${TEST_SERIALS.tripod},CYL-1,2,16000,1.5,2.5,vertical,${az}`);
+    lines.push(`${at(20)},${TEST_SERIALS.tripod},W-1,2,8000,0.1,2.5,wall,90`, `${at(30)},${TEST_SERIALS.tripod},C-1,2,6000,1.5,2.5,CEILING,`, `${at(40)},${TEST_SERIALS.tripod},H-1,2,16000,1.5,2.5,,`);
+    const { status } = await uploadAndWait(t, c, surveyId, file('timestamp,probe,point,gain,counts,x_m,y_m,plane,azimuth_deg', ...lines));
+    expect(status).toMatchObject({ status: 'done', errors: [], warnings: [] });
+    const items = (await c.get(`/api/surveys/${surveyId}/readings?sort=time&limit=100`)).body.items as { point: string; plane: string; azimuthDeg: number | null }[];
+    expect(items.map((r) => [r.point, r.plane, r.azimuthDeg])).toEqual([
+      ['CYL-1', 'vertical', 0], ['CYL-1', 'vertical', 90], ['CYL-1', 'vertical', 180], ['CYL-1', 'vertical', 270], ['W-1', 'wall', 90], ['C-1', 'ceiling', null], ['H-1', 'horizontal', null],
+    ]);
+    const csv = (await c.get(`/api/surveys/${surveyId}/readings.csv`)).text.trim().split('\r\n');
+    expect(csv[0].endsWith(',plane,azimuth_deg')).toBe(true);
+    expect(csv[2].endsWith(',vertical,90')).toBe(true);
+  });
+
+  it('rejects a vertical reading without azimuth_deg, an unknown plane and an azimuth on a ceiling, naming line and column', async () => {
+    const head = 'timestamp,probe,point,gain,counts,x_m,y_m,plane,azimuth_deg';
+    await expectRejected(file(head, `${row()},vertical,`), { line: 2, column: 'azimuth_deg', message: /vertical reading needs azimuth_deg/ });
+    await expectRejected(file(head, `${row()},floor,`), { line: 2, column: 'plane', message: /plane must be one of horizontal, vertical, wall, ceiling/ });
+    await expectRejected(file(head, `${row()},ceiling,45`), { line: 2, column: 'azimuth_deg', message: /not to a ceiling one/ });
+    await expectRejected(file(head, `${row()},vertical,360`), { line: 2, column: 'azimuth_deg', message: /0 up to \(not including\) 360/ });
   });
 });
 

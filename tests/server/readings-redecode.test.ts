@@ -82,7 +82,7 @@ describe('readings series and export', () => {
     await uploadAndWait(t, c, surveyId, HANDHELD_CSV);
     const res = await c.get(`/api/surveys/${surveyId}/readings.csv`);
     const lines = res.text.trim().split('\r\n');
-    expect(lines[0].split(',')).toEqual(['timestamp_utc', 'point', 'x_m', 'y_m', 'plan', 'role', 'probe', 'illuminance_lx', 'expanded_uncertainty_lx_k2', 'bound', 'flag', 'gain', 'samples', 'chosen_sample', 'note']);
+    expect(lines[0].split(',')).toEqual(['timestamp_utc', 'point', 'x_m', 'y_m', 'plan', 'role', 'probe', 'illuminance_lx', 'expanded_uncertainty_lx_k2', 'bound', 'flag', 'gain', 'samples', 'chosen_sample', 'note', 'plane', 'azimuth_deg']);
     expect(lines).toHaveLength(3);
     expect(lines[1]).toMatch(/^2026-11-19T07:00:00.000Z,R-1,,,,task,T-4107,514,/); // 16000 net counts * 2.05/64 * 1.003 lx (demo-probes.ts)
   });
