@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { READING_PLANES } from '../core/planes';
 import { DECISION_RULES } from './organization';
 import { TARGET_CONFIDENCE } from './targets';
-import { installationInfoSchema } from './surveys';
+import { installationInfoSchema, SURVEY_STATUSES, surveyAbilitiesSchema } from './surveys';
 
 export const VERDICTS = ['meets', 'falls_short', 'inconclusive', 'not_assessed'] as const;
 export type ZoneVerdict = (typeof VERDICTS)[number];
@@ -126,7 +126,9 @@ export const complianceResponseSchema = z.object({
   siteId: z.number().int(),
   siteName: z.string(),
   startedOn: z.string().nullable(),
-  status: z.enum(['draft', 'submitted', 'signed_off', 'returned']),
+  status: z.enum(SURVEY_STATUSES),
+  /** What the caller may do with the survey now (sign off, return, submit…). */
+  abilities: surveyAbilitiesSchema,
   /** The reviewer's comment (on return or sign-off). */
   reviewComment: z.string().nullable(),
   rule: z.enum(DECISION_RULES),
@@ -186,7 +188,7 @@ export const siteOverviewSchema = z.object({
   siteId: z.number().int(),
   name: z.string(),
   address: z.string().nullable(),
-  latestSurvey: z.object({ id: z.number().int(), name: z.string(), status: z.enum(['draft', 'submitted', 'signed_off', 'returned']), startedOn: z.string().nullable() }).nullable(),
+  latestSurvey: z.object({ id: z.number().int(), name: z.string(), status: z.enum(SURVEY_STATUSES), startedOn: z.string().nullable() }).nullable(),
   counts: complianceCountsSchema.nullable(),
   rule: z.enum(DECISION_RULES).nullable(),
 });

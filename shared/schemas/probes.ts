@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { SURVEY_STATUSES } from './surveys';
 
 export const PROBE_KINDS = ['counts', 'current_4_20', 'voltage_0_10'] as const;
 export const PROBE_STATUSES = ['in_service', 'out_of_service', 'retired'] as const;
@@ -159,7 +160,7 @@ export const probeSurveySchema = z.object({
   surveyId: z.number().int(),
   name: z.string(),
   siteName: z.string(),
-  status: z.enum(['draft', 'submitted', 'signed_off', 'returned']),
+  status: z.enum(SURVEY_STATUSES),
   readings: z.number().int(),
   /** Readings decoded with a set other than the approved set now in force at their time. */
   staleReadings: z.number().int(),

@@ -3,8 +3,11 @@ import { z } from 'zod';
 export const SURVEY_STATUSES = ['draft', 'submitted', 'signed_off', 'returned'] as const;
 export type SurveyStatus = (typeof SURVEY_STATUSES)[number];
 
-/** Logs may be uploaded only while a survey is being worked on. */
-export const UPLOADABLE_STATUSES: readonly SurveyStatus[] = ['draft', 'returned'];
+/** What a person may do with a survey now; decided by shared/survey-abilities.ts, carried in survey answers. */
+export const SURVEY_ABILITIES = ['edit', 'setInstallation', 'upload', 'submit', 'signOff', 'return', 'redecode'] as const;
+export type SurveyAbility = (typeof SURVEY_ABILITIES)[number];
+export const surveyAbilitiesSchema = z.object(Object.fromEntries(SURVEY_ABILITIES.map((a) => [a, z.boolean()])) as Record<SurveyAbility, z.ZodBoolean>);
+export type SurveyAbilities = Record<SurveyAbility, boolean>;
 
 export const SURVEY_STATUS_LABELS: Record<SurveyStatus, string> = {
   draft: 'Draft',
@@ -102,7 +105,8 @@ export const surveyDetailSchema = surveySchema.extend({
   flagCounts: z.record(z.string(), z.number().int()),
   /** Readings decoded with a coefficient set whose due date had passed. */
   calibrationLapsedCount: z.number().int(),
-  canUpload: z.boolean(),
+  /** What the caller may do with this survey now (shared/survey-abilities.ts). */
+  abilities: surveyAbilitiesSchema,
   imports: z.array(surveyImportSummarySchema),
   decodes: z.array(decodeSummarySchema),
 });

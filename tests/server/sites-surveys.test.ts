@@ -67,7 +67,7 @@ describe('surveys API', () => {
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ siteId: site.id, name: 'Night check', status: 'draft', startedOn: '2026-11-21', conditions: { daylightExcluded: true }, readingCount: 0 });
     const detail = await c.get(`/api/surveys/${res.body.id}`);
-    expect(detail.body).toMatchObject({ canUpload: true, imports: [], decodes: [], calibrationLapsedCount: 0 });
+    expect(detail.body).toMatchObject({ abilities: { edit: true, setInstallation: true, upload: true, submit: true, signOff: false, return: false, redecode: false }, imports: [], decodes: [], calibrationLapsedCount: 0 });
   });
 
   it('rejects a survey, when its site belongs to another organisation, with 404', async () => {

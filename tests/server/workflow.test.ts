@@ -101,11 +101,18 @@ describe('POST /api/surveys/:id/sign-off', () => {
     expect((await fm.get(`/api/surveys/${f.surveyId}/compliance/readings.csv`)).text).toBe(csvBefore);
   });
 
-  it('a survey, when the person who submitted it tries to sign it off, answers 409', async () => {
+  it('a survey, when the person who submitted it tries to sign it off, answers 403 four_eyes (the same code as coefficient-set approval)', async () => {
     const { surveyId } = buildSurvey(t, { ownerEmail: DEMO.admin, zones: OFFICE_AND_CORRIDOR, readings: officeAndCorridorReadings() });
-    const res = await (await t.signIn(DEMO.admin)).post(`/api/surveys/${surveyId}/sign-off`).send({});
-    expect(res.status).toBe(409);
+    const admin = await t.signIn(DEMO.admin);
+    const res = await admin.post(`/api/surveys/${surveyId}/sign-off`).send({});
+    expect(res.status).toBe(403);
+    expect(res.body.error.code).toBe('four_eyes');
     expect(res.body.error.message).toMatch(/another reviewer/);
+    // The answer the page reads says the same: the submitter may return it but not sign it off.
+    const c = (await admin.get(`/api/surveys/${surveyId}/compliance`)).body;
+    expect(c.abilities).toMatchObject({ signOff: false, return: true, submit: false, upload: false });
+    const fm = (await (await t.signIn(DEMO.facility_manager)).get(`/api/surveys/${surveyId}/compliance`)).body;
+    expect(fm.abilities).toMatchObject({ signOff: true, return: true, submit: false, upload: false });
   });
 
   it('a draft, when signed off, answers 409 and stays a draft with nothing frozen', async () => {

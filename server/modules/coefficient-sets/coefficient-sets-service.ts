@@ -8,7 +8,7 @@ import type { SessionUser } from '@shared/schemas/auth';
 import { can } from '@shared/policy';
 import { createCoefficientSelector } from '@shared/core/coefficient-sets';
 import type { CoefficientSetDto, CreateCoefficientSetBody, GainCoefficientsInput } from '@shared/schemas/coefficient-sets';
-import { conflict, HttpError, notFound, unprocessable } from '../../http/errors';
+import { conflict, fourEyes, notFound, unprocessable } from '../../http/errors';
 import { keepUploadedFile, sniffFile, storedPath } from '../../lib/file-store';
 import { recordAudit } from '../audit/audit-service';
 import { findProbe, type ProbeRow } from '../probes/probes-service';
@@ -22,7 +22,7 @@ const drafter = alias(users, 'drafter');
 const approver = alias(users, 'approver');
 
 /** The four-eyes rule answers 403 with its own code, so the screen can say why. */
-export const fourEyes = () => new HttpError(403, 'four_eyes', 'Four-eyes rule: a coefficient set must be approved by someone other than the person who drafted it; ask a colleague in calibration or an administrator');
+
 
 /** The record fields an audit event keeps for a set (before/after). */
 function auditView(s: SetRow) {
@@ -122,7 +122,7 @@ export function createCoefficientSetDraft(deps: Deps, user: SessionUser, probeId
 export function approveCoefficientSet(deps: Deps, user: SessionUser, setId: number): CoefficientSetDto {
   const { set, probe } = findSet(deps, user, setId);
   if (set.status === 'approved') throw conflict(`Version ${set.version} is already approved; approved sets never change (draft a new version to correct it)`);
-  if (set.draftedBy === user.id) throw fourEyes();
+  if (set.draftedBy === user.id) throw fourEyes('Four-eyes rule: a coefficient set must be approved by someone other than the person who drafted it; ask a colleague in calibration or an administrator');
   if (probe.status === 'retired') throw conflict(`Probe ${probe.serial} is retired; its drafts cannot be approved`);
   const now = deps.clock.now();
   deps.db.transaction((tx) => {

@@ -7,6 +7,7 @@ import { GRID_RULE } from '@shared/core/zone-stats';
 import type { SessionUser } from '@shared/schemas/auth';
 import type { ComplianceCounts, ComplianceResponse, MaintenanceResponse, MaintenanceZone, SitesOverviewResponse, ZoneCompliance, ZoneDetailResponse } from '@shared/schemas/compliance';
 import type { TargetEntry } from '@shared/schemas/targets';
+import { surveyAbilities } from '@shared/survey-abilities';
 import { notFound } from '../../http/errors';
 import { getSurveyRow, installationOf, type SurveyRow } from '../surveys/surveys-service';
 import { installationSummary, maintenanceStatus, type Installation } from '@shared/core/maintained';
@@ -125,8 +126,11 @@ export function surveyVerdicts(db: Db, survey: SurveyRow) {
   };
 }
 
-export function complianceOf(db: Db, survey: SurveyRow): ComplianceResponse {
-  const v = surveyVerdicts(db, survey);
+/** A survey's compliance answer without the caller's abilities (reports and e-mails have no caller). */
+export type SurveyCompliance = Omit<ComplianceResponse, 'abilities'>;
+
+/** The compliance answer, from verdicts the caller may already hold (so a survey is judged once). */
+export function complianceOf(db: Db, survey: SurveyRow, v: ReturnType<typeof surveyVerdicts> = surveyVerdicts(db, survey)): SurveyCompliance {
   const prev = previousSignedOff(db, survey);
   const prevZones = prev ? frozenOf(prev)?.zones ?? [] : [];
   const zones = v.zones.map((z) => {
@@ -155,15 +159,17 @@ export function complianceOf(db: Db, survey: SurveyRow): ComplianceResponse {
 }
 
 export function getCompliance(db: Db, user: SessionUser, surveyId: number): ComplianceResponse {
-  return complianceOf(db, getSurveyRow(db, user, surveyId));
+  const survey = getSurveyRow(db, user, surveyId);
+  return { ...complianceOf(db, survey), abilities: surveyAbilities(user, survey) };
 }
 
 /** One zone with its points (wall-band points shown, marked), statistics, target and source. */
 export function getZoneDetail(db: Db, user: SessionUser, surveyId: number, zoneId: number): ZoneDetailResponse {
   const survey = getSurveyRow(db, user, surveyId);
-  const compliance = complianceOf(db, survey);
+  const verdicts = surveyVerdicts(db, survey);
+  const compliance = complianceOf(db, survey, verdicts);
   const zone = compliance.zones.find((z) => z.zoneId === zoneId);
-  const judged = surveyVerdicts(db, survey).zones.find((z) => z.zoneId === zoneId);
+  const judged = verdicts.zones.find((z) => z.zoneId === zoneId);
   if (!zone || !judged) throw notFound('Zone of this survey');
   const wallBand = new Set(judged.wallBandReadingIds);
   const pointReadings = loadReadingsById(db, survey.id, [...judged.readingIds, ...judged.wallBandReadingIds, ...(judged.otherPlaneReadingIds ?? [])]);

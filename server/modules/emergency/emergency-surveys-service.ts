@@ -6,20 +6,19 @@ import { surveys } from '../../db/schema/surveys';
 import { sites } from '../../db/schema/sites';
 import { emergencyResponses, emergencySurveys } from '../../db/schema/emergency';
 import type { SessionUser } from '@shared/schemas/auth';
-import { can } from '@shared/policy';
 import { RULE_TEXT } from '@shared/core/decision';
 import { combineElementVerdicts, EMERGENCY_PASSES, judgeEmergencyElement, type EmergencyPass, type EmergencyPoint, type EmergencyPointRole } from '@shared/core/emergency';
 import { passOfReading, passTimingWarnings } from '@shared/core/emergency-schedule';
 import { areaRoleAt, routeRoleAt } from '@shared/spatial/emergency-points';
-import { UPLOADABLE_STATUSES, type SurveyStatus } from '@shared/schemas/surveys';
 import {
   createEmergencySurveyBodySchema, EMERGENCY_CAUTIONS, updateEmergencySurveyBodySchema,
   type CreateEmergencySurveyBody, type ElementVerdict, type EmergencyConditions, type EmergencySurvey, type ResponseTimesBody,
 } from '@shared/schemas/emergency';
-import { conflict, notFound } from '../../http/errors';
+import { notFound } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
 import { getSiteRow, siteConditions } from '../sites/sites-service';
-import { getSurveyRow } from '../surveys/surveys-service';
+import { assertSurveyAbility, getSurveyRow } from '../surveys/surveys-service';
+import { surveyAbilities } from '@shared/survey-abilities';
 import { decisionRuleOf } from '../organization/organization-service';
 import { loadCurrentReadings } from '../compliance/compliance-repository';
 import { toCoreReading, type JudgeReading } from '../compliance/judge-zones';
@@ -44,10 +43,6 @@ export function getEmergencySurveyRow(db: Db, user: SessionUser, surveyId: numbe
   const em = db.select().from(emergencySurveys).where(eq(emergencySurveys.surveyId, survey.id)).get();
   if (!em) throw notFound('Emergency survey');
   return { survey, em };
-}
-
-function assertEditable(survey: { status: string; name: string }) {
-  if (!UPLOADABLE_STATUSES.includes(survey.status as SurveyStatus)) throw conflict(`Survey "${survey.name}" is ${survey.status.replace('_', ' ')}: its settings can change only while it is a draft or returned for changes`);
 }
 
 type Matched = { element: ElementRow; role: EmergencyPointRole; label: string; reading: JudgeReading; pass: EmergencyPass };
@@ -147,7 +142,7 @@ export function judgeEmergencySurvey(db: Db, user: SessionUser, surveyId: number
     verdict: combineElementVerdicts(elementVerdicts.map((v) => v.verdict)),
     passes, elements: elementVerdicts, readingsBeforeMainsOff: before, readingsUnmatched: unmatched, warnings,
     cautions: [...EMERGENCY_CAUTIONS, ...set.notes],
-    canEdit: can(user.role, 'surveys.write') && UPLOADABLE_STATUSES.includes(survey.status as SurveyStatus),
+    canEdit: surveyAbilities(user, survey).edit,
   };
 }
 
@@ -185,7 +180,7 @@ export function createEmergencySurvey(deps: Deps, user: SessionUser, input: Crea
 export function updateEmergencySurvey(deps: Deps, user: SessionUser, surveyId: number, input: unknown): EmergencySurvey {
   const body = updateEmergencySurveyBodySchema.parse(input);
   const { survey, em } = getEmergencySurveyRow(deps.db, user, surveyId);
-  assertEditable(survey);
+  assertSurveyAbility(user, survey, 'edit');
   if (body.criteriaSetKey) requireCriteriaSet(deps.db, user.organizationId, body.criteriaSetKey);
   const set = { ...(body.criteriaSetKey ? { criteriaSetKey: body.criteriaSetKey } : {}), ...(body.conditions ? emergencyValues(body.conditions) : {}) };
   deps.db.transaction((tx) => {
@@ -202,7 +197,7 @@ export function setResponseTimes(deps: Deps, user: SessionUser, surveyId: number
   const planIds = deps.db.select({ id: plans.id }).from(plans).where(eq(plans.siteId, survey.siteId)).all().map((p) => p.id);
   const element = elementsOfPlans(deps.db, planIds).find((e) => e.id === elementId);
   if (!element) throw notFound('Emergency element');
-  assertEditable(survey);
+  assertSurveyAbility(user, survey, 'edit');
   const now = deps.clock.now();
   deps.db.transaction((tx) => {
     const prev = tx.select().from(emergencyResponses).where(and(eq(emergencyResponses.surveyId, survey.id), eq(emergencyResponses.elementId, elementId))).get();

@@ -9,7 +9,7 @@ import type { SessionUser } from '@shared/schemas/auth';
 import { uploadLogFieldsSchema, type ImportProblem, type ImportStatus, type ImportWarning } from '@shared/schemas/imports';
 import { badRequest, conflict, notFound } from '../../http/errors';
 import { keepUploadedFile, sha256OfFile, sniffFile, storedPath } from '../../lib/file-store';
-import { assertSurveyAcceptsLogs, getSurveyRow } from '../surveys/surveys-service';
+import { assertSurveyAbility, getSurveyRow } from '../surveys/surveys-service';
 import { enqueueImport, importOutcome, type ImportOutcome } from './import-runner';
 
 /** Surveys being re-decoded in this process; they take no upload meanwhile. */
@@ -26,7 +26,7 @@ export type UploadedFile = { path: string; originalname: string; size: number };
 export async function uploadLog(deps: Deps, user: SessionUser, surveyId: number, file: UploadedFile, fields: { planId?: unknown } = {}): Promise<{ importId: number; done: Promise<ImportOutcome> }> {
   try {
     const survey = getSurveyRow(deps.db, user, surveyId);
-    assertSurveyAcceptsLogs(survey);
+    assertSurveyAbility(user, survey, 'upload');
     const parsed = uploadLogFieldsSchema.safeParse(fields);
     if (!parsed.success) throw badRequest(`planId: ${parsed.error.issues[0].message}`, parsed.error.issues);
     const sitePlans = deps.db.select({ id: plans.id, name: plans.name }).from(plans).where(eq(plans.siteId, survey.siteId)).orderBy(plans.id).all();

@@ -8,7 +8,7 @@ import type { RedecodeResponse } from '@shared/schemas/readings';
 import { conflict, unprocessable } from '../../http/errors';
 import { loadDecodingCalibration } from '../probes/probe-calibration';
 import { recordAudit } from '../audit/audit-service';
-import { getSurveyRow } from '../surveys/surveys-service';
+import { assertSurveyAbility, getSurveyRow } from '../surveys/surveys-service';
 import { createLogDecoder, type SampleProblem } from './log-decoder';
 import { surveysBeingRedecoded } from './imports-service';
 import { pagesOfSamples } from './sample-blocks';
@@ -23,7 +23,7 @@ import { createBatchWriter } from './batch-writer.mjs';
 export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: number, reason = 'redecode'): Promise<RedecodeResponse> {
   const survey = getSurveyRow(deps.db, actor, surveyId);
   // A signed-off survey is read-only: its readings, like its verdicts, stay as they were judged.
-  if (survey.status === 'signed_off') throw conflict('This survey is signed off and read-only; its readings are not re-decoded');
+  assertSurveyAbility(actor, survey, 'redecode');
   const busy = deps.db.select({ id: logImports.id }).from(logImports).where(and(eq(logImports.surveyId, survey.id), inArray(logImports.status, ['queued', 'running']))).get();
   if (busy || surveysBeingRedecoded.has(survey.id)) throw conflict('A log of this survey is being imported or re-decoded; try again when it has finished');
   const imports = deps.db.select({ id: logImports.id }).from(logImports).where(and(eq(logImports.surveyId, survey.id), eq(logImports.status, 'done'))).orderBy(asc(logImports.id)).all();

@@ -7,6 +7,7 @@ import { probes } from '../../db/schema/calibration';
 import { readings, surveys } from '../../db/schema/surveys';
 import { sites } from '../../db/schema/sites';
 import { notFound } from '../../http/errors';
+import { surveyAbilities } from '@shared/survey-abilities';
 import { loadDecodingCalibration } from './probe-calibration';
 
 /**
@@ -19,7 +20,7 @@ export function surveysDecodedWithProbe(deps: Deps, user: SessionUser, probeId: 
   if (!probe) throw notFound('Probe');
   const sets = loadDecodingCalibration(deps.db, user.organizationId, { probeId }).get(probe.serial)?.sets ?? [];
   const selector = createCoefficientSelector(sets);
-  const rows = deps.db.select({ surveyId: surveys.id, name: surveys.name, status: surveys.status, siteName: sites.name, timeMs: readings.timeMs, setId: readings.coefficientSetId })
+  const rows = deps.db.select({ surveyId: surveys.id, name: surveys.name, status: surveys.status, submittedBy: surveys.submittedBy, siteName: sites.name, timeMs: readings.timeMs, setId: readings.coefficientSetId })
     .from(readings)
     .innerJoin(surveys, and(eq(surveys.id, readings.surveyId), eq(readings.decodeId, surveys.activeDecodeId)))
     .innerJoin(sites, eq(sites.id, surveys.siteId))
@@ -28,7 +29,7 @@ export function surveysDecodedWithProbe(deps: Deps, user: SessionUser, probeId: 
   const bySurvey = new Map<number, ProbeSurvey>();
   for (const r of rows) {
     let s = bySurvey.get(r.surveyId);
-    if (!s) bySurvey.set(r.surveyId, (s = { surveyId: r.surveyId, name: r.name, siteName: r.siteName, status: r.status, readings: 0, staleReadings: 0, canRedecode: r.status !== 'signed_off' }));
+    if (!s) bySurvey.set(r.surveyId, (s = { surveyId: r.surveyId, name: r.name, siteName: r.siteName, status: r.status, readings: 0, staleReadings: 0, canRedecode: surveyAbilities(user, r).redecode }));
     s.readings++;
     const inForce = selector.select(r.timeMs);
     if ((inForce?.id ?? null) !== (r.setId === null ? null : String(r.setId))) s.staleReadings++;

@@ -2,9 +2,8 @@ import { eq } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { organizations, users } from '../../db/schema/organizations';
 import { sites } from '../../db/schema/sites';
-import type { ComplianceResponse } from '@shared/schemas/compliance';
 import type { SurveyRow } from '../surveys/surveys-service';
-import { complianceOf, surveyVerdicts } from '../compliance/compliance-service';
+import { complianceOf, surveyVerdicts, type SurveyCompliance } from '../compliance/compliance-service';
 import { loadCurrentReadings, loadReadingsById, loadUsedCoefficientSets, type UsedCoefficientSet } from '../compliance/compliance-repository';
 import type { JudgedZone, JudgeReading } from '../compliance/judge-zones';
 
@@ -14,7 +13,7 @@ export type ReportData = {
   survey: SurveyRow;
   submittedByName: string | null;
   signedOffByName: string | null;
-  compliance: ComplianceResponse;
+  compliance: SurveyCompliance;
   /** Judged zones in the summary's order, with their outlines and the readings they used. */
   zones: (JudgedZone & { readings: JudgeReading[]; wallBandReadings: JudgeReading[] })[];
   coefficientSets: UsedCoefficientSet[];
@@ -27,8 +26,8 @@ const nameOf = (db: Db, id: number | null) => (id === null ? null : db.select({ 
 export function loadReportData(db: Db, survey: SurveyRow, now: number): ReportData {
   const site = db.select().from(sites).where(eq(sites.id, survey.siteId)).get()!;
   const org = db.select().from(organizations).where(eq(organizations.id, survey.organizationId)).get()!;
-  const compliance = complianceOf(db, survey);
   const verdicts = surveyVerdicts(db, survey);
+  const compliance = complianceOf(db, survey, verdicts);
   const byId = new Map(verdicts.zones.map((z) => [z.zoneId, z]));
   const zones = compliance.zones.map((c) => {
     const z = byId.get(c.zoneId)!;

@@ -5,12 +5,12 @@ import { sites } from '../../db/schema/sites';
 import { coefficientSets } from '../../db/schema/calibration';
 import { storedFiles, users } from '../../db/schema/organizations';
 import type { SessionUser } from '@shared/schemas/auth';
-import { can } from '@shared/policy';
 import {
-  createSurveyBodySchema, UPLOADABLE_STATUSES, type CreateSurveyBody, type InstallationInfo, type InstallationInput, type Survey, type SurveyDetail, type SurveyStatus,
+  createSurveyBodySchema, type CreateSurveyBody, type InstallationInfo, type InstallationInput, type Survey, type SurveyAbility, type SurveyDetail, type SurveyStatus,
 } from '@shared/schemas/surveys';
+import { surveyAbilities, surveyRefusal, type SurveyAbilitySubject } from '@shared/survey-abilities';
 import { maintenanceFactor } from '@shared/core/maintained';
-import { conflict, notFound } from '../../http/errors';
+import { notFound, refused } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
 import { getSiteRow, siteConditions } from '../sites/sites-service';
 
@@ -33,11 +33,10 @@ export function getSurveyRow(db: Deps['db'], user: SessionUser, surveyId: number
   return { ...row.survey, site: row.site };
 }
 
-/** Logs may be added only to a draft or returned survey (409 otherwise). */
-export function assertSurveyAcceptsLogs(survey: Pick<SurveyRow, 'status' | 'name'>): void {
-  if (!UPLOADABLE_STATUSES.includes(survey.status as SurveyStatus)) {
-    throw conflict(`Survey "${survey.name}" is ${survey.status.replace('_', ' ')}: logs can be added only while it is a draft or returned for changes`);
-  }
+/** Throws the refusal of shared/survey-abilities.ts (403, 403 four_eyes or 409) unless the user may. */
+export function assertSurveyAbility(user: SessionUser, survey: SurveyAbilitySubject, ability: SurveyAbility): void {
+  const refusal = surveyRefusal(user, survey, ability);
+  if (refusal) throw refused(refusal);
 }
 
 /** Readings that are current: those of the active decode from imports that were accepted whole. */
@@ -73,7 +72,7 @@ export function installationColumns(input: InstallationInput | undefined) {
  */
 export function setInstallation(deps: Deps, actor: SessionUser, surveyId: number, input: InstallationInput): Survey {
   const row = getSurveyRow(deps.db, actor, surveyId);
-  if (row.status === 'signed_off') throw conflict(`Survey "${row.name}" is signed off: its verdicts are frozen, so its installation cannot change`);
+  assertSurveyAbility(actor, row, 'setInstallation');
   const cols = installationColumns(input);
   const updated = deps.db.transaction((tx) => {
     const after = tx.update(surveys).set(cols).where(eq(surveys.id, row.id)).returning().get();
@@ -121,7 +120,7 @@ export function getSurvey(db: Deps['db'], user: SessionUser, surveyId: number): 
     ...present(row, row.site, Object.values(flagCounts).reduce((a, b) => a + b, 0)),
     flagCounts,
     calibrationLapsedCount: lapsed,
-    canUpload: can(user.role, 'surveys.upload') && UPLOADABLE_STATUSES.includes(row.status),
+    abilities: surveyAbilities(user, row),
     imports: importRows.map(({ imp, filename }) => ({
       id: imp.id, filename, status: imp.status, rowsRead: imp.rowsRead, readings: imp.readingCount, errorCount: imp.errors.length,
       createdAt: new Date(imp.createdAt).toISOString(),

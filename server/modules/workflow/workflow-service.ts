@@ -8,21 +8,11 @@ import type { SubmitSurveyBody, SignOffBody, ReturnSurveyBody, WorkflowState } f
 import { VERDICT_LABELS } from '@shared/schemas/compliance';
 import { conflict } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
-import { getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
+import { assertSurveyAbility, getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
+import { WORKED_ON_STATUSES } from '@shared/survey-abilities';
 import { buildFrozen, countVerdicts } from '../compliance/compliance-service';
 import { surveyReportPdf } from '../reports/reports-service';
 import { absoluteUrl, paths } from '@shared/paths';
-
-const SUBMITTABLE = ['draft', 'returned'] as const;
-
-/**
- * A signed-off survey is read-only, and a submitted one waits for review: a hook for every
- * service that changes a survey or its readings (409 with the reason).
- */
-export function assertSurveyEditable(survey: Pick<SurveyRow, 'status' | 'name'>): void {
-  if (survey.status === 'signed_off') throw conflict(`Survey "${survey.name}" is signed off and read-only; start a new survey to record changes`);
-  if (survey.status === 'submitted') throw conflict(`Survey "${survey.name}" is submitted for review; it can change again only if a reviewer returns it`);
-}
 
 function userById(db: Db, id: number | null) {
   return id === null ? undefined : db.select().from(users).where(eq(users.id, id)).get();
@@ -57,14 +47,12 @@ function surveyorOf(db: Db, survey: SurveyRow) {
 
 export async function submitSurvey(deps: Deps, actor: SessionUser, surveyId: number, body: SubmitSurveyBody): Promise<WorkflowState> {
   const survey = getSurveyRow(deps.db, actor, surveyId);
-  if (!(SUBMITTABLE as readonly string[]).includes(survey.status)) {
-    throw conflict(`Survey "${survey.name}" is ${survey.status.replace('_', ' ')}: only a draft or a returned survey can be submitted`);
-  }
+  assertSurveyAbility(actor, survey, 'submit');
   if (survey.activeDecodeId === null) throw conflict(`Survey "${survey.name}" has no decoded readings yet: upload a log before submitting`);
   const now = deps.clock.now();
   deps.db.transaction((tx) => {
     const changed = tx.update(surveys).set({ status: 'submitted', submittedBy: actor.id, submittedAt: now, reviewComment: null })
-      .where(and(eq(surveys.id, survey.id), inArray(surveys.status, [...SUBMITTABLE]))).run();
+      .where(and(eq(surveys.id, survey.id), inArray(surveys.status, [...WORKED_ON_STATUSES]))).run();
     if (changed.changes !== 1) throw conflict('Someone changed this survey at the same moment; reload it and try again');
     recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'submitted', before: { status: survey.status }, after: { status: 'submitted', note: body.note ?? null }, at: now });
   });
@@ -85,8 +73,7 @@ export async function submitSurvey(deps: Deps, actor: SessionUser, surveyId: num
  */
 export async function signOffSurvey(deps: Deps, actor: SessionUser, surveyId: number, body: SignOffBody): Promise<WorkflowState> {
   const survey = getSurveyRow(deps.db, actor, surveyId);
-  if (survey.status !== 'submitted') throw conflict(`Survey "${survey.name}" is ${survey.status.replace('_', ' ')}: only a submitted survey can be signed off`);
-  if (survey.submittedBy === actor.id) throw conflict('You submitted this survey; another reviewer must sign it off');
+  assertSurveyAbility(actor, survey, 'signOff');
   const now = deps.clock.now();
   const frozen = buildFrozen(deps.db, actor.organizationId, survey, now);
   const signed: SurveyRow = { ...survey, status: 'signed_off', signedOffBy: actor.id, signedOffAt: now, reviewComment: body.comment ?? null, frozen };
@@ -120,7 +107,7 @@ export async function signOffSurvey(deps: Deps, actor: SessionUser, surveyId: nu
 /** Returns a submitted survey to the surveyor with a comment saying what to change. */
 export async function returnSurvey(deps: Deps, actor: SessionUser, surveyId: number, body: ReturnSurveyBody): Promise<WorkflowState> {
   const survey = getSurveyRow(deps.db, actor, surveyId);
-  if (survey.status !== 'submitted') throw conflict(`Survey "${survey.name}" is ${survey.status.replace('_', ' ')}: only a submitted survey can be returned`);
+  assertSurveyAbility(actor, survey, 'return');
   const now = deps.clock.now();
   deps.db.transaction((tx) => {
     const changed = tx.update(surveys).set({ status: 'returned', reviewComment: body.comment }).where(and(eq(surveys.id, survey.id), eq(surveys.status, 'submitted'))).run();

@@ -58,7 +58,7 @@ export function SurveyComplianceRoute() {
             </Card>
             <Card>
               <CardHeader title="Review" description={c.previous ? `Compared with “${c.previous.name}”, the previous signed-off survey of this site.` : 'No earlier signed-off survey of this site to compare with.'} />
-              <CardBody><WorkflowActions surveyId={surveyId} status={c.status} role={user.role} reviewComment={c.reviewComment} /></CardBody>
+              <CardBody><WorkflowActions surveyId={surveyId} status={c.status} abilities={c.abilities} reviewComment={c.reviewComment} /></CardBody>
             </Card>
             <Card>
               <CardHeader title="Zones, worst first" description={`Grid rule: ${c.gridRule}`} />

@@ -2,9 +2,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { CheckCheck, Send, Undo2 } from 'lucide-react';
-import { can } from '@shared/policy';
-import type { Role } from '@shared/roles';
-import type { SurveyStatus } from '@shared/schemas/surveys';
+import type { SurveyAbilities, SurveyStatus } from '@shared/schemas/surveys';
 import { returnSurveyBodySchema, type ReturnSurveyBody } from '@shared/schemas/workflow';
 import { Button } from '@/components/ui/button';
 import { TextAreaField } from '@/components/ui/field';
@@ -13,10 +11,10 @@ import { useSubmitSurvey } from '../api/submit-survey';
 import { useSignOffSurvey } from '../api/sign-off-survey';
 import { useReturnSurvey } from '../api/return-survey';
 
-type Props = { surveyId: number; status: SurveyStatus; role: Role; reviewComment: string | null; onChanged?: () => unknown };
+type Props = { surveyId: number; status: SurveyStatus; abilities: SurveyAbilities; reviewComment: string | null; onChanged?: () => unknown };
 
-/** Submit (surveyor), sign off or return with a comment (facility manager, admin), as the status allows. */
-export function WorkflowActions({ surveyId, status, role, reviewComment, onChanged }: Props) {
+/** Submit, sign off or return with a comment, as the survey's abilities (from the server) allow. */
+export function WorkflowActions({ surveyId, status, abilities, reviewComment, onChanged }: Props) {
   const submit = useSubmitSurvey();
   const signOff = useSignOffSurvey();
   const giveBack = useReturnSurvey();
@@ -25,24 +23,25 @@ export function WorkflowActions({ surveyId, status, role, reviewComment, onChang
   const form = useForm<ReturnSurveyBody>({ resolver: zodResolver(returnSurveyBodySchema), defaultValues: { comment: '' } });
   const done = async () => { setMode('idle'); await onChanged?.(); };
 
-  const canSubmit = can(role, 'surveys.submit') && (status === 'draft' || status === 'returned');
-  const canReview = can(role, 'surveys.review') && status === 'submitted';
+  const canSubmit = abilities.submit;
+  const canReview = abilities.signOff || abilities.return;
 
   return (
     <div className="space-y-3">
       {status === 'returned' && reviewComment && <p className="rounded-lg bg-unsure-50 p-3 text-sm text-unsure-700 ring-1 ring-unsure-100"><strong>Returned:</strong> {reviewComment}</p>}
       {status === 'signed_off' && <p className="text-sm text-ink-600">Signed off: read-only. Verdicts, targets, coefficient sets and the decision rule are frozen.{reviewComment ? ` Comment: ${reviewComment}` : ''}</p>}
+      {status === 'submitted' && abilities.return && !abilities.signOff && <p className="text-sm text-ink-600">You submitted this survey, so another reviewer signs it off (four-eyes rule). You can still return it.</p>}
       <FormError error={submit.error ?? signOff.error ?? giveBack.error} />
       <div className="flex flex-wrap gap-2">
         {canSubmit && <Button busy={submit.isPending} onClick={() => submit.mutate({ surveyId }, { onSuccess: done })}><Send className="h-4 w-4" aria-hidden />Submit for review</Button>}
         {canReview && mode === 'idle' && (
           <>
-            <Button onClick={() => setMode('sign')}><CheckCheck className="h-4 w-4" aria-hidden />Sign off…</Button>
-            <Button variant="secondary" onClick={() => setMode('return')}><Undo2 className="h-4 w-4" aria-hidden />Return with comment…</Button>
+            {abilities.signOff && <Button onClick={() => setMode('sign')}><CheckCheck className="h-4 w-4" aria-hidden />Sign off…</Button>}
+            {abilities.return && <Button variant="secondary" onClick={() => setMode('return')}><Undo2 className="h-4 w-4" aria-hidden />Return with comment…</Button>}
           </>
         )}
       </div>
-      {canReview && mode === 'sign' && (
+      {abilities.signOff && mode === 'sign' && (
         <form className="space-y-3" onSubmit={(e) => { e.preventDefault(); signOff.mutate({ surveyId, ...(signComment.trim() ? { comment: signComment.trim() } : {}) }, { onSuccess: done }); }}>
           <TextAreaField label="Comment (optional)" rows={2} value={signComment} onChange={(e) => setSignComment(e.target.value)} hint="Signing off freezes the verdicts and e-mails the report to the surveyor and to you." />
           <div className="flex gap-2">
@@ -51,7 +50,7 @@ export function WorkflowActions({ surveyId, status, role, reviewComment, onChang
           </div>
         </form>
       )}
-      {canReview && mode === 'return' && (
+      {abilities.return && mode === 'return' && (
         <form className="space-y-3" onSubmit={form.handleSubmit((body) => giveBack.mutate({ surveyId, ...body }, { onSuccess: done }))}>
           <TextAreaField label="What should the surveyor change?" rows={3} error={form.formState.errors.comment?.message} {...form.register('comment')} />
           <div className="flex gap-2">

@@ -87,13 +87,13 @@ export function SurveyPage({ surveyId, role, sitePlans }: { surveyId: number; ro
             />
             <div className="flex flex-col gap-6">
               <Card><CardBody><Summary survey={s} /><Imports survey={s} /></CardBody></Card>
-              {s.canUpload && (
+              {s.abilities.upload && (
                 <Card>
                   <CardHeader title="Add a meter log" description="A file with any problem is rejected whole; nothing from it is stored." />
                   <CardBody><LogUpload surveyId={s.id} plans={sitePlans} /></CardBody>
                 </Card>
               )}
-              {!s.canUpload && can(role, 'surveys.upload') && (
+              {!s.abilities.upload && can(role, 'surveys.upload') && (
                 <p className="flex items-center gap-2 text-sm text-ink-600"><AlertTriangle className="h-4 w-4" aria-hidden />Logs can be added only while the survey is a draft or returned for changes.</p>
               )}
               <Card>
