@@ -52,7 +52,7 @@ export function SurveyComplianceRoute() {
             )}
             <Card>
               <CardHeader title="Installation" description={c.installationText} />
-              {!c.frozen && can(user.role, 'surveys.write') && (
+              {c.abilities.setInstallation && (
                 <CardBody><InstallationForm surveyId={surveyId} current={c.installation} onChanged={() => invalidate(surveyId)} /></CardBody>
               )}
             </Card>
