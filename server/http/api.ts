@@ -7,7 +7,7 @@ import type { SessionUser } from '@shared/schemas/auth';
 import { authorize, type Access } from './authorize';
 import { validate, parsed } from './validate';
 
-export type RouteSpec<P extends z.ZodType | undefined, Q extends z.ZodType | undefined, B extends z.ZodType | undefined> = {
+export type RouteSpec<P extends z.ZodType | undefined, Q extends z.ZodType | undefined, B extends z.ZodType | undefined, R extends z.ZodType | undefined = undefined> = {
   method: 'get' | 'post' | 'patch' | 'put' | 'delete';
   /** Express path below /api, e.g. `/probes/:id`. */
   path: string;
@@ -18,8 +18,8 @@ export type RouteSpec<P extends z.ZodType | undefined, Q extends z.ZodType | und
   params?: P;
   query?: Q;
   body?: B;
-  /** The JSON answer's schema, for the OpenAPI document. */
-  response?: z.ZodType;
+  /** The JSON answer's schema: documents it and types the handler's return value. */
+  response?: R;
   status?: number;
   /** Runs after authorisation and before validation (multer for uploads). */
   before?: RequestHandler[];
@@ -30,6 +30,9 @@ export type RouteSpec<P extends z.ZodType | undefined, Q extends z.ZodType | und
 };
 
 type Infer<T> = T extends z.ZodType ? z.infer<T> : Record<string, never>;
+
+/** What a handler may return: the `response` schema's value, or nothing (204, or it answered through `res`). */
+export type RouteAnswer<R> = R extends z.ZodType ? z.input<R> : void;
 
 export type RouteInput<P, Q, B> = {
   params: Infer<P>;
@@ -53,9 +56,9 @@ export class Api {
   readonly routes: RouteInfo[] = [];
   private readonly registry = new OpenAPIRegistry();
 
-  route<P extends z.ZodType | undefined = undefined, Q extends z.ZodType | undefined = undefined, B extends z.ZodType | undefined = undefined>(
-    spec: RouteSpec<P, Q, B>,
-    handler: (input: RouteInput<P, Q, B>) => unknown | Promise<unknown>,
+  route<P extends z.ZodType | undefined = undefined, Q extends z.ZodType | undefined = undefined, B extends z.ZodType | undefined = undefined, R extends z.ZodType | undefined = undefined>(
+    spec: RouteSpec<P, Q, B, R>,
+    handler: (input: RouteInput<P, Q, B>) => RouteAnswer<R> | Promise<RouteAnswer<R>>,
   ): void {
     this.routes.push({ method: spec.method.toUpperCase(), path: spec.path, access: spec.access });
     this.document(spec);
@@ -81,7 +84,7 @@ export class Api {
     });
   }
 
-  private document(spec: RouteSpec<z.ZodType | undefined, z.ZodType | undefined, z.ZodType | undefined>) {
+  private document(spec: RouteSpec<z.ZodType | undefined, z.ZodType | undefined, z.ZodType | undefined, z.ZodType | undefined>) {
     const openApiPath = spec.path.replace(/:([A-Za-z]+)/g, '{$1}');
     const errorContent = { 'application/json': { schema: apiErrorSchema } };
     const responses: Record<string, { description: string; content?: Record<string, { schema: z.ZodType }> }> = {

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { IMPORT_STATUSES } from './imports';
 
 export const SURVEY_STATUSES = ['draft', 'submitted', 'signed_off', 'returned'] as const;
 export type SurveyStatus = (typeof SURVEY_STATUSES)[number];
@@ -93,7 +94,7 @@ export const decodeSummarySchema = z.object({
 export const surveyImportSummarySchema = z.object({
   id: z.number().int(),
   filename: z.string(),
-  status: z.enum(['queued', 'running', 'done', 'failed']),
+  status: z.enum(IMPORT_STATUSES),
   rowsRead: z.number().int(),
   readings: z.number().int(),
   errorCount: z.number().int(),

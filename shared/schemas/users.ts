@@ -17,6 +17,9 @@ export type User = z.infer<typeof userSchema>;
 
 export const userListResponseSchema = z.object({ items: z.array(userSchema) });
 
+/** A fresh invitation link was e-mailed (202). */
+export const invitationSentSchema = z.object({ ok: z.boolean() });
+
 export const inviteBodySchema = z.object({
   email: emailSchema,
   name: z.string().trim().min(1, 'Enter a name').max(120),

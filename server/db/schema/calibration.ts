@@ -1,5 +1,7 @@
 import { sqliteTable, integer, text, real, uniqueIndex, index } from 'drizzle-orm/sqlite-core';
 import { organizations, users, storedFiles } from './organizations';
+import { ANALOG_SCALES, PROBE_KINDS, PROBE_STATUSES } from '@shared/schemas/probes';
+import { COEFFICIENT_SET_STATUSES } from '@shared/schemas/coefficient-sets';
 
 export type GainStepRow = { code: number; nominalGain: number };
 /** uDarkCounts: standard uncertainty of the dark offset, counts (from a bench fit); absent: the core's default. */
@@ -9,16 +11,16 @@ export const probes = sqliteTable('probes', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   organizationId: integer('organization_id').notNull().references(() => organizations.id),
   serial: text('serial').notNull(),
-  kind: text('kind', { enum: ['counts', 'current_4_20', 'voltage_0_10'] }).notNull(),
+  kind: text('kind', { enum: PROBE_KINDS }).notNull(),
   description: text('description').notNull().default(''),
-  status: text('status', { enum: ['in_service', 'out_of_service', 'retired'] }).notNull().default('in_service'),
+  status: text('status', { enum: PROBE_STATUSES }).notNull().default('in_service'),
   fullScaleCounts: integer('full_scale_counts'),
   saturationCounts: integer('saturation_counts'),
   floorCounts: integer('floor_counts'),
   gains: text('gains', { mode: 'json' }).$type<GainStepRow[]>(),
   rangeLowLux: real('range_low_lux'),
   rangeHighLux: real('range_high_lux'),
-  scale: text('scale', { enum: ['linear', 'log10'] }),
+  scale: text('scale', { enum: ANALOG_SCALES }),
   accuracyPercent: real('accuracy_percent'),
   createdAt: integer('created_at').notNull(),
   updatedAt: integer('updated_at').notNull(),
@@ -41,7 +43,7 @@ export const coefficientSets = sqliteTable('coefficient_sets', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   probeId: integer('probe_id').notNull().references(() => probes.id),
   version: integer('version').notNull(),
-  status: text('status', { enum: ['draft', 'approved'] }).notNull().default('draft'),
+  status: text('status', { enum: COEFFICIENT_SET_STATUSES }).notNull().default('draft'),
   effectiveFrom: integer('effective_from').notNull(),
   dueDate: integer('due_date').notNull(),
   tRefMs: real('t_ref_ms').notNull(),

@@ -4,6 +4,9 @@ import { surveys } from './surveys';
 import { sites } from './sites';
 import { plans } from './plans';
 import type { EmergencyCheck, EmergencyPass } from '@shared/core/emergency';
+import { EMERGENCY_TEST_KINDS } from '@shared/core/emergency-schedule';
+import { EQUIPMENT_KINDS, SYSTEM_TYPES } from '@shared/schemas/emergency';
+import { EMERGENCY_ELEMENT_KINDS } from '@shared/core/emergency';
 
 /**
  * Escape routes (centre line + width), open and high-risk task areas (outlines) and
@@ -12,7 +15,7 @@ import type { EmergencyCheck, EmergencyPass } from '@shared/core/emergency';
 export const emergencyElements = sqliteTable('emergency_elements', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   planId: integer('plan_id').notNull().references(() => plans.id),
-  kind: text('kind', { enum: ['escape_route', 'open_area', 'high_risk_area', 'safety_equipment'] }).notNull(),
+  kind: text('kind', { enum: EMERGENCY_ELEMENT_KINDS }).notNull(),
   /** Short code that starts each planned point's label (R1 -> R1-C01). Unique per plan. */
   code: text('code').notNull(),
   name: text('name').notNull(),
@@ -23,7 +26,7 @@ export const emergencyElements = sqliteTable('emergency_elements', {
   spacingM: real('spacing_m'),
   normalEmLux: real('normal_em_lux'),
   normalZoneId: integer('normal_zone_id'),
-  equipment: text('equipment', { enum: ['fire_fighting', 'call_point', 'first_aid', 'other'] }),
+  equipment: text('equipment', { enum: EQUIPMENT_KINDS }),
   createdAt: integer('created_at').notNull(),
 }, (t) => [index('emergency_elements_plan_idx').on(t.planId), uniqueIndex('emergency_elements_code_idx').on(t.planId, t.code)]);
 
@@ -31,7 +34,7 @@ export const emergencyElements = sqliteTable('emergency_elements', {
 export const emergencySurveys = sqliteTable('emergency_surveys', {
   surveyId: integer('survey_id').primaryKey().references(() => surveys.id),
   criteriaSetKey: text('criteria_set_key').notNull(),
-  systemType: text('system_type', { enum: ['self_contained', 'central'] }).notNull(),
+  systemType: text('system_type', { enum: SYSTEM_TYPES }).notNull(),
   ratedDurationMin: integer('rated_duration_min').notNull(),
   mainsOffAt: integer('mains_off_at').notNull(),
   normalLightingOff: integer('normal_lighting_off', { mode: 'boolean' }).notNull(),
@@ -66,7 +69,7 @@ export const emergencyTests = sqliteTable('emergency_tests', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   organizationId: integer('organization_id').notNull().references(() => organizations.id),
   siteId: integer('site_id').notNull().references(() => sites.id),
-  kind: text('kind', { enum: ['functional', 'full_duration'] }).notNull(),
+  kind: text('kind', { enum: EMERGENCY_TEST_KINDS }).notNull(),
   /** Calendar date in the site's time zone. */
   testedOn: text('tested_on').notNull(),
   testedBy: text('tested_by').notNull(),
@@ -88,7 +91,7 @@ export const emergencyTestSchedules = sqliteTable('emergency_test_schedules', {
 export const emergencyTestReminders = sqliteTable('emergency_test_reminders', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   siteId: integer('site_id').notNull().references(() => sites.id),
-  kind: text('kind', { enum: ['functional', 'full_duration'] }).notNull(),
+  kind: text('kind', { enum: EMERGENCY_TEST_KINDS }).notNull(),
   state: text('state', { enum: ['due_soon', 'overdue'] }).notNull(),
   sentAt: integer('sent_at').notNull(),
 }, (t) => [index('emergency_test_reminders_site_idx').on(t.siteId, t.sentAt)]);

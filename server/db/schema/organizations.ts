@@ -1,12 +1,14 @@
 import { sqliteTable, integer, text, blob, primaryKey, index } from 'drizzle-orm/sqlite-core';
 import type { Role } from '@shared/roles';
+import { USER_STATUSES } from '@shared/schemas/users';
+import { DECISION_RULES } from '@shared/schemas/organization';
 
 /** Times are stored as integer milliseconds since the epoch (UTC) throughout. */
 export const organizations = sqliteTable('organizations', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   name: text('name').notNull(),
   /** Decision rule for verdicts: simple acceptance or guarded by U (ILAC-G8:2019). */
-  decisionRule: text('decision_rule', { enum: ['simple', 'guarded'] }).notNull().default('guarded'),
+  decisionRule: text('decision_rule', { enum: DECISION_RULES }).notNull().default('guarded'),
   createdAt: integer('created_at').notNull(),
 });
 
@@ -16,7 +18,7 @@ export const users = sqliteTable('users', {
   email: text('email').notNull().unique(),
   name: text('name').notNull(),
   role: text('role').$type<Role>().notNull(),
-  status: text('status', { enum: ['active', 'invited', 'disabled'] }).notNull(),
+  status: text('status', { enum: USER_STATUSES }).notNull(),
   passwordHash: text('password_hash'),
   createdAt: integer('created_at').notNull(),
 }, (t) => [index('users_org_idx').on(t.organizationId)]);

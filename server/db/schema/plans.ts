@@ -1,6 +1,7 @@
 import { sqliteTable, integer, text, real, index } from 'drizzle-orm/sqlite-core';
 import { sites } from './sites';
 import { storedFiles } from './organizations';
+import { ZONE_KINDS } from '@shared/schemas/zones';
 
 export const plans = sqliteTable('plans', {
   id: integer('id').primaryKey({ autoIncrement: true }),
@@ -18,7 +19,7 @@ export const zones = sqliteTable('zones', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   planId: integer('plan_id').notNull().references(() => plans.id, { onDelete: 'cascade' }),
   name: text('name').notNull(),
-  kind: text('kind', { enum: ['room', 'task_area', 'outdoor'] }).notNull(),
+  kind: text('kind', { enum: ZONE_KINDS }).notNull(),
   useType: text('use_type').notNull(),
   targetId: integer('target_id'),
   planeHeightM: real('plane_height_m').notNull().default(0.75),

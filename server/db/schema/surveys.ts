@@ -3,6 +3,10 @@ import { organizations, users, storedFiles } from './organizations';
 import { probes } from './calibration';
 import { plans } from './plans';
 import { sites } from './sites';
+import { SURVEY_STATUSES } from '@shared/schemas/surveys';
+import { IMPORT_STATUSES } from '@shared/schemas/imports';
+import { READING_FLAGS } from '@shared/schemas/readings';
+import { READING_PLANES } from '@shared/core/planes';
 
 export type SurveyConditions = { daylightExcluded: boolean; notes?: string };
 
@@ -16,7 +20,7 @@ export const surveys = sqliteTable('surveys', {
   name: text('name').notNull(),
   startedOn: text('started_on'),
   conditions: text('conditions', { mode: 'json' }).$type<SurveyConditions>(),
-  status: text('status', { enum: ['draft', 'submitted', 'signed_off', 'returned'] }).notNull().default('draft'),
+  status: text('status', { enum: SURVEY_STATUSES }).notNull().default('draft'),
   /** A new installation is judged against Em / MF; one in service against Em. */
   installation: text('installation', { enum: ['in_service', 'new'] }).notNull().default('in_service'),
   maintenanceFactor: real('maintenance_factor'),
@@ -38,7 +42,7 @@ export const logImports = sqliteTable('log_imports', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   surveyId: integer('survey_id').notNull().references(() => surveys.id),
   fileId: integer('file_id').notNull().references(() => storedFiles.id),
-  status: text('status', { enum: ['queued', 'running', 'done', 'failed'] }).notNull().default('queued'),
+  status: text('status', { enum: IMPORT_STATUSES }).notNull().default('queued'),
   progress: real('progress').notNull().default(0),
   rowsRead: integer('rows_read').notNull().default(0),
   readingCount: integer('reading_count').notNull().default(0),
@@ -90,7 +94,7 @@ export const readings = sqliteTable('readings', {
   planId: integer('plan_id').references((): AnySQLiteColumn => plans.id),
   role: text('role', { enum: ['task', 'reference'] }).notNull(),
   /** Where the sensor faced: the horizontal working plane, a vertical plane (with azimuthDeg), a wall or a ceiling. */
-  plane: text('plane', { enum: ['horizontal', 'vertical', 'wall', 'ceiling'] }).notNull().default('horizontal'),
+  plane: text('plane', { enum: READING_PLANES }).notNull().default('horizontal'),
   /** Direction a vertical reading faced, degrees clockwise from the plan's +y axis. */
   azimuthDeg: real('azimuth_deg'),
   timeMs: integer('time_ms').notNull(),
@@ -98,7 +102,7 @@ export const readings = sqliteTable('readings', {
   lux: real('lux'),
   uLux: real('u_lux'),
   luxBound: text('lux_bound', { enum: ['exact', 'lower', 'upper'] }).notNull(),
-  flag: text('flag', { enum: ['ok', 'over_range', 'under_range', 'fault', 'calibration_lapsed', 'low_confidence'] }).notNull(),
+  flag: text('flag', { enum: READING_FLAGS }).notNull(),
   gainCode: integer('gain_code'),
   sampleCount: integer('sample_count').notNull(),
   chosenSample: integer('chosen_sample'),

@@ -1,4 +1,4 @@
-import type { AuditEvent } from '../api/get-audit';
+import type { AuditEvent } from '@shared/schemas/audit';
 
 const ENTITY_LABELS: Record<string, string> = { probe: 'Probe', coefficient_set: 'Coefficient set', bench_run: 'Bench run', user: 'User', survey: 'Survey' };
 
