@@ -22,3 +22,8 @@ export function toSafeCsv(header: readonly string[], rows: readonly (readonly un
     { newline: '\r\n', escapeFormulae: FORMULA_START },
   );
 }
+
+/** Rows only (no header), for a file written in pieces; same neutralising and quoting as toSafeCsv. */
+export function toSafeCsvRows(rows: readonly (readonly unknown[])[]): string {
+  return Papa.unparse(rows.map((r) => r.map((v) => (v === null || v === undefined ? '' : v))), { newline: '\r\n', escapeFormulae: FORMULA_START });
+}

@@ -197,8 +197,11 @@ function closeBurst(s: ProbeState): Reading {
     uLux: COVERAGE_K * uRel * Math.abs(lux),
     budget,
     coefficientSetId: comp.set.id,
+    evidence: { counts: s.counts[pick], intMs: nanToNull(s.intMs[pick]), tempC: nanToNull(s.tempC[pick]) },
   };
 }
+
+const nanToNull = (v: number): number | null => (v === v ? v : null);
 
 class Assembler implements BurstAssembler {
   private readonly states = new Map<string, ProbeState>();

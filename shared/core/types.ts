@@ -115,4 +115,6 @@ export interface Reading {
   uLux: number;
   budget: BudgetPart[];
   coefficientSetId: string | null;
+  /** Counting probes: the logged sample behind the value or bound (counts, integration time, temperature as logged). */
+  evidence?: { counts: number; intMs: number | null; tempC: number | null };
 }

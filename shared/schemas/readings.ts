@@ -57,6 +57,13 @@ export const readingSchema = z.object({
   /** Where the sensor faced; azimuth (degrees clockwise from the plan's +y) for vertical and wall readings. */
   plane: z.enum(READING_PLANES),
   azimuthDeg: z.number().nullable(),
+  /** Raw evidence behind the value or bound, as logged: counts (counting probes), mA or V (analog probes), integration time (ms), temperature (°C). */
+  rawCounts: z.number().nullable(),
+  rawSignal: z.number().nullable(),
+  intMs: z.number().nullable(),
+  tempC: z.number().nullable(),
+  /** The coefficient set that decoded the reading. */
+  coefficientSetId: z.number().int().nullable(),
 });
 export type Reading = z.infer<typeof readingSchema>;
 
@@ -74,3 +81,35 @@ export const readingsExportQuerySchema = z.object({ unit: z.enum(['lux', 'fc']).
 
 export const redecodeResponseSchema = z.object({ decodeId: z.number().int(), previousDecodeId: z.number().int().nullable(), readings: z.number().int(), calibrationLapsed: z.number().int() });
 export type RedecodeResponse = z.infer<typeof redecodeResponseSchema>;
+
+/** A reading's decoded value as one decode gave it. */
+export const decodedValueSchema = z.object({
+  lux: z.number().nullable(),
+  uLux: z.number().nullable(),
+  luxBound: z.enum(['exact', 'lower', 'upper']),
+  flag: z.enum(READING_FLAGS),
+  coefficientSetId: z.number().int().nullable(),
+  coefficientSetVersion: z.number().int().nullable(),
+});
+export type DecodedValue = z.infer<typeof decodedValueSchema>;
+
+const decodeInfoSchema = z.object({ decodeId: z.number().int(), reason: z.string(), createdAt: z.string(), createdByName: z.string().nullable() });
+
+/** What the latest re-decode changed, reading by reading (for calibration staff: read-only). */
+export const decodeChangesSchema = z.object({
+  surveyId: z.number().int(),
+  surveyName: z.string(),
+  siteName: z.string(),
+  siteTimeZone: z.string(),
+  status: z.enum(['draft', 'submitted', 'signed_off', 'returned']),
+  /** True when a re-decode now would change nothing (every reading used the set in force at its time). */
+  decodedWithCurrentSets: z.boolean(),
+  /** The decode before the active one (null: never re-decoded). */
+  before: decodeInfoSchema.nullable(),
+  after: decodeInfoSchema.nullable(),
+  /** Readings compared; changedTotal of them differ; at most DECODE_CHANGES_LIMIT are listed. */
+  compared: z.number().int(),
+  changedTotal: z.number().int(),
+  changes: z.array(z.object({ readingId: z.number().int(), point: z.string(), timestamp: z.string(), probe: z.string(), before: decodedValueSchema, after: decodedValueSchema })),
+});
+export type DecodeChanges = z.infer<typeof decodeChangesSchema>;

@@ -49,15 +49,16 @@ describe('batch format: how accepted rows travel between threads and are kept', 
     const r: DecodedReading = {
       probeId: 7, point: 'C-3', xM: 12.5, yM: 8, planId: null, role: 'task', note: 'under the stair', timeMs: 1_795_000_000_123,
       lux: null, uLux: null, luxBound: 'lower', flag: 'over_range', gainCode: 0, samples: 4, chosenSample: null, coefficientSetId: 3, budget: [...counting],
+      rawCounts: 65535, rawSignal: null, intMs: 50, tempC: null,
     };
     b.addReading(r);
-    b.addReading({ ...r, point: 'C-4', lux: 512.25, uLux: 20.5, luxBound: 'exact', flag: 'ok', gainCode: null, chosenSample: 2, note: null, budget: [...analog, { name: 'temperature', uRel: Number.NaN }], plane: 'vertical', azimuthDeg: 90 });
+    b.addReading({ ...r, point: 'C-4', lux: 512.25, uLux: 20.5, luxBound: 'exact', flag: 'ok', gainCode: null, chosenSample: 2, note: null, budget: [...analog, { name: 'temperature', uRel: Number.NaN }], plane: 'vertical', azimuthDeg: 90, rawCounts: null, rawSignal: 11.875, intMs: null, tempC: 21.5 });
     const batch = b.take();
     expect(batch.readings).toHaveLength(2 * READING_WIDTH);
     const out: unknown[] = [];
-    expect(fillReadingValues(batch, 0, 2, out)).toBe(38);
-    expect(out.slice(0, 19)).toEqual(['C-3', 12.5, 8, null, 'task', 1_795_000_000_123, 7, null, null, 'lower', 'over_range', 0, 4, null, 3, encodeBudget(counting), 'under the stair', 'horizontal', null]);
-    expect(out.slice(19)).toEqual(['C-4', 12.5, 8, null, 'task', 1_795_000_000_123, 7, 512.25, 20.5, 'exact', 'ok', null, 4, 2, 3, encodeBudget(analog), null, 'vertical', 90]);
+    expect(fillReadingValues(batch, 0, 2, out)).toBe(46);
+    expect(out.slice(0, 23)).toEqual(['C-3', 12.5, 8, null, 'task', 1_795_000_000_123, 7, null, null, 'lower', 'over_range', 0, 4, null, 3, encodeBudget(counting), 'under the stair', 'horizontal', null, 65535, null, 50, null]);
+    expect(out.slice(23)).toEqual(['C-4', 12.5, 8, null, 'task', 1_795_000_000_123, 7, 512.25, 20.5, 'exact', 'ok', null, 4, 2, 3, encodeBudget(analog), null, 'vertical', 90, null, 11.875, null, 21.5]);
   });
 
   it('refuses what it cannot carry: an unknown role, flag or budget part', () => {

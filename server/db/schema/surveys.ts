@@ -109,4 +109,9 @@ export const readings = sqliteTable('readings', {
   coefficientSetId: integer('coefficient_set_id'),
   budget: text('budget', { mode: 'json' }),
   note: text('note'),
+  /** Raw evidence behind the value or bound, as logged: counts (counting probes), mA or V (analog), integration time (ms), temperature (°C). */
+  rawCounts: real('raw_counts'),
+  rawSignal: real('raw_signal'),
+  intMs: real('int_ms'),
+  tempC: real('temp_c'),
 }, (t) => [index('readings_decode_idx').on(t.decodeId, t.timeMs), index('readings_survey_idx').on(t.surveyId)]);

@@ -6,7 +6,7 @@ export const SAMPLE_ENCODING: 'f64p';
 export const READING_SLOTS: readonly string[];
 export const SAMPLE_WIDTH: 15;
 export const PLANE_SAMPLE_WIDTH: 17;
-export const READING_WIDTH: 23;
+export const READING_WIDTH: 27;
 export const PLANES: readonly ['horizontal', 'vertical', 'wall', 'ceiling'];
 export const ROLES: readonly ['task', 'reference'];
 export const LUX_BOUNDS: readonly ['exact', 'lower', 'upper'];

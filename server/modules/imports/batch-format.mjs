@@ -12,11 +12,12 @@ export const SAMPLE_SLOTS = ['line', 'timeMs', 'probeId', 'point', 'gainCode', '
 export const PLANE_SAMPLE_SLOTS = [...SAMPLE_SLOTS, 'plane', 'azimuthDeg'];
 /** The encoding a builder's sample arrays are stored under. */
 export const SAMPLE_ENCODING = 'f64p';
-/** A reading's slots in a batch's readings array: its budget, one uRel per BUDGET_PARTS entry, then plane and azimuth. */
+/** A reading's slots in a batch's readings array: its budget, one uRel per BUDGET_PARTS entry, then plane and azimuth, then the raw evidence behind it. */
 export const READING_SLOTS = ['point', 'xM', 'yM', 'planId', 'role', 'timeMs', 'probeId', 'lux', 'uLux', 'luxBound', 'flag', 'gainCode', 'samples', 'chosenSample', 'coefficientSetId', 'note',
-  ...BUDGET_PARTS.map((name) => `budget.${name}`), 'plane', 'azimuthDeg'];
+  ...BUDGET_PARTS.map((name) => `budget.${name}`), 'plane', 'azimuthDeg', 'rawCounts', 'rawSignal', 'intMs', 'tempC'];
 const BUDGET_SLOT = READING_SLOTS.indexOf(`budget.${BUDGET_PARTS[0]}`);
 const READING_PLANE_SLOT = READING_SLOTS.indexOf('plane');
+const READING_RAW_SLOT = READING_SLOTS.indexOf('rawCounts');
 export const SAMPLE_WIDTH = SAMPLE_SLOTS.length;
 export const PLANE_SAMPLE_WIDTH = PLANE_SAMPLE_SLOTS.length;
 export const READING_WIDTH = READING_SLOTS.length;
@@ -112,6 +113,10 @@ export function createBatchBuilder(capacityRows = 2048) {
       const base = readingRows * READING_WIDTH;
       readings[base + READING_PLANE_SLOT] = codeOf(PLANES, r.plane ?? 'horizontal', 'plane');
       readings[base + READING_PLANE_SLOT + 1] = orNaN(r.azimuthDeg);
+      readings[base + READING_RAW_SLOT] = orNaN(r.rawCounts);
+      readings[base + READING_RAW_SLOT + 1] = orNaN(r.rawSignal);
+      readings[base + READING_RAW_SLOT + 2] = orNaN(r.intMs);
+      readings[base + READING_RAW_SLOT + 3] = orNaN(r.tempC);
       readingRows++;
     },
     /** The batch so far, its arrays trimmed to length (transferOf gives the transfer list); the builder starts empty. */
@@ -172,6 +177,10 @@ export function fillReadingValues(batch, from, to, out) {
     out[k++] = note === note ? strings[note] : null;
     out[k++] = PLANES[readings[o + READING_PLANE_SLOT]];
     out[k++] = valueOrNull(readings[o + READING_PLANE_SLOT + 1]);
+    out[k++] = valueOrNull(readings[o + READING_RAW_SLOT]);
+    out[k++] = valueOrNull(readings[o + READING_RAW_SLOT + 1]);
+    out[k++] = valueOrNull(readings[o + READING_RAW_SLOT + 2]);
+    out[k++] = valueOrNull(readings[o + READING_RAW_SLOT + 3]);
   }
   return k;
 }

@@ -5,7 +5,7 @@
 import { fillReadingValues, SAMPLE_ENCODING } from './batch-format.mjs';
 
 /** Values per reading in the readings insert (the column list below, after the inlined ids). */
-const READING_VALUES = 19;
+const READING_VALUES = 23;
 const MULTI_ROWS = 64;
 
 export function createBatchWriter(client, target) {
@@ -13,7 +13,7 @@ export function createBatchWriter(client, target) {
   if (![importId, surveyId, decodeId].every((n) => Number.isSafeInteger(n))) throw new Error('createBatchWriter: ids must be integers');
   // Ids are integers from the database, inlined so each row binds only its own values.
   const readingRow = `(${surveyId},${decodeId},${importId},${Array(READING_VALUES).fill('?').join(',')})`;
-  const readingSql = 'insert into readings (survey_id, decode_id, import_id, point, x_m, y_m, plan_id, role, time_ms, probe_id, lux, u_lux, lux_bound, flag, gain_code, sample_count, chosen_sample, coefficient_set_id, budget, note, plane, azimuth_deg) values ';
+  const readingSql = 'insert into readings (survey_id, decode_id, import_id, point, x_m, y_m, plan_id, role, time_ms, probe_id, lux, u_lux, lux_bound, flag, gain_code, sample_count, chosen_sample, coefficient_set_id, budget, note, plane, azimuth_deg, raw_counts, raw_signal, int_ms, temp_c) values ';
   const blockStmt = client.prepare(`insert into sample_blocks (import_id, survey_id, first_line, row_count, encoding, strings, data) values (${importId}, ${surveyId}, ?, ?, '${SAMPLE_ENCODING}', ?, ?)`);
   const readingMany = client.prepare(readingSql + Array(MULTI_ROWS).fill(readingRow).join(','));
   const readingOne = client.prepare(readingSql + readingRow);

@@ -51,6 +51,11 @@ export type DecodedReading = {
   chosenSample: number | null;
   coefficientSetId: number | null;
   budget: BudgetPart[];
+  /** The raw evidence behind the value or bound, as logged: counts (counting probes) or the mA / V signal (analog), integration time, temperature. */
+  rawCounts: number | null;
+  rawSignal: number | null;
+  intMs: number | null;
+  tempC: number | null;
 };
 
 /** A problem with one sample: the line, the log column it concerns, the value and what is wrong. */
@@ -106,10 +111,12 @@ export function createLogDecoder(calibration: ReadonlyMap<string, DecodingCalibr
   });
   const openBurst = new Map<string, BurstMeta>();
 
-  const emit = (r: Reading, meta: BurstMeta) => {
+  const emit = (r: Reading, meta: BurstMeta, analog?: LogSample) => {
     onReading({
       probeId: calibration.get(r.probe)!.probeId, point: meta.point, xM: meta.xM, yM: meta.yM, planId: meta.planId, role: meta.role, note: meta.note,
       plane: meta.plane ?? 'horizontal', azimuthDeg: meta.azimuthDeg ?? null,
+      rawCounts: r.evidence?.counts ?? null, rawSignal: analog ? (analog.ma ?? analog.volts ?? null) : null,
+      intMs: analog ? (analog.intMs ?? null) : (r.evidence?.intMs ?? null), tempC: analog ? (analog.tempC ?? null) : (r.evidence?.tempC ?? null),
       timeMs: r.timeMs, lux: r.lux, uLux: r.lux === null ? null : r.uLux, luxBound: r.luxBound, flag: r.flag, gainCode: r.gainCode,
       samples: r.samples, chosenSample: r.chosenSample, coefficientSetId: r.coefficientSetId === null ? null : Number(r.coefficientSetId), budget: r.budget,
     });
@@ -134,7 +141,7 @@ export function createLogDecoder(calibration: ReadonlyMap<string, DecodingCalibr
     // The core flags the signal; lapsed calibration is added here in the core's order of importance.
     const lapsed = isCalibrationLapsed(set, s.timeMs);
     const flag: ReadingFlag = lapsed && r.flag === 'ok' ? 'calibration_lapsed' : r.flag;
-    emit({ ...r, flag, coefficientSetId: set.id }, s);
+    emit({ ...r, flag, coefficientSetId: set.id }, s, s);
   }
 
   return {

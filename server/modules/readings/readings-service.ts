@@ -1,15 +1,14 @@
 import type { Response } from 'express';
-import Papa from 'papaparse';
 import { and, asc, desc, eq, sql, type SQL } from 'drizzle-orm';
 import type { Deps } from '../../deps';
 import { readings } from '../../db/schema/surveys';
-import { probes } from '../../db/schema/calibration';
+import { coefficientSets, probes } from '../../db/schema/calibration';
 import { plans } from '../../db/schema/plans';
 import type { SessionUser } from '@shared/schemas/auth';
 import type { Reading, ReadingSeries, ReadingsResponse } from '@shared/schemas/readings';
 import { readingsQuerySchema, type ReadingsQuery } from '@shared/schemas/readings';
-import { neutraliseCell } from '@shared/csv-safe';
-import { luxToFootcandles } from '@shared/core/units';
+import { toSafeCsvRows } from '@shared/csv-safe';
+import { readingCells, readingColumns, type ExportReading } from '@shared/export-columns';
 import { currentReadingConditions, getSurveyRow } from '../surveys/surveys-service';
 import { decodeBudget } from './stored-budget.mjs';
 
@@ -18,11 +17,13 @@ const columns = {
   lux: readings.lux, uLux: readings.uLux, luxBound: readings.luxBound, flag: readings.flag, gainCode: readings.gainCode,
   samples: readings.sampleCount, chosenSample: readings.chosenSample, budget: readings.budget, note: readings.note,
   plane: readings.plane, azimuthDeg: readings.azimuthDeg,
+  rawCounts: readings.rawCounts, rawSignal: readings.rawSignal, intMs: readings.intMs, tempC: readings.tempC, coefficientSetId: readings.coefficientSetId,
 };
 type Row = {
   id: number; point: string; xM: number | null; yM: number | null; planId: number | null; role: Reading['role']; timeMs: number; probe: string; lux: number | null; uLux: number | null;
   luxBound: Reading['luxBound']; flag: Reading['flag']; gainCode: number | null; samples: number; chosenSample: number | null; budget: unknown; note: string | null;
   plane: Reading['plane']; azimuthDeg: number | null;
+  rawCounts: number | null; rawSignal: number | null; intMs: number | null; tempC: number | null; coefficientSetId: number | null;
 };
 
 function present(r: Row): Reading {
@@ -30,6 +31,7 @@ function present(r: Row): Reading {
     id: r.id, point: r.point, xM: r.xM, yM: r.yM, planId: r.planId, role: r.role, timestamp: new Date(r.timeMs).toISOString(), probe: r.probe,
     lux: r.lux, uLux: r.uLux, luxBound: r.luxBound, flag: r.flag, gainCode: r.gainCode, samples: r.samples, chosenSample: r.chosenSample,
     budget: decodeBudget(r.budget), plane: r.plane, azimuthDeg: r.azimuthDeg,
+    budget: decodeBudget(r.budget), rawCounts: r.rawCounts, rawSignal: r.rawSignal, intMs: r.intMs, tempC: r.tempC, coefficientSetId: r.coefficientSetId,
   };
 }
 
@@ -73,32 +75,26 @@ export function readingSeries(db: Deps['db'], user: SessionUser, surveyId: numbe
 const EXPORT_PAGE = 5000;
 
 /**
- * Streams the current readings as CSV in lux or foot-candles. Text cells a spreadsheet would run
- * as a formula are neutralised (shared/csv-safe); numbers stay numbers.
+ * Streams the current readings as CSV in lux or foot-candles, in the export vocabulary of
+ * shared/export-columns (full precision, the bound, the raw evidence). Text cells a spreadsheet
+ * would run as a formula are neutralised (shared/csv-safe); numbers stay numbers.
  */
 export async function exportReadingsCsv(db: Deps['db'], user: SessionUser, surveyId: number, unit: 'lux' | 'fc', res: Response) {
   const survey = getSurveyRow(db, user, surveyId);
-  const convert = unit === 'fc' ? luxToFootcandles : (v: number) => v;
   const u = unit === 'fc' ? 'fc' : 'lx';
   const safeName = survey.name.replace(/[^A-Za-z0-9 _-]+/g, '').trim().replace(/\s+/g, '-') || 'survey';
   res.setHeader('Content-Type', 'text/csv; charset=utf-8');
   res.setHeader('Content-Disposition', `attachment; filename="${safeName}-readings-${u}.csv"`);
-  const header = ['timestamp_utc', 'point', 'x_m', 'y_m', 'plan', 'role', 'probe', `illuminance_${u}`, `expanded_uncertainty_${u}_k2`, 'bound', 'flag', 'gain', 'samples', 'chosen_sample', 'note', 'plane', 'azimuth_deg'];
-  res.write(`${Papa.unparse([header], { newline: '\r\n' })}\r\n`);
+  res.write(`${toSafeCsvRows([readingColumns(u)])}\r\n`);
   if (survey.activeDecodeId !== null) {
     let after = { t: Number.MIN_SAFE_INTEGER, id: 0 };
     for (;;) {
       const where = [...currentReadingConditions(survey), sql`(${readings.timeMs} > ${after.t} or (${readings.timeMs} = ${after.t} and ${readings.id} > ${after.id}))`];
-      const rows = db.select({ ...columns, planName: plans.name }).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).leftJoin(plans, eq(plans.id, readings.planId))
+      const rows = db.select(exportColumns).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).leftJoin(plans, eq(plans.id, readings.planId))
+        .leftJoin(coefficientSets, eq(coefficientSets.id, readings.coefficientSetId))
         .where(and(...where)).orderBy(asc(readings.timeMs), asc(readings.id)).limit(EXPORT_PAGE).all();
       if (rows.length === 0) break;
-      const data = rows.map((r) => [
-        new Date(r.timeMs).toISOString(), neutraliseCell(r.point), r.xM ?? '', r.yM ?? '', r.planName === null ? '' : neutraliseCell(r.planName), r.role, neutraliseCell(r.probe),
-        r.lux === null ? '' : round(convert(r.lux)), r.uLux === null ? '' : round(convert(r.uLux)), r.luxBound, r.flag, r.gainCode ?? '', r.samples,
-        r.chosenSample ?? '', r.note === null ? '' : neutraliseCell(r.note), r.plane, r.azimuthDeg ?? '',
-      ]);
-      // Cells are already neutralised; escapeFormulae is off so papaparse adds no second quote mark.
-      const chunk = Papa.unparse(data, { newline: '\r\n', escapeFormulae: false });
+      const chunk = toSafeCsvRows(rows.map((r) => readingCells(r, u)));
       if (!res.write(`${chunk}\r\n`)) await new Promise((r) => res.once('drain', r));
       const last = rows[rows.length - 1];
       after = { t: last.timeMs, id: last.id };
@@ -107,8 +103,11 @@ export async function exportReadingsCsv(db: Deps['db'], user: SessionUser, surve
   res.end();
 }
 
-/** Four significant figures (the readings' expanded uncertainty is a percent or more). */
-function round(v: number): number {
-  return Number(v.toPrecision(4));
-}
-
+/** The columns an export row needs (shared/export-columns' ExportReading), for any readings query joined with probes, plans and coefficient sets. */
+export const exportColumns = {
+  id: readings.id, timeMs: readings.timeMs, point: readings.point, planName: plans.name, xM: readings.xM, yM: readings.yM, role: readings.role,
+  probe: probes.serial, probeKind: probes.kind, lux: readings.lux, uLux: readings.uLux, luxBound: readings.luxBound, flag: readings.flag, gainCode: readings.gainCode,
+  rawCounts: readings.rawCounts, rawSignal: readings.rawSignal, intMs: readings.intMs, tempC: readings.tempC, coefficientSetId: readings.coefficientSetId,
+  coefficientSetVersion: coefficientSets.version, samples: readings.sampleCount, chosenSample: readings.chosenSample, note: readings.note,
+  plane: readings.plane, azimuthDeg: readings.azimuthDeg,
+} satisfies Record<keyof ExportReading, unknown>;

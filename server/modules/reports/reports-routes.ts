@@ -22,8 +22,8 @@ export function registerReportRoutes(api: Api, deps: Deps) {
   api.route({ method: 'get', path: '/surveys/:id/compliance/zones.csv', access: 'surveys.read', tag: 'reports', summary: 'The zone table as CSV (formula cells neutralised)', params: idParamsSchema, produces: 'text/csv' },
     ({ user, params, res }) => { sendFile(res, zonesCsv(deps.db, user, params.id)); });
 
-  api.route({ method: 'get', path: '/surveys/:id/compliance/readings.csv', access: 'surveys.read', tag: 'reports', summary: 'The readings the verdicts used, with their zones, as CSV', params: idParamsSchema, produces: 'text/csv' },
-    ({ user, params, res }) => { sendFile(res, readingsCsv(deps.db, user, params.id)); });
+  api.route({ method: 'get', path: '/surveys/:id/compliance/readings.csv', access: 'surveys.read', tag: 'reports', summary: 'The readings the verdicts used, with their zones, as CSV (unit=lx|fc)', params: idParamsSchema, query: reportQuerySchema, produces: 'text/csv' },
+    ({ user, params, query, res }) => { sendFile(res, readingsCsv(deps.db, user, params.id, query.unit)); });
 
   api.route({ method: 'post', path: '/surveys/:id/report/send', access: 'reports.send', tag: 'reports', summary: 'E-mail the PDF report to chosen recipients', params: idParamsSchema, body: sendReportBodySchema, status: 202, response: sendReportResponseSchema },
     ({ user, params, body }) => sendReport(deps, user, params.id, body));
