@@ -92,6 +92,8 @@ export const zoneComplianceSchema = z.object({
   /** Points the grid rule (GRID_RULE) asks for, from the zone's extent less the wall band. */
   requiredPoints: z.number().int(),
   gridAdequate: z.boolean(),
+  /** False for outdoor areas: the indoor grid rule is not applied (absent in sign-offs frozen before this was kept: applied). */
+  gridRuleApplies: z.boolean().optional(),
   /** Points left out because they lie in the wall band. */
   wallBandPoints: z.number().int(),
   eavg: z.number().nullable(),
@@ -125,12 +127,19 @@ export const complianceResponseSchema = z.object({
   surveyName: z.string(),
   siteId: z.number().int(),
   siteName: z.string(),
+  /** The site's IANA time zone: every time of this survey is shown in it. */
+  siteTimeZone: z.string(),
   startedOn: z.string().nullable(),
   status: z.enum(SURVEY_STATUSES),
   /** What the caller may do with the survey now (sign off, return, submit…). */
   abilities: surveyAbilitiesSchema,
   /** The reviewer's comment (on return or sign-off). */
   reviewComment: z.string().nullable(),
+  submittedByName: z.string().nullable(),
+  submittedAt: z.string().nullable(),
+  /** The signed record: who signed off and when (with reviewComment, the sign-off comment). */
+  signedOffByName: z.string().nullable(),
+  signedOffAt: z.string().nullable(),
   rule: z.enum(DECISION_RULES),
   ruleText: z.string(),
   gridRule: z.string(),

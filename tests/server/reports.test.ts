@@ -10,6 +10,7 @@ import { outboxAttachments } from '@server/db/schema/organizations';
 import { RULE_TEXT } from '@shared/core/decision';
 import { GRID_RULE } from '@shared/core/zone-stats';
 import { BOUND_FOOTNOTE } from '@server/modules/reports/report-pdf';
+import { formatDisplayNumber } from '@shared/display-number';
 
 let t: TestApp;
 beforeEach(async () => { t = await createTestApp(); });
@@ -39,7 +40,7 @@ describe('GET /api/surveys/:id/report.pdf', () => {
     const res = await c.get(`/api/surveys/${surveyId}/report.pdf`).buffer(true).parse(binary);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
-    expect(res.headers['content-disposition']).toMatch(/luxtrail-report-\d+-report-check\.pdf/);
+    expect(res.headers['content-disposition']).toMatch(/luxtrail-report-\d+-report-check-provisional\.pdf/);
     const text = await pdfText(res.body);
     const corridor = compliance.zones.find((z: { name: string }) => z.name === 'Fixture corridor');
     const office = compliance.zones.find((z: { name: string }) => z.name === 'Fixture office');
@@ -68,9 +69,13 @@ describe('GET /api/surveys/:id/report.pdf', () => {
     const office = (await c.get(`/api/surveys/${surveyId}/compliance`)).body.zones.find((z: { name: string }) => z.name === 'Fixture office');
     expect(office.bounds.eavg).toBe('lower');
     const text = await pdfText((await c.get(`/api/surveys/${surveyId}/report.pdf`).buffer(true).parse(binary)).body);
-    expect(text).toMatch(new RegExp(`${office.eavg.toFixed(0)} lx ± [\\d.]+ lx \\*`));
+    // The summary writes the direction of the bound (≥ at least), not a bare mark.
+    expect(text).toContain(`≥ ${formatDisplayNumber(office.eavg)} lx ± ${formatDisplayNumber(office.uEavg)} lx`);
     expect(text).toContain(BOUND_FOOTNOTE.slice(0, 50));
     expect(text).toContain('(a lower bound)');
+    expect(text).not.toMatch(/lx \*/);
+    // The zone plot's legend explains the triangle drawn for the over-range point.
+    expect(text).toContain('open triangle up: over range (at least)');
   });
 
   it('a report with no bounded figure, when generated, has no bound footnote', async () => {
@@ -108,10 +113,33 @@ describe('GET /api/surveys/:id/report.pdf', () => {
   it('a signed-off survey, when its report is generated, names who signed it off', async () => {
     const { surveyId } = buildSurvey(t, { ownerEmail: DEMO.surveyor, zones: OFFICE_AND_CORRIDOR, readings: officeAndCorridorReadings() });
     const fm = await t.signIn(DEMO.facility_manager);
-    await fm.post(`/api/surveys/${surveyId}/sign-off`).send({});
+    await fm.post(`/api/surveys/${surveyId}/sign-off`).send({ comment: 'Corridor relamping booked for January' });
     const text = await pdfText((await fm.get(`/api/surveys/${surveyId}/report.pdf`).buffer(true).parse(binary)).body);
     expect(text).toContain('Signed off by Marguerite Oakhurst');
     expect(text).not.toContain('Not signed off');
+    // The signed record on the first page: who, when (in the site's zone, labelled) and the comment.
+    const firstPage = text.slice(0, text.indexOf('Conditions'));
+    expect(firstPage).toContain('Sign-off comment Corridor relamping booked for January');
+    expect(firstPage).toMatch(/Signed off on \d{1,2} [A-Z][a-z]{2} \d{4}, \d{2}:\d{2} (GMT|BST)/);
+    expect(firstPage).toContain('Submitted by');
+  });
+});
+
+describe('report calibration block', () => {
+  it('describes a 4-20 mA transmitter by its signal range and a counting probe by its gain codes, each in its own terms', async () => {
+    const { describeCoefficientSet } = await import('@server/modules/reports/report-pdf');
+    const base = { id: 1, probeId: 1, probeDescription: '', status: 'approved', effectiveFrom: 0, dueDate: 0, certificateNumber: 'C', readings: 3 };
+    const analog = describeCoefficientSet({ ...base, probeSerial: 'RF-20-07', probeKind: 'current_4_20', version: 1, tRefMs: 100, alphaPerK: 0, tCalC: 23,
+      gains: [{ code: 0, darkCounts: 0, luxPerCount: 1, uRel: 0.015 }], analog: { rangeLowLux: 0, rangeHighLux: 200_000, scale: 'linear', accuracyPercent: 0.25 } });
+    expect(analog).toContain('4-20 mA transmitter');
+    expect(analog).toContain('4 mA = 0 lx, 20 mA = 200000 lx (linear)');
+    expect(analog).toContain('calibration uncertainty 1.50 % (k = 1)');
+    expect(analog).not.toMatch(/lx per count|dark|integration time of|°C/);
+    const counting = describeCoefficientSet({ ...base, probeSerial: 'LX-4102', probeKind: 'counts', version: 2, tRefMs: 100, alphaPerK: -0.001, tCalC: 23,
+      gains: [{ code: 0, darkCounts: 12, luxPerCount: 0.125, uRel: 0.01 }] });
+    expect(counting).toContain('Counting probe');
+    expect(counting).toContain('gain code 0: dark 12 counts, 0.125 lx per count');
+    expect(counting).toContain('integration time of 100 ms and 23 °C');
   });
 });
 
@@ -126,7 +154,7 @@ describe('CSV exports', () => {
     const rows = Papa.parse<Record<string, string>>(res.text, { header: true, skipEmptyLines: true }).data;
     const zoneRows = rows.filter((r) => r.check === 'task_plane');
     expect(zoneRows.map((r) => r.zone)).toEqual(['Fixture corridor', '\'=HYPERLINK("http://x.test","office")']);
-    expect(zoneRows[0]).toMatchObject({ use_type: 'corridor', required_em_lx: '100', em_lx: '100', limit_lx: '100', installation: 'in_service', eavg_lx: '85', verdict: 'Falls short', decision_rule: 'guarded' });
+    expect(zoneRows[0]).toMatchObject({ use_type: 'corridor', use: 'Corridor or circulation area', eavg_bound: 'exact', required_em_lx: '100', em_lx: '100', limit_lx: '100', installation: 'in_service', eavg_lx: '85', verdict: 'Falls short', decision_rule: 'guarded' });
     // The office entry (EN 12464-1:2021 shape, secondary) adds a row per further check: walls 150 lx, ceiling 100 lx, Ez 150 lx, none measured here.
     const officeChecks = rows.filter((r) => r.check !== 'task_plane' && r.zone !== 'Fixture corridor');
     expect(officeChecks.map((r) => [r.check, r.em_lx, r.u0_min, r.verdict])).toEqual([['wall', '150', '0.1', 'Not assessed'], ['ceiling', '100', '0.1', 'Not assessed'], ['cylindrical', '150', '', 'Not assessed']]);
@@ -143,7 +171,7 @@ describe('CSV exports', () => {
     expect(rows).toHaveLength(readings.length);
     expect(rows[0]).toMatchObject({ point: '\'@SUM(1+1)', zone: 'Fixture office', in_wall_band: 'no' });
     expect(rows[1].point).toBe('\'-2+3');
-    expect(rows.find((r) => r.point === 'wall-dark')).toMatchObject({ zone: 'Fixture office', in_wall_band: 'yes', lux: '30' });
+    expect(rows.find((r) => r.point === 'wall-dark')).toMatchObject({ zone: 'Fixture office', in_wall_band: 'yes', illuminance_lx: '30', illuminance_bound: 'exact' });
   });
 });
 

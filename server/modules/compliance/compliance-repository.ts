@@ -59,6 +59,8 @@ export type UsedCoefficientSet = {
   id: number; probeId: number; probeSerial: string; probeKind: string; probeDescription: string; version: number; status: string;
   effectiveFrom: number; dueDate: number; certificateNumber: string; tRefMs: number; alphaPerK: number; tCalC: number;
   gains: { code: number; darkCounts: number; luxPerCount: number; uRel: number }[]; readings: number;
+  /** A transmitter's signal range and accuracy (absent for counting probes and in sign-offs frozen before it was kept). */
+  analog?: { rangeLowLux: number; rangeHighLux: number; scale: 'linear' | 'log10'; accuracyPercent: number };
 };
 
 /** The coefficient sets (and their probes) the given readings were decoded with. */
@@ -72,5 +74,8 @@ export function loadUsedCoefficientSets(db: Db, readingsUsed: JudgeReading[]): U
       id: set.id, probeId: probe.id, probeSerial: probe.serial, probeKind: probe.kind, probeDescription: probe.description, version: set.version, status: set.status,
       effectiveFrom: set.effectiveFrom, dueDate: set.dueDate, certificateNumber: set.certificateNumber, tRefMs: set.tRefMs, alphaPerK: set.alphaPerK, tCalC: set.tCalC,
       gains: set.gains.map((g) => ({ code: g.code, darkCounts: g.darkCounts, luxPerCount: g.luxPerCount, uRel: g.uRel })), readings: counts.get(set.id) ?? 0,
+      ...(probe.kind !== 'counts' && probe.rangeLowLux !== null && probe.rangeHighLux !== null
+        ? { analog: { rangeLowLux: probe.rangeLowLux, rangeHighLux: probe.rangeHighLux, scale: probe.scale ?? 'linear', accuracyPercent: probe.accuracyPercent ?? 0 } }
+        : {}),
     }));
 }

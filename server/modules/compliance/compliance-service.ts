@@ -2,6 +2,7 @@ import { and, desc, eq, ne, sql } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { surveys } from '../../db/schema/surveys';
 import { sites } from '../../db/schema/sites';
+import { users } from '../../db/schema/organizations';
 import { RULE_TEXT, type AcceptanceRule } from '@shared/core/decision';
 import { GRID_RULE } from '@shared/core/zone-stats';
 import type { SessionUser } from '@shared/schemas/auth';
@@ -106,7 +107,9 @@ export function previousSignedOff(db: Db, survey: SurveyRow): SurveyRow | null {
   return candidates.find((c) => key(c) < key(survey)) ?? null;
 }
 
-const siteNameOf = (db: Db, siteId: number) => db.select({ name: sites.name }).from(sites).where(eq(sites.id, siteId)).get()?.name ?? '';
+const siteOf = (db: Db, siteId: number) => db.select({ name: sites.name, timeZone: sites.timeZone }).from(sites).where(eq(sites.id, siteId)).get() ?? { name: '', timeZone: 'UTC' };
+const userNameOf = (db: Db, id: number | null) => (id === null ? null : db.select({ name: users.name }).from(users).where(eq(users.id, id)).get()?.name ?? null);
+const isoOrNull = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
 
 const strip = ({ polygon: _p, readingIds: _r, wallBandReadingIds: _w, otherPlaneReadingIds: _o, pointDf: _d, ...zone }: JudgedZone): ZoneCompliance => zone;
 
@@ -147,9 +150,12 @@ export function complianceOf(db: Db, survey: SurveyRow, v: ReturnType<typeof sur
       },
     };
   });
+  const site = siteOf(db, survey.siteId);
   return {
-    surveyId: survey.id, surveyName: survey.name, siteId: survey.siteId, siteName: siteNameOf(db, survey.siteId), startedOn: survey.startedOn,
-    status: survey.status, reviewComment: survey.reviewComment, rule: v.rule, ruleText: RULE_TEXT[v.rule], gridRule: v.frozen?.gridRule ?? GRID_RULE,
+    surveyId: survey.id, surveyName: survey.name, siteId: survey.siteId, siteName: site.name, siteTimeZone: site.timeZone, startedOn: survey.startedOn,
+    status: survey.status, reviewComment: survey.reviewComment,
+    submittedByName: userNameOf(db, survey.submittedBy), submittedAt: isoOrNull(survey.submittedAt),
+    signedOffByName: userNameOf(db, survey.signedOffBy), signedOffAt: isoOrNull(survey.signedOffAt), rule: v.rule, ruleText: RULE_TEXT[v.rule], gridRule: v.frozen?.gridRule ?? GRID_RULE,
     frozen: v.frozen !== null, frozenAt: v.frozen ? new Date(v.frozen.frozenAt).toISOString() : null, hasDaylightReference: v.hasDaylightReference,
     installation: v.installation, installationText: installationSummary(coreInstallation(v.installation)),
     counts: countVerdicts(zones), zones, unassignedPoints: v.unassignedPoints,

@@ -18,6 +18,16 @@ import { polygonAreaM2, polygonCentre, type PlanPoint } from '@shared/spatial/po
 import { bandArea, deriveTaskBands, pointInBand, pointInPolygon } from '@shared/spatial/task-bands';
 import { INFO_ONLY_NOTE } from '@shared/schemas/targets';
 import type { CheckKind, ZoneCheck } from '@shared/schemas/compliance';
+import { labelOfUseType } from '@shared/schemas/zones';
+
+/**
+ * Daylight swamps an electric-lighting target when an outdoor zone reads this many times its Em:
+ * the figure then describes the sky, not the luminaires (our own threshold, not from a standard).
+ */
+export const DAYLIGHT_SWAMP_RATIO = 10;
+
+/** What applies to outdoor areas while Luxtrail has no outdoor grid rule (EN 12464-2 states its own grids). */
+export const OUTDOOR_GRID_NOTE = 'The indoor grid rule (EN 12464-1) is not applied to outdoor areas; Luxtrail has no outdoor grid rule yet, so check the point spacing against EN 12464-2 or the local code.';
 
 /** Fewer valid points than this give no uniformity worth judging: the zone is not assessed (project's own choice). */
 export const MIN_ASSESSABLE_POINTS = 3;
@@ -174,9 +184,12 @@ export function judgeZones(input: {
     const extent = zoneExtent(z.polygon);
     // Task areas keep their edge points (shared/spatial never marks them), so no band is taken off their grid either.
     const band = z.kind === 'room' ? z.wallBandM : 0;
-    const grid = gridAdequacy(stats.validPoints, extent.a, extent.b, band);
+    const outdoor = z.kind === 'outdoor';
+    // The indoor grid rule is not applied outdoors: no points are asked for, and the note says what applies.
+    const grid = outdoor ? { required: 0, adequate: true } : gridAdequacy(stats.validPoints, extent.a, extent.b, band);
     const reasons: string[] = [];
-    if (!extent.rectangular) reasons.push(`Grid required from the zone's bounding box (${extent.a.toFixed(1)} m x ${extent.b.toFixed(1)} m).`);
+    if (outdoor) reasons.push(OUTDOOR_GRID_NOTE);
+    if (!outdoor && !extent.rectangular) reasons.push(`Grid required from the zone's bounding box (${extent.a.toFixed(1)} m x ${extent.b.toFixed(1)} m).`);
     if (wallBand.length > 0) reasons.push(`${wallBand.length} point(s) in the ${z.wallBandM} m wall band left out.`);
     const lapsed = included.filter((r) => r.flag === 'calibration_lapsed').length;
     if (lapsed > 0) reasons.push(`${lapsed} point(s) were taken with a probe whose calibration had lapsed.`);
@@ -189,7 +202,7 @@ export function judgeZones(input: {
     let verdict: ZoneVerdict;
     if (!z.target) {
       verdict = 'not_assessed';
-      reasons.unshift(`No target in the library for use type "${z.useType}".`);
+      reasons.unshift(`No target in the library for “${labelOfUseType(z.useType)}”.`);
     } else if (stats.validPoints < MIN_ASSESSABLE_POINTS) {
       verdict = 'not_assessed';
       reasons.unshift(stats.validPoints === 0
@@ -202,6 +215,10 @@ export function judgeZones(input: {
     }
     if (!grid.adequate && stats.validPoints > 0) reasons.push(`${stats.validPoints} of ${grid.required} points the grid rule asks for (${GRID_RULE}).`);
     reasons.push(...stats.reasons);
+    // First among the reasons: the verdict above describes the sky, not the luminaires.
+    if (outdoor && z.target && stats.eavg !== null && stats.eavg >= DAYLIGHT_SWAMP_RATIO * z.target.emLux) {
+      reasons.unshift(`Measured in daylight: the average is at least ${DAYLIGHT_SWAMP_RATIO} times the ${z.target.emLux} lx target, so it shows the sky, not the electric lighting. Measure again after dark to judge the lighting.`);
+    }
 
     let dfAvg: number | undefined;
     let dfWarning: string | undefined;
@@ -215,6 +232,7 @@ export function judgeZones(input: {
       if (refused > 0) reasons.push(`${refused} point(s) could not be paired with the outdoor reference.`);
       const fast = pairs.filter((p) => p.ok && p.warning !== null);
       if (fast.length > 0) dfWarning = `The outdoor level changed too fast around ${fast.length} of ${pairs.length} point(s): the daylight factor is unreliable.`;
+      if (dfAvg !== undefined) reasons.push('Daylight factors assume the electric lighting was off while these points were measured; Luxtrail cannot tell from the log, and with the lighting on they read too high.');
       if (dfAvg !== undefined && z.target?.dfTargetPercent) reasons.push(`Average daylight factor ${dfAvg.toFixed(1)} % against ${z.target.dfTargetPercent} % (informative, not part of the verdict).`);
     }
 
@@ -268,7 +286,7 @@ export function judgeZones(input: {
         design: { basis: design!.basis, steps: design!.steps, explanation: design!.explanation, modifiers: z.contextModifiers ?? [] },
         info: { ra: z.target.ra ?? null, rugl: z.target.rugl ?? null, note: INFO_ONLY_NOTE },
       } : {}),
-      points: stats.validPoints, requiredPoints: grid.required, gridAdequate: grid.adequate, wallBandPoints: wallBand.length,
+      points: stats.validPoints, requiredPoints: grid.required, gridAdequate: grid.adequate, gridRuleApplies: !outdoor, wallBandPoints: wallBand.length,
       eavg: stats.eavg, emin: stats.validPoints ? stats.emin : null, emax: stats.validPoints ? stats.emax : null, u0: stats.u0, uEavg: stats.uEavg,
       bounds: { eavg: stats.bounded.eavg, emin: stats.bounded.emin, u0: stats.bounded.u0 },
       ...(dfAvg !== undefined ? { dfAvg } : {}),
@@ -283,6 +301,8 @@ export function judgeZones(input: {
     };
   });
   if (unassigned > 0) warnings.push(`${unassigned} task reading(s) lie in no zone and are not judged.`);
+  const swamped = zones.filter((z) => z.reasons[0]?.startsWith('Measured in daylight')).map((z) => z.name);
+  if (swamped.length > 0) warnings.push(`Daylight swamps the electric-lighting target in ${swamped.join(', ')}: those figures show the sky, not the lighting.`);
   return { zones: worstFirst(zones), unassignedPoints: unassigned, hasDaylightReference, warnings };
 }
 

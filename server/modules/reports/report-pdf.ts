@@ -4,6 +4,9 @@ import { luxToFootcandles } from '@shared/core/units';
 import { COVERAGE_K } from '@shared/core/uncertainty';
 import { CONFIDENCE_LABELS } from '@shared/schemas/targets';
 import { CHECK_LABELS, VERDICT_LABELS, type ZoneVerdict } from '@shared/schemas/compliance';
+import { labelOfUseType, ZONE_KIND_LABELS } from '@shared/schemas/zones';
+import { formatDisplayNumber } from '@shared/display-number';
+import { formatCalendarDay, formatDateTime as formatSiteDateTime, formatDay } from '@shared/datetime';
 import type { ReportData } from './report-data';
 
 const require = createRequire(import.meta.url);
@@ -75,8 +78,9 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
   keyValues(doc, [
     ['Site', `${data.site.name}${data.site.address ? `, ${data.site.address}` : ''}`],
     ['Survey', data.survey.name],
-    ['Surveyed on', data.survey.startedOn ?? 'not stated'],
+    ['Surveyed on', data.survey.startedOn ? formatCalendarDay(data.survey.startedOn) : 'not stated'],
     ['Status', statusLine(data, when)],
+    ...signedRecord(data, when),
     ['Report generated', when(data.generatedAt)],
     ['Values in', unit === 'fc' ? 'foot-candles (1 fc = 10.7639 lx)' : 'lux'],
   ]);
@@ -120,15 +124,16 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
   ], data.zones.map((z) => [
     `${z.name} (${z.planName})`,
     z.targetLux === null ? 'none' : `${u(z.targetLux)} / ${z.targetU0 ?? '-'}`,
-    uWith(z.eavg, z.uEavg) + boundMark(z.bounds.eavg),
-    u(z.emin) + boundMark(z.bounds.emin),
-    z.u0 === null ? 'n/a' : z.u0.toFixed(2) + boundMark(z.bounds.u0),
-    `${z.points} / ${z.requiredPoints}`,
+    boundSign(z.bounds.eavg) + uWith(z.eavg, z.uEavg),
+    boundSign(z.bounds.emin) + u(z.emin),
+    z.u0 === null ? 'n/a' : boundSign(z.bounds.u0) + formatDisplayNumber(z.u0),
+    z.gridRuleApplies === false ? `${z.points} (outdoor)` : `${z.points} / ${z.requiredPoints}`,
     { text: VERDICT_LABELS[z.verdict], colour: VERDICT_COLOURS[z.verdict] },
     z.change ? `${z.change.deltaEavg === null ? 'n/a' : signed(z.change.deltaEavg, unit)}${z.change.verdictChanged ? `, was ${VERDICT_LABELS[z.change.previousVerdict].toLowerCase()}` : ''}` : '-',
   ]));
-  if (data.zones.some((z) => boundMark(z.bounds.eavg) || boundMark(z.bounds.emin) || boundMark(z.bounds.u0))) {
-    doc.moveDown(0.3).font('body').fontSize(8.5).fillColor(MUTED).text(BOUND_FOOTNOTE);
+  if (data.zones.some((z) => z.bounds.eavg || z.bounds.emin || z.bounds.u0)) {
+    doc.moveDown(0.3).fontSize(8.5).fillColor(MUTED);
+    textWithSymbols(doc, 'body', BOUND_FOOTNOTE, null, { width: CONTENT_W });
   }
   if (c.warnings.length) {
     doc.moveDown(0.5).font('bold').fontSize(9).fillColor(INK).text('Notes');
@@ -142,7 +147,7 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
   for (const z of data.zones) {
     doc.addPage();
     doc.font('bold').fontSize(15).fillColor(INK).text(z.name);
-    doc.font('body').fontSize(10).fillColor(MUTED).text(`${z.planName} - ${z.kind.replace('_', ' ')} - use type ${z.useType} - working plane ${z.planeHeightM.toFixed(2)} m`);
+    doc.font('body').fontSize(10).fillColor(MUTED).text(`${z.planName} - ${ZONE_KIND_LABELS[z.kind]} - ${labelOfUseType(z.useType)} - working plane ${z.planeHeightM.toFixed(2)} m`);
     doc.moveDown(0.4).font('bold').fontSize(12).fillColor(VERDICT_COLOURS[z.verdict]).text(VERDICT_LABELS[z.verdict]);
     doc.moveDown(0.3);
     drawZonePlan(doc, z, u);
@@ -154,10 +159,12 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
       ...(z.info && (z.info.ra !== null || z.info.rugl !== null) ? [['Ra / RUGL', `${z.info.ra ?? '-'} / ${z.info.rugl ?? '-'} (for information: ${z.info.note})`] as [string, string]] : []),
       ...(z.modelling ? [['Modelling Ez / Eh', `${z.modelling.ratio.toFixed(2)} (${z.modelling.withinRecommendation ? 'within' : 'outside'} 0.30 to 0.60, ${z.modelling.source}; informative)`] as [string, string]] : []),
       ['Source', z.targetSource ? `${z.targetSource} (${CONFIDENCE_LABELS[z.targetConfidence!]})` : 'n/a'],
-      ['Eavg', uWith(z.eavg, z.uEavg) + boundNote(z.bounds.eavg)],
-      ['Emin / Emax', `${u(z.emin)}${boundNote(z.bounds.emin)} / ${u(z.emax)}`],
-      ['U0 = Emin / Eavg', z.u0 === null ? 'n/a' : z.u0.toFixed(2) + boundNote(z.bounds.u0)],
-      ['Points', `${z.points} used, ${z.requiredPoints} required by the grid rule, ${z.wallBandPoints} in the wall band`],
+      ['Eavg', boundSign(z.bounds.eavg) + uWith(z.eavg, z.uEavg) + boundNote(z.bounds.eavg)],
+      ['Emin / Emax', `${boundSign(z.bounds.emin)}${u(z.emin)}${boundNote(z.bounds.emin)} / ${u(z.emax)}`],
+      ['U0 = Emin / Eavg', z.u0 === null ? 'n/a' : boundSign(z.bounds.u0) + formatDisplayNumber(z.u0) + boundNote(z.bounds.u0)],
+      ['Points', z.gridRuleApplies === false
+        ? `${z.points} used; the indoor grid rule is not applied to outdoor areas`
+        : `${z.points} used, ${z.requiredPoints} required by the grid rule, ${z.wallBandPoints} in the wall band`],
       ...(z.dfAvg !== undefined ? [['Daylight factor', `${z.dfAvg.toFixed(1)} % average${z.dfWarning ? ` (${z.dfWarning})` : ''}`] as [string, string]] : []),
       ...(z.change ? [['Previous survey', `Eavg ${u(z.change.previousEavg)}, ${VERDICT_LABELS[z.change.previousVerdict].toLowerCase()}`] as [string, string]] : []),
     ]);
@@ -177,8 +184,8 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
       ], z.checks.map((k) => [
         CHECK_LABELS[k.kind],
         k.targetLux === null ? 'not given' : `${u(k.targetLux)}${k.limitLux !== null && k.limitLux !== k.targetLux ? ` (${u(k.limitLux)})` : ''}`,
-        uWith(k.eavg, k.uEavg) + boundMark(k.bounds.eavg),
-        `${k.u0 === null ? 'n/a' : k.u0.toFixed(2)}${k.u0Min !== null ? ` (${k.u0Min})` : ''}`,
+        boundSign(k.bounds.eavg) + uWith(k.eavg, k.uEavg),
+        `${k.u0 === null ? 'n/a' : boundSign(k.bounds.u0) + formatDisplayNumber(k.u0)}${k.u0Min !== null ? ` (${k.u0Min})` : ''}`,
         String(k.points),
         { text: VERDICT_LABELS[k.verdict], colour: VERDICT_COLOURS[k.verdict] },
       ]));
@@ -203,16 +210,13 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
       { title: 'Due', width: 80 },
       { title: 'Readings', width: CONTENT_W - 440 },
     ], data.coefficientSets.map((s) => [
-      s.probeSerial, s.probeKind.replace(/_/g, ' '), `v${s.version}`, s.certificateNumber, formatDate(s.effectiveFrom, data.site.timeZone),
-      { text: formatDate(s.dueDate, data.site.timeZone) + (surveyTime(data) > s.dueDate ? ' (lapsed)' : ''), colour: surveyTime(data) > s.dueDate ? VERDICT_COLOURS.falls_short : INK },
+      s.probeSerial, PROBE_KIND_LABELS[s.probeKind as keyof typeof PROBE_KIND_LABELS] ?? s.probeKind, `v${s.version}`, s.certificateNumber, formatDay(s.effectiveFrom, data.site.timeZone),
+      { text: formatDay(s.dueDate, data.site.timeZone) + (surveyTime(data) > s.dueDate ? ' (lapsed)' : ''), colour: surveyTime(data) > s.dueDate ? VERDICT_COLOURS.falls_short : INK },
       String(s.readings),
     ]));
     doc.moveDown(0.5).font('bold').fontSize(9.5).fillColor(INK).text('Coefficient sets');
     doc.font('body').fontSize(8.5).fillColor(INK);
-    for (const s of data.coefficientSets) {
-      const gains = s.gains.map((g) => `g${g.code}: dark ${g.darkCounts}, ${g.luxPerCount.toPrecision(4)} lx/count, u ${(g.uRel * 100).toFixed(1)} %`).join('; ');
-      doc.text(`${s.probeSerial} v${s.version} (tRef ${s.tRefMs} ms, alpha ${s.alphaPerK}/K, Tcal ${s.tCalC} C): ${gains}`, { width: CONTENT_W });
-    }
+    for (const set of data.coefficientSets) textWithSymbols(doc, 'body', describeCoefficientSet(set), null, { width: CONTENT_W });
   }
   section(doc, 'Uncertainty');
   doc.font('body').fontSize(10).fillColor(INK).text(UNCERTAINTY_STATEMENT, { width: CONTENT_W });
@@ -240,6 +244,18 @@ function surveyTime(data: ReportData): number {
   return times.length ? Math.max(...times) : data.generatedAt;
 }
 
+/** The sign-off as recorded: who, when and the signer's comment (on the first page). */
+function signedRecord(data: ReportData, when: (ms: number | null) => string): [string, string][] {
+  const s = data.survey;
+  if (s.status !== 'signed_off') return [];
+  return [
+    ['Signed off by', data.signedOffByName ?? 'unknown'],
+    ['Signed off on', when(s.signedOffAt)],
+    ['Sign-off comment', s.reviewComment?.trim() ? s.reviewComment : 'none given'],
+    ['Submitted by', `${data.submittedByName ?? 'unknown'} on ${when(s.submittedAt)}`],
+  ];
+}
+
 function statusLine(data: ReportData, when: (ms: number | null) => string): string {
   const s = data.survey;
   if (s.status === 'signed_off') return `Signed off by ${data.signedOffByName ?? 'unknown'} on ${when(s.signedOffAt)}`;
@@ -248,28 +264,46 @@ function statusLine(data: ReportData, when: (ms: number | null) => string): stri
   return 'Draft';
 }
 
-/** The summary table's marker for a value that is a bound, not a measured figure (explained below the table). */
-const boundMark = (b: string | null) => (b === 'lower' || b === 'upper' || b === 'indeterminate' ? ' *' : '');
-export const BOUND_FOOTNOTE = '* A bound, not a measured value: an over- or under-range point entered this figure. Each zone\'s page says which way.';
+/** A figure that is only a bound is written with its direction: ≥ (at least) or ≤ (at most). */
+const boundSign = (b: string | null) => (b === 'lower' ? '≥ ' : b === 'upper' ? '≤ ' : b === 'indeterminate' ? 'indeterminate: ' : '');
+export const BOUND_FOOTNOTE = '≥ marks a lower bound (the true value is at least the figure: an over-range point entered it); ≤ marks an upper bound (at most: an under-range point entered it). "Indeterminate" means bounds pointed both ways.';
 const boundNote = (b: string | null) => (b === 'lower' ? ' (a lower bound)' : b === 'upper' ? ' (an upper bound)' : b === 'indeterminate' ? ' (indeterminate)' : '');
+
+const PROBE_KIND_LABELS = { counts: 'Counting probe', current_4_20: '4-20 mA transmitter', voltage_0_10: '0-10 V transmitter' } as const;
+
+/** Each probe kind described in its own terms: a counting probe by its gain codes, a transmitter by its signal range. */
+export function describeCoefficientSet(s: ReportData['coefficientSets'][number]): string {
+  const head = `${s.probeSerial} v${s.version}, ${PROBE_KIND_LABELS[s.probeKind as keyof typeof PROBE_KIND_LABELS] ?? s.probeKind}`;
+  const uCal = (uRel: number) => `calibration uncertainty ${formatDisplayNumber(uRel * 100)} % (k = 1)`;
+  if (s.probeKind === 'counts') {
+    const gains = s.gains.map((g) => `gain code ${g.code}: dark ${g.darkCounts} counts, ${g.luxPerCount} lx per count, ${uCal(g.uRel)}`).join('; ');
+    return `${head}: coefficients measured at an integration time of ${s.tRefMs} ms and ${s.tCalC} °C, temperature coefficient ${s.alphaPerK} per K. ${gains}.`;
+  }
+  const signal = s.probeKind === 'current_4_20' ? ['4 mA', '20 mA'] : ['0 V', '10 V'];
+  const range = s.analog
+    ? `${signal[0]} = ${s.analog.rangeLowLux} lx, ${signal[1]} = ${s.analog.rangeHighLux} lx (${s.analog.scale === 'log10' ? 'logarithmic: log10 of lux is linear in the signal' : 'linear'}), transmitter accuracy ± ${s.analog.accuracyPercent} % of span`
+    : 'signal range not recorded with this sign-off';
+  const uRel = s.gains[0]?.uRel;
+  return `${head}: ${range}${uRel !== undefined ? `, ${uCal(uRel)}` : ''}. Counts, gain codes, integration time and temperature correction do not apply to a transmitter.`;
+}
 
 export function formatIlluminance(lux: number | null | undefined, unit: ReportUnit): string {
   if (lux === null || lux === undefined || !Number.isFinite(lux)) return 'n/a';
-  const v = unit === 'fc' ? luxToFootcandles(lux) : lux;
-  const digits = Math.abs(v) >= 100 ? 0 : Math.abs(v) >= 10 ? 1 : 2;
-  return `${v.toFixed(digits)} ${unit}`;
+  return `${formatDisplayNumber(unit === 'fc' ? luxToFootcandles(lux) : lux)} ${unit}`;
 }
 
 function signed(lux: number, unit: ReportUnit): string {
   return `${lux >= 0 ? '+' : '-'}${formatIlluminance(Math.abs(lux), unit)}`;
 }
 
+/** The report's date and time: shared/datetime's one format, in the site's zone, labelled. */
 export function formatDateTime(ms: number, timeZone: string): string {
-  return new Intl.DateTimeFormat('en-GB', { timeZone, dateStyle: 'medium', timeStyle: 'short' }).format(ms) + ` (${timeZone})`;
+  return formatSiteDateTime(ms, timeZone);
 }
 
+/** The report's date: shared/datetime's one format, in the site's zone. */
 export function formatDate(ms: number, timeZone: string): string {
-  return new Intl.DateTimeFormat('en-GB', { timeZone, dateStyle: 'medium' }).format(ms);
+  return formatDay(ms, timeZone);
 }
 
 export function section(doc: PDFKit.PDFDocument, title: string, first = false) {
@@ -373,8 +407,16 @@ function drawZonePlan(doc: PDFKit.PDFDocument, z: ReportData['zones'][number], u
   for (const r of z.readings) {
     if (r.xM === null || r.yM === null) continue;
     const below = target !== null && r.lux !== null && r.lux < target;
-    doc.circle(tx(r.xM), ty(r.yM), 2.6).fillColor(r.lux === null ? MUTED : below ? VERDICT_COLOURS.falls_short : VERDICT_COLOURS.meets).fill();
-    if (label) doc.font('body').fontSize(5.5).fillColor(INK).text(r.lux === null ? 'fault' : u(r.lux).replace(/ (lx|fc)$/, ''), tx(r.xM) + 3.5, ty(r.yM) - 3, { lineBreak: false });
+    const colour = r.lux === null ? MUTED : below ? VERDICT_COLOURS.falls_short : VERDICT_COLOURS.meets;
+    const x = tx(r.xM), y = ty(r.yM);
+    // A bound is drawn as a triangle pointing the way the true value lies: up for "at least", down for "at most".
+    if (r.luxBound === 'lower') doc.polygon([x, y - 3.4], [x + 3.2, y + 2.4], [x - 3.2, y + 2.4]).lineWidth(0.9).strokeColor(colour).stroke();
+    else if (r.luxBound === 'upper') doc.polygon([x, y + 3.4], [x + 3.2, y - 2.4], [x - 3.2, y - 2.4]).lineWidth(0.9).strokeColor(colour).stroke();
+    else doc.circle(x, y, 2.6).fillColor(colour).fill();
+    if (label) {
+      doc.fontSize(5.5).fillColor(INK);
+      textWithSymbols(doc, 'body', r.lux === null ? 'fault' : boundSign(r.luxBound === 'exact' ? null : r.luxBound) + u(r.lux).replace(/ (lx|fc)$/, ''), { x: x + 3.5, y: y - 3 }, { lineBreak: false });
+    }
   }
   for (const r of z.wallBandReadings) {
     if (r.xM === null || r.yM === null) continue;
@@ -387,8 +429,8 @@ function drawZonePlan(doc: PDFKit.PDFDocument, z: ReportData['zones'][number], u
   doc.moveTo(MARGIN + pad, barY).lineTo(MARGIN + pad + niceM * s, barY).lineWidth(1.5).strokeColor(INK).stroke();
   doc.font('body').fontSize(7).fillColor(INK).text(`${niceM} m`, MARGIN + pad + niceM * s + 4, barY - 4, { lineBreak: false });
   doc.font('body').fontSize(7).fillColor(MUTED).text(
-    target !== null ? 'Filled green: at or above Em; filled red: below Em; hollow: wall band (left out); grey: fault.' : 'Filled: points used; hollow: wall band (left out).',
-    MARGIN + boxW / 2 - 40, barY - 4, { width: boxW / 2 + 30, align: 'right', lineBreak: false },
+    `${target !== null ? 'Filled green: at or above Em; filled red: below Em' : 'Filled: points used'}; open triangle up: over range (at least); down: under range (at most); hollow circle: wall band (left out)${target !== null ? '; grey: fault' : ''}.`,
+    MARGIN + boxW / 4, barY - 4, { width: boxW * 3 / 4 - 8, align: 'right', lineBreak: false },
   );
   doc.x = MARGIN;
   doc.y = top + boxH + 8;

@@ -2,6 +2,7 @@ import { useMemo, useState } from 'react';
 import { Link, useParams } from 'react-router';
 import { TriangleAlert } from 'lucide-react';
 import { can } from '@shared/policy';
+import { formatCalendarDay } from '@shared/datetime';
 import { SURVEY_STATUS_LABELS } from '@shared/schemas/surveys';
 import { VERDICT_LABELS, VERDICTS, type ComplianceResponse } from '@shared/schemas/compliance';
 import type { Zone } from '@shared/schemas/zones';
@@ -41,7 +42,7 @@ export function SurveyComplianceRoute() {
             <PageHeader
               eyebrow={<Link to={paths.compliance.to()} className="hover:underline">{c.siteName}</Link>}
               title={c.surveyName}
-              description={`${c.startedOn ?? 'No date'} · ${c.counts.meets} meet, ${c.counts.falls_short} fall short, ${c.counts.inconclusive} inconclusive, ${c.counts.not_assessed} not assessed`}
+              description={`${c.startedOn ? formatCalendarDay(c.startedOn) : 'No date'} · ${c.counts.meets} meet, ${c.counts.falls_short} fall short, ${c.counts.inconclusive} inconclusive, ${c.counts.not_assessed} not assessed`}
               actions={<Badge tone={c.status === 'signed_off' ? 'good' : c.status === 'returned' ? 'unsure' : 'info'}>{SURVEY_STATUS_LABELS[c.status]}</Badge>}
             />
             <RuleNote rule={c.rule} ruleText={c.ruleText} frozen={c.frozen} />
@@ -58,7 +59,7 @@ export function SurveyComplianceRoute() {
             </Card>
             <Card>
               <CardHeader title="Review" description={c.previous ? `Compared with “${c.previous.name}”, the previous signed-off survey of this site.` : 'No earlier signed-off survey of this site to compare with.'} />
-              <CardBody><WorkflowActions surveyId={surveyId} status={c.status} abilities={c.abilities} reviewComment={c.reviewComment} /></CardBody>
+              <CardBody><WorkflowActions surveyId={surveyId} status={c.status} abilities={c.abilities} reviewComment={c.reviewComment} record={c} /></CardBody>
             </Card>
             <Card>
               <CardHeader title="Zones, worst first" description={`Grid rule: ${c.gridRule}`} />

@@ -11,6 +11,7 @@ import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { Page, PageHeader } from '@/components/ui/page';
 import { EmptyState, QueryState } from '@/components/ui/states';
 import { paths } from '@shared/paths';
+import { labelOfUseType, ZONE_KIND_LABELS } from '@shared/schemas/zones';
 
 /** One zone of a survey: its points, statistics, target and source. */
 export function ZoneComplianceRoute() {
@@ -26,7 +27,7 @@ export function ZoneComplianceRoute() {
         {(d) => (
           <div className="space-y-6">
             <PageHeader eyebrow={<Link to={paths.surveyCompliance.to(surveyId)} className="hover:underline">Back to the survey</Link>} title={d.zone.name}
-              description={`${d.zone.planName} · ${d.zone.kind.replace('_', ' ')} · use type ${d.zone.useType}`} />
+              description={`${d.zone.planName} · ${ZONE_KIND_LABELS[d.zone.kind]} · ${labelOfUseType(d.zone.useType)}`} />
             <RuleNote rule={d.rule} ruleText={d.ruleText} frozen={d.frozen} />
             <ZoneSummaryCards detail={d} />
             <ZoneChecksCard detail={d} />

@@ -7,5 +7,5 @@ export const returnSurvey = ({ surveyId, ...body }: ReturnSurveyBody & { surveyI
 
 export function useReturnSurvey() {
   const invalidate = useInvalidateCompliance();
-  return useMutation({ mutationFn: returnSurvey, onSuccess: (s) => invalidate(s.surveyId) });
+  return useMutation({ mutationFn: returnSurvey, onSuccess: (s) => { void invalidate(s.surveyId, s); } });
 }

@@ -7,5 +7,5 @@ export const signOffSurvey = ({ surveyId, ...body }: SignOffBody & { surveyId: n
 
 export function useSignOffSurvey() {
   const invalidate = useInvalidateCompliance();
-  return useMutation({ mutationFn: signOffSurvey, onSuccess: (s) => invalidate(s.surveyId) });
+  return useMutation({ mutationFn: signOffSurvey, onSuccess: (s) => { void invalidate(s.surveyId, s); } });
 }

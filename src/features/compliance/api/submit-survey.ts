@@ -7,5 +7,5 @@ export const submitSurvey = ({ surveyId, ...body }: SubmitSurveyBody & { surveyI
 
 export function useSubmitSurvey() {
   const invalidate = useInvalidateCompliance();
-  return useMutation({ mutationFn: submitSurvey, onSuccess: (s) => invalidate(s.surveyId) });
+  return useMutation({ mutationFn: submitSurvey, onSuccess: (s) => { void invalidate(s.surveyId, s); } });
 }

@@ -1,4 +1,5 @@
 import { Link } from 'react-router';
+import { formatCalendarDay } from '@shared/datetime';
 import { Building2, ChevronRight } from 'lucide-react';
 import type { SiteOverview } from '@shared/schemas/compliance';
 import { SURVEY_STATUS_LABELS } from '@shared/schemas/surveys';
@@ -6,7 +7,7 @@ import { Badge } from '@/components/ui/badge';
 import { VerdictBadge } from './verdict-badge';
 import { paths } from '@shared/paths';
 
-/** Each site with its latest survey and how many zones meet, fall short or are inconclusive. */
+/** Each site with its latest survey and how many zones meet, fall short, are inconclusive or not assessed (always all four). */
 export function SitesOverviewList({ sites }: { sites: SiteOverview[] }) {
   return (
     <ul className="grid gap-4 lg:grid-cols-2" aria-label="Sites">
@@ -24,7 +25,7 @@ export function SitesOverviewList({ sites }: { sites: SiteOverview[] }) {
               <span className="flex items-center justify-between gap-2 text-sm">
                 <span className="min-w-0">
                   <span className="block font-medium text-ink-900">{s.latestSurvey.name}</span>
-                  <span className="block text-xs text-ink-500">{s.latestSurvey.startedOn ?? 'No date'} · {SURVEY_STATUS_LABELS[s.latestSurvey.status]}</span>
+                  <span className="block text-xs text-ink-500">{s.latestSurvey.startedOn ? formatCalendarDay(s.latestSurvey.startedOn) : 'No date'} · {SURVEY_STATUS_LABELS[s.latestSurvey.status]}</span>
                 </span>
                 <ChevronRight className="h-4 w-4 shrink-0 text-ink-300 group-hover:text-lamp-600" aria-hidden />
               </span>
@@ -32,7 +33,7 @@ export function SitesOverviewList({ sites }: { sites: SiteOverview[] }) {
                 <CountBadge n={s.counts.meets} verdict="meets" />
                 <CountBadge n={s.counts.falls_short} verdict="falls_short" />
                 <CountBadge n={s.counts.inconclusive} verdict="inconclusive" />
-                {s.counts.not_assessed > 0 && <CountBadge n={s.counts.not_assessed} verdict="not_assessed" />}
+                <CountBadge n={s.counts.not_assessed} verdict="not_assessed" />
               </span>
             </Link>
           ) : (

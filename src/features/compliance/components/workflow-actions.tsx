@@ -4,6 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { CheckCheck, Send, Undo2 } from 'lucide-react';
 import type { SurveyAbilities, SurveyStatus } from '@shared/schemas/surveys';
 import { returnSurveyBodySchema, type ReturnSurveyBody } from '@shared/schemas/workflow';
+import { formatDateTime } from '@shared/datetime';
 import { Button } from '@/components/ui/button';
 import { TextAreaField } from '@/components/ui/field';
 import { FormError } from '@/components/ui/form-error';
@@ -11,10 +12,13 @@ import { useSubmitSurvey } from '../api/submit-survey';
 import { useSignOffSurvey } from '../api/sign-off-survey';
 import { useReturnSurvey } from '../api/return-survey';
 
-type Props = { surveyId: number; status: SurveyStatus; abilities: SurveyAbilities; reviewComment: string | null; onChanged?: () => unknown };
+/** The signed record as the verdicts answer it (names, times, the site's zone). */
+export type SignedRecord = { submittedByName: string | null; submittedAt: string | null; signedOffByName: string | null; signedOffAt: string | null; siteTimeZone: string };
 
-/** Submit, sign off or return with a comment, as the survey's abilities (from the server) allow. */
-export function WorkflowActions({ surveyId, status, abilities, reviewComment, onChanged }: Props) {
+type Props = { surveyId: number; status: SurveyStatus; abilities: SurveyAbilities; reviewComment: string | null; record?: SignedRecord; onChanged?: () => unknown };
+
+/** Submit, sign off or return with a comment, as the survey's abilities (from the server) allow; once signed off, the signed record. */
+export function WorkflowActions({ surveyId, status, abilities, reviewComment, record, onChanged }: Props) {
   const submit = useSubmitSurvey();
   const signOff = useSignOffSurvey();
   const giveBack = useReturnSurvey();
@@ -29,7 +33,18 @@ export function WorkflowActions({ surveyId, status, abilities, reviewComment, on
   return (
     <div className="space-y-3">
       {status === 'returned' && reviewComment && <p className="rounded-lg bg-unsure-50 p-3 text-sm text-unsure-700 ring-1 ring-unsure-100"><strong>Returned:</strong> {reviewComment}</p>}
-      {status === 'signed_off' && <p className="text-sm text-ink-600">Signed off: read-only. Verdicts, targets, coefficient sets and the decision rule are frozen.{reviewComment ? ` Comment: ${reviewComment}` : ''}</p>}
+      {status === 'signed_off' && (
+        <div className="space-y-2 text-sm">
+          <dl className="grid gap-x-4 gap-y-1 sm:grid-cols-[auto_1fr]" aria-label="Signed record">
+            <dt className="text-ink-500">Signed off by</dt><dd className="font-medium">{record?.signedOffByName ?? 'unknown'}</dd>
+            <dt className="text-ink-500">Signed off on</dt><dd className="num">{record?.signedOffAt ? formatDateTime(record.signedOffAt, record.siteTimeZone) : '–'}</dd>
+            <dt className="text-ink-500">Comment</dt><dd>{reviewComment?.trim() ? reviewComment : <span className="text-ink-500">none given</span>}</dd>
+            {record?.submittedByName && <><dt className="text-ink-500">Submitted by</dt><dd>{record.submittedByName}{record.submittedAt ? `, ${formatDateTime(record.submittedAt, record.siteTimeZone)}` : ''}</dd></>}
+          </dl>
+          <p className="text-ink-600">Read-only: verdicts, targets, coefficient sets and the decision rule are frozen.</p>
+        </div>
+      )}
+      {status === 'submitted' && record?.submittedByName && <p className="text-sm text-ink-600">Submitted by {record.submittedByName}{record.submittedAt ? ` on ${formatDateTime(record.submittedAt, record.siteTimeZone)}` : ''}.</p>}
       {status === 'submitted' && abilities.return && !abilities.signOff && <p className="text-sm text-ink-600">You submitted this survey, so another reviewer signs it off (four-eyes rule). You can still return it.</p>}
       <FormError error={submit.error ?? signOff.error ?? giveBack.error} />
       <div className="flex flex-wrap gap-2">

@@ -4,6 +4,7 @@ import { Badge } from '@/components/ui/badge';
 import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { formatNumber, useUnits } from '@/lib/units';
 import { VerdictBadge } from './verdict-badge';
+import { labelOfUseType } from '@shared/schemas/zones';
 
 const asBound = (b: string | null) => (b === 'lower' || b === 'upper' ? b : 'exact') as 'exact' | 'lower' | 'upper';
 
@@ -57,7 +58,7 @@ export function ZoneSummaryCards({ detail }: { detail: ZoneDetailResponse }) {
                 <p className="text-ink-700">Modelling Ēz / Ēh = {z.modelling.ratio.toFixed(2)} ({z.modelling.withinRecommendation ? 'within' : 'outside'} 0.30 to 0.60; {z.modelling.source}, informative).</p>
               )}
             </>
-          ) : <p className="text-ink-600">No library entry for use type <code>{z.useType}</code>.</p>}
+          ) : <p className="text-ink-600">No library entry for “{labelOfUseType(z.useType)}”.</p>}
         </CardBody>
       </Card>
     </div>
