@@ -1,4 +1,5 @@
 import type { StatBound, ZoneStats } from './zone-stats';
+import { formatDisplayNumber } from '../display-number';
 
 export type AcceptanceRule = 'simple' | 'guarded';
 export type VerdictKind = 'meets' | 'falls_short' | 'inconclusive';
@@ -44,7 +45,8 @@ export function judgeLowerLimit(x: number | null, bound: StatBound, w: number, l
 export function decideZone(stats: ZoneStats, target: Target, rule: AcceptanceRule, options: { gridAdequate?: boolean } = {}): Verdict {
   const reasons: string[] = [];
   const checks: VerdictKind[] = [];
-  const fmt = (v: number) => (Math.abs(v) >= 10 ? v.toFixed(0) : v.toPrecision(3));
+  // The display rule the screens use, so a reason and a table show the same figure.
+  const fmt = formatDisplayNumber;
   const bw = (b: StatBound) => (b === 'lower' ? ' (a lower bound)' : b === 'upper' ? ' (an upper bound)' : '');
 
   const one = (name: string, x: number | null, bound: StatBound, u: number | null, limit: number, unit: string) => {

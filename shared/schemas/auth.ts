@@ -19,6 +19,8 @@ export const sessionUserSchema = z.object({
 export type SessionUser = z.infer<typeof sessionUserSchema>;
 
 export const meResponseSchema = z.object({ user: sessionUserSchema });
+/** Who is signed in, if anyone: answered 200 either way, so a signed-out browser logs no error. */
+export const sessionResponseSchema = z.object({ user: sessionUserSchema.nullable() });
 
 export const tokenPasswordBodySchema = z
   .object({

@@ -5,7 +5,7 @@ export type DecisionRule = (typeof DECISION_RULES)[number];
 
 export const DECISION_RULE_LABELS: Record<DecisionRule, string> = {
   simple: 'Simple acceptance',
-  guarded: 'Guarded by the expanded uncertainty',
+  guarded: 'Guarded acceptance (guard band = expanded uncertainty U)',
 };
 
 export const organizationSchema = z.object({

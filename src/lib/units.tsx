@@ -1,5 +1,6 @@
 import { createContext, useCallback, useContext, useMemo, useState, type ReactNode } from 'react';
 import { luxToFootcandles } from '@shared/core/units';
+import { formatDisplayNumber } from '@shared/display-number';
 
 export type IlluminanceUnit = 'lx' | 'fc';
 
@@ -16,14 +17,8 @@ type UnitsValue = {
 const UnitsContext = createContext<UnitsValue | null>(null);
 const STORAGE_KEY = 'luxtrail.unit';
 
-/** Three significant figures, never scientific notation for ordinary survey levels. */
-export function formatNumber(value: number): string {
-  if (!Number.isFinite(value)) return '–';
-  // Decide the digits on the value rounded to 3 significant figures, so 9.99999 shows as 10.0.
-  const abs = Math.abs(Number(value.toPrecision(3)));
-  const digits = abs >= 100 ? 0 : abs >= 10 ? 1 : abs >= 1 ? 2 : 3;
-  return value.toLocaleString('en-GB', { minimumFractionDigits: digits, maximumFractionDigits: digits });
-}
+/** The shared display rule (shared/display-number), re-exported for the client. */
+export const formatNumber = formatDisplayNumber;
 
 export function UnitsProvider({ children }: { children: ReactNode }) {
   const [unit, setUnitState] = useState<IlluminanceUnit>(() => (typeof localStorage !== 'undefined' && localStorage.getItem(STORAGE_KEY) === 'fc' ? 'fc' : 'lx'));

@@ -3,7 +3,7 @@ import type { Request, Response } from 'express';
 import { z } from 'zod';
 import type { Api } from '../../http/api';
 import type { Deps } from '../../deps';
-import { forgotPasswordBodySchema, loginBodySchema, meResponseSchema, tokenInfoResponseSchema, tokenPasswordBodySchema } from '@shared/schemas/auth';
+import { forgotPasswordBodySchema, loginBodySchema, meResponseSchema, sessionResponseSchema, tokenInfoResponseSchema, tokenPasswordBodySchema } from '@shared/schemas/auth';
 import type { SessionUser } from '@shared/schemas/auth';
 import { tooManyRequests } from '../../http/errors';
 import { authenticate, describeToken, redeemToken, requestPasswordReset } from './auth-service';
@@ -47,6 +47,9 @@ export function registerAuthRoutes(api: Api, deps: Deps) {
 
   api.route({ method: 'get', path: '/auth/me', access: 'signed_in', tag: 'auth', summary: 'The signed-in user', response: userResponse },
     ({ user }) => ({ user }));
+
+  api.route({ method: 'get', path: '/auth/session', access: 'public', tag: 'auth', summary: 'Who is signed in: the user, or null (200 either way)', response: sessionResponseSchema },
+    ({ user }) => ({ user: (user as SessionUser | null) ?? null }));
 
   const tokenQuery = z.object({ token: z.string().min(20).max(200) });
   api.route({ method: 'get', path: '/auth/tokens', access: 'public', tag: 'auth', summary: 'Who an invitation or reset link is for', query: tokenQuery, response: tokenInfoResponseSchema },

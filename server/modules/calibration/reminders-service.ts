@@ -3,7 +3,7 @@ import type { Deps } from '../../deps';
 import { calibrationReminders, probes } from '../../db/schema/calibration';
 import { organizations, users } from '../../db/schema/organizations';
 import type { ReminderRunResponse } from '@shared/schemas/coefficient-sets';
-import { DAY_MS } from '../probes/calibration-state';
+import { DAY_MS } from '@shared/datetime';
 import { probesWithCalibration } from '../probes/calibration-state';
 import { absoluteUrl, paths } from '@shared/paths';
 

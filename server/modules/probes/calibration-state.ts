@@ -5,14 +5,14 @@ import { createCoefficientSelector, isCalibrationLapsed } from '@shared/core/coe
 import type { CoefficientSet } from '@shared/core/types';
 import type { CalibrationState } from '@shared/schemas/probes';
 import { toCoreCoefficientSet } from './probe-calibration';
+import { calendarDaysBetween } from '@shared/datetime';
 
-export const DAY_MS = 86_400_000;
 
 export type CalibrationStatus = {
   /** The approved set in force at `now` (shared/core selection), or null. */
   current: CoefficientSet | null;
   state: CalibrationState;
-  /** Whole days from now to the due date, rounded down (negative: overdue). */
+  /** Calendar days (UTC) from today to the due day: 0 on the due day, negative once overdue. */
   daysUntilDue: number | null;
 };
 
@@ -21,9 +21,9 @@ export function calibrationStatus(approvedSets: readonly CoefficientSet[], now: 
   const current = createCoefficientSelector(approvedSets).select(now);
   if (!current) return { current: null, state: 'no_approved_set', daysUntilDue: null };
   if (current.dueDate === null) return { current, state: 'ok', daysUntilDue: null };
-  const daysUntilDue = Math.floor((current.dueDate - now) / DAY_MS);
+  const daysUntilDue = calendarDaysBetween(now, current.dueDate);
   if (isCalibrationLapsed(current, now)) return { current, state: 'overdue', daysUntilDue };
-  return { current, state: current.dueDate - now <= dueSoonDays * DAY_MS ? 'due_soon' : 'ok', daysUntilDue };
+  return { current, state: daysUntilDue <= dueSoonDays ? 'due_soon' : 'ok', daysUntilDue };
 }
 
 type ProbeRow = typeof probes.$inferSelect;

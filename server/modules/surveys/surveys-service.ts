@@ -94,12 +94,15 @@ function present(row: SurveyRow, site: SiteRow, count: number): Survey {
   };
 }
 
+/** Newest first by the survey's own start date; a survey with none counts from the day it was created (UTC). */
+const NEWEST_FIRST = sql`coalesce(${surveys.startedOn}, strftime('%Y-%m-%d', ${surveys.createdAt} / 1000, 'unixepoch'))`;
+
 export function listSurveys(db: Deps['db'], user: SessionUser, filter: { siteId?: number; status?: SurveyStatus } = {}): Survey[] {
   const where = siteConditions(db, user);
   if (filter.siteId) where.push(eq(surveys.siteId, filter.siteId));
   if (filter.status) where.push(eq(surveys.status, filter.status));
   const rows = db.select({ survey: surveys, site: sites }).from(surveys).innerJoin(sites, eq(sites.id, surveys.siteId))
-    .where(and(...where)).orderBy(desc(surveys.createdAt), desc(surveys.id)).all();
+    .where(and(...where)).orderBy(desc(NEWEST_FIRST), desc(surveys.createdAt), desc(surveys.id)).all();
   return rows.map((r) => present(r.survey, r.site, readingCount(db, r.survey)));
 }
 

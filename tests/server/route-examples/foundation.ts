@@ -9,6 +9,7 @@ export const foundationExamples: RouteExamples = {
   'POST /auth/login': () => ({ path: '/api/auth/login', body: { email: DEMO.calibration2, password: 'luxtrail-demo' } }),
   'POST /auth/logout': () => ({ path: '/api/auth/logout' }),
   'GET /auth/me': () => ({ path: '/api/auth/me' }),
+  'GET /auth/session': () => ({ path: '/api/auth/session' }),
   'GET /auth/tokens': async (t) => {
     const admin = await t.signIn(DEMO.admin);
     await admin.post('/api/invitations').send({ email: `tok-${unique()}@luxtrail.test`, name: 'Token Holder', role: 'surveyor' });

@@ -1,6 +1,7 @@
 import type { AuditEvent } from '@shared/schemas/audit';
+import { formatDateTime } from '@shared/datetime';
+import { describeAuditEvent } from '@shared/audit-labels';
 
-const ENTITY_LABELS: Record<string, string> = { probe: 'Probe', coefficient_set: 'Coefficient set', bench_run: 'Bench run', user: 'User', survey: 'Survey' };
 
 function stringify(v: unknown) {
   return typeof v === 'object' && v !== null ? JSON.stringify(v) : String(v);
@@ -24,10 +25,10 @@ export function AuditList({ events, probeLabel }: { events: AuditEvent[]; probeL
         <li key={e.id} className="px-5 py-3">
           <div className="flex flex-wrap items-baseline justify-between gap-2">
             <p className="text-sm text-ink-900">
-              <span className="font-semibold">{e.actorName ?? 'System'}</span> {e.action.replace(/_/g, ' ')} {ENTITY_LABELS[e.entityType]?.toLowerCase() ?? e.entityType} #{e.entityId}
+              <span className="font-semibold">{e.actorName ?? 'Luxtrail'}</span> {describeAuditEvent(e)}
               {e.probeId && probeLabel?.(e.probeId) ? <> of probe <span className="font-medium">{probeLabel(e.probeId)}</span></> : null}
             </p>
-            <time dateTime={e.createdAt} className="num text-xs text-ink-500">{new Date(e.createdAt).toLocaleString('en-GB')}</time>
+            <time dateTime={e.createdAt} className="num text-xs text-ink-500">{formatDateTime(e.createdAt)}</time>
           </div>
           {changes(e).length > 0 && (
             <details className="mt-1">

@@ -1,13 +1,13 @@
-/** Calendar dates (due dates) are shown in UTC, as they are entered: the same day everywhere. */
+import { formatDateTime, formatDay } from '@shared/datetime';
+
+/** Calendar dates (due dates) are shown in UTC, as they are entered: the same day everywhere (shared/datetime). */
 export function formatDueDate(iso: string | null | undefined): string {
-  if (!iso) return '–';
-  return new Date(iso).toLocaleDateString('en-GB', { timeZone: 'UTC', day: 'numeric', month: 'short', year: 'numeric' });
+  return iso ? formatDay(iso, 'UTC') : '–';
 }
 
-/** Instants (effective-from, approvals, uploads) in the viewer's own time zone. */
+/** Instants (effective-from, approvals, uploads) belong to no site: the viewer's own zone, labelled (shared/datetime). */
 export function formatInstant(iso: string | null | undefined): string {
-  if (!iso) return '–';
-  return new Date(iso).toLocaleString('en-GB', { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' });
+  return iso ? formatDateTime(iso) : '–';
 }
 
 /** A date input's value (YYYY-MM-DD) as the end of that day, UTC: a set is valid through its due day. */
@@ -27,3 +27,13 @@ export const percent = (fraction: number, digits = 2) => `${(fraction * 100).toF
 
 /** Compact significant figures for coefficients (not illuminances). */
 export const sig = (v: number, digits = 5) => (Number.isFinite(v) ? Number(v.toPrecision(digits)).toString() : '–');
+
+/** Symmetric axis ticks at a 1-2-5 step around zero covering ±max, so the residual axis reads −50, −25, 0, 25, 50. */
+export function symmetricTicks(max: number): number[] {
+  if (!(max > 0)) return [-1, 0, 1];
+  const raw = max / 2;
+  const p = 10 ** Math.floor(Math.log10(raw));
+  const step = [1, 2, 5, 10].map((m) => m * p).find((s) => s >= raw)!;
+  const n = Math.ceil(max / step);
+  return Array.from({ length: 2 * n + 1 }, (_, i) => (i - n) * step);
+}

@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { Paperclip } from 'lucide-react';
 import type { OutboxMessage } from '@shared/schemas/users';
 import { cx } from '@/components/ui/cx';
+import { formatDateTime } from '@shared/datetime';
 
 /** Renders a plain-text mail body with its links clickable. */
 function MailText({ text }: { text: string }) {
@@ -28,7 +29,7 @@ export function OutboxList({ messages }: { messages: OutboxMessage[] }) {
               </span>
               <span className="flex items-center gap-2 text-xs text-ink-500">
                 {m.attachments.length > 0 && <Paperclip className="h-3.5 w-3.5" aria-label={`${m.attachments.length} attachment(s)`} />}
-                <time dateTime={m.createdAt}>{new Date(m.createdAt).toLocaleString()}</time>
+                <time dateTime={m.createdAt}>{formatDateTime(m.createdAt)}</time>
               </span>
             </button>
             {open && (

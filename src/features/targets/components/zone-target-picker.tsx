@@ -9,6 +9,7 @@ import { useUnits } from '@/lib/units';
 import { useTargets } from '../api/get-targets';
 import { useZoneTarget } from '../api/get-zone-target';
 import { useSetZoneTarget } from '../api/set-zone-target';
+import { labelOfUseType } from '@shared/schemas/zones';
 
 /** Chooses the library entry a zone is judged against ("by use type" clears the choice) and the value its design chose. */
 export function ZoneTargetPicker({ zoneId, onChanged }: { zoneId: number; onChanged?: () => unknown }) {
@@ -21,9 +22,9 @@ export function ZoneTargetPicker({ zoneId, onChanged }: { zoneId: number; onChan
         <div className="max-w-xl space-y-4">
           <SelectField label="Library entry" value={z.targetId ?? ''} disabled={set.isPending || targets.isPending}
             onChange={(e) => set.mutate({ zoneId, targetId: e.target.value ? Number(e.target.value) : null })}
-            hint={z.target ? `Now: ${z.target.name} (${z.target.source})` : `No entry for use type ${z.useType}`}>
-            <option value="">By use type ({z.useType})</option>
-            {(targets.data?.items ?? []).map((t) => <option key={t.id} value={t.id}>{t.name} · {t.useType}{t.shipped ? '' : ' (yours)'}</option>)}
+            hint={z.target ? `Now: ${z.target.name} (${z.target.source})` : `No entry for “${labelOfUseType(z.useType)}”`}>
+            <option value="">By its use ({labelOfUseType(z.useType)})</option>
+            {(targets.data?.items ?? []).map((t) => <option key={t.id} value={t.id}>{t.name}{t.shipped ? '' : ' (yours)'}</option>)}
           </SelectField>
           <FormError error={set.error ?? targets.error} />
           {z.target && <DesignValueForm key={`${z.targetId}-${z.chosenEmLux}-${z.contextModifiers.join()}`} zoneId={zoneId} current={z} onChanged={onChanged} />}
