@@ -41,6 +41,7 @@ export const paths = {
   probe: page('/calibration/probes/:probeId', 'probes.read', (probeId: Id) => `/calibration/probes/${probeId}`),
   probeEdit: page('/calibration/probes/:probeId/edit', 'probes.write', (probeId: Id) => `/calibration/probes/${probeId}/edit`),
   benchRun: page('/calibration/bench-runs/:benchRunId', 'coefficients.read', (benchRunId: Id) => `/calibration/bench-runs/${benchRunId}`),
+  decodeChanges: page('/calibration/surveys/:surveyId/decode-changes', 'surveys.redecode', (surveyId: Id) => `/calibration/surveys/${surveyId}/decode-changes`),
   audit: page('/calibration/audit', 'audit.read', (probeId?: Id) => `/calibration/audit${query({ probe: probeId })}`),
   compliance: page('/compliance', 'surveys.read', () => '/compliance'),
   surveyCompliance: page('/compliance/surveys/:surveyId', 'surveys.read', (surveyId: Id) => `/compliance/surveys/${surveyId}`),

@@ -101,6 +101,8 @@ export const surveyMapResponseSchema = z.object({
   surveyId: z.number().int(),
   surveyName: z.string(),
   siteId: z.number().int(),
+  /** The site's IANA time zone: reading times are shown in it. */
+  siteTimeZone: z.string(),
   planId: z.number().int(),
   readings: z.array(mapReadingSchema),
   zones: z.array(mapZoneSummarySchema),

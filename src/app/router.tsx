@@ -59,6 +59,7 @@ const appRoutes: RouteObject[] = [
   lazyPage('probeEdit', () => import('./routes/calibration/probe-edit').then((m) => m.ProbeEditRoute)),
   lazyPage('benchRun', () => import('./routes/calibration/bench-run').then((m) => m.BenchRunRoute)),
   lazyPage('audit', () => import('./routes/calibration/calibration-audit').then((m) => m.CalibrationAuditRoute)),
+  lazyPage('decodeChanges', () => import('./routes/calibration/decode-changes').then((m) => m.DecodeChangesRoute)),
   lazyPage('compliance', () => import('./routes/compliance/compliance-overview').then((m) => m.ComplianceOverviewRoute)),
   lazyPage('surveyCompliance', () => import('./routes/compliance/survey-compliance').then((m) => m.SurveyComplianceRoute)),
   lazyPage('zoneCompliance', () => import('./routes/compliance/zone-compliance').then((m) => m.ZoneComplianceRoute)),

@@ -52,6 +52,8 @@ export const surveyKeys = {
   maps: (surveyId: number) => [...surveyKeys.detail(surveyId), 'map'] as const,
   map: (surveyId: number, planId: number | null) => [...surveyKeys.maps(surveyId), { planId }] as const,
   compliance: (surveyId: number) => [...surveyKeys.detail(surveyId), 'compliance'] as const,
+  /** What the latest re-decode changed (refreshed with the survey after a re-decode). */
+  decodeChanges: (surveyId: number) => [...surveyKeys.detail(surveyId), 'decode-changes'] as const,
   zoneCompliance: (surveyId: number, zoneId: number) => [...surveyKeys.compliance(surveyId), 'zones', zoneId] as const,
 };
 

@@ -51,7 +51,7 @@ describe('verdicts, sign-off and the report in a real browser', () => {
     await mail.first().waitFor();
     // The newest message opens by itself; open it only if it is closed.
     if ((await mail.first().getAttribute('aria-expanded')) !== 'true') await mail.first().click();
-    const attachment = admin.getByRole('link', { name: /luxtrail-report-.*autumn-walk-through-2026\.pdf/ }).first();
+    const attachment = admin.getByRole('link', { name: /luxtrail-report-.*autumn-walk-through-2026-signed-\d{4}-\d{2}-\d{2}\.pdf/ }).first();
     await attachment.waitFor();
     const href = await attachment.getAttribute('href');
     const pdf = await admin.request.get(href!);

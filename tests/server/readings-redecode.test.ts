@@ -6,6 +6,7 @@ import { coefficientSets, probes } from '@server/db/schema/calibration';
 import { decodes, readings, surveys } from '@server/db/schema/surveys';
 import { auditEvents } from '@server/db/schema/organizations';
 import { DEMO_COUNTING_PROBES } from '@server/db/demo/demo-probes';
+import { readingColumns } from '@shared/export-columns';
 
 let t: TestApp;
 let c: TestClient;
@@ -54,6 +55,42 @@ describe('re-decoding a survey', () => {
     expect(audit.before).toEqual({ decodeId: firstDecode });
   });
 
+  it('shows calibration staff what their re-decode changed, reading by reading, and says when a survey is already current', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    expect((await uploadAndWait(t, c, surveyId, HANDHELD_CSV)).status.status).toBe('done');
+    const cal = await t.signIn(DEMO.calibration);
+    const fresh = (await cal.get(`/api/surveys/${surveyId}/decode-changes`)).body;
+    expect(fresh).toMatchObject({ decodedWithCurrentSets: true, before: null, changedTotal: 0 });
+
+    const probe = t.db.select().from(probes).where(eq(probes.serial, TEST_SERIALS.handheld)).get()!;
+    const p = DEMO_COUNTING_PROBES[1];
+    t.db.insert(coefficientSets).values({
+      probeId: probe.id, version: 2, status: 'approved', effectiveFrom: Date.parse('2026-11-01T00:00:00Z'), dueDate: t.clock.now() + 300 * 86_400_000,
+      tRefMs: p.tRefMs, alphaPerK: p.alphaPerK, tCalC: p.tCalC, gains: p.coefficients.map((g) => ({ ...g, luxPerCount: g.luxPerCount * 0.9 })),
+      certificateNumber: 'CORR-2', createdAt: t.clock.now(), approvedAt: t.clock.now(),
+    }).run();
+    expect((await cal.get(`/api/surveys/${surveyId}/decode-changes`)).body.decodedWithCurrentSets).toBe(false);
+    const before = (await c.get(`/api/surveys/${surveyId}/readings`)).body.items;
+    expect((await cal.post(`/api/surveys/${surveyId}/redecode`)).status).toBe(200);
+
+    const d = (await cal.get(`/api/surveys/${surveyId}/decode-changes`)).body;
+    expect(d).toMatchObject({ decodedWithCurrentSets: true, compared: 2, changedTotal: 2, siteTimeZone: 'Europe/London' });
+    expect(d.changes.map((x: { point: string }) => x.point)).toEqual(['R-1', 'R-2']);
+    d.changes.forEach((x: { before: { lux: number; coefficientSetVersion: number }; after: { lux: number; coefficientSetVersion: number } }, i: number) => {
+      expect(x.before.lux).toBe(before[i].lux);
+      expect(x.after.lux).toBeCloseTo(before[i].lux * 0.9, 9);
+      expect([x.before.coefficientSetVersion, x.after.coefficientSetVersion]).toEqual([1, 2]);
+    });
+  });
+
+  it('opens the re-decode view to the roles that may re-decode, and to no one else', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    await uploadAndWait(t, c, surveyId, CSV);
+    for (const [email, status] of [[DEMO.calibration, 200], [DEMO.admin, 200], [DEMO.surveyor, 403], [DEMO.facility_manager, 403], [DEMO.otherAdmin, 404]] as const) {
+      expect((await (await t.signIn(email)).get(`/api/surveys/${surveyId}/decode-changes`)).status, email).toBe(status);
+    }
+  });
+
   it('refuses to re-decode a survey with no accepted log (409) and another organisation\'s survey (404)', async () => {
     const surveyId = await newDraftSurvey(t, c);
     const admin = await t.signIn(DEMO.admin);
@@ -77,13 +114,15 @@ describe('readings series and export', () => {
     expect(gains.size).toBeGreaterThan(1); // auto-ranging: more than one gain in use
   });
 
-  it('exports in lux with the header and one line per reading', async () => {
+  it('exports in lux with the shared header and one line per reading, at full precision', async () => {
     const surveyId = await newDraftSurvey(t, c);
     await uploadAndWait(t, c, surveyId, HANDHELD_CSV);
     const res = await c.get(`/api/surveys/${surveyId}/readings.csv`);
     const lines = res.text.trim().split('\r\n');
-    expect(lines[0].split(',')).toEqual(['timestamp_utc', 'point', 'x_m', 'y_m', 'plan', 'role', 'probe', 'illuminance_lx', 'expanded_uncertainty_lx_k2', 'bound', 'flag', 'gain', 'samples', 'chosen_sample', 'note', 'plane', 'azimuth_deg']);
+    expect(lines[0].split(',')).toEqual(readingColumns('lx'));
     expect(lines).toHaveLength(3);
-    expect(lines[1]).toMatch(/^2026-11-19T07:00:00.000Z,R-1,,,,task,T-4107,514,/); // 16000 net counts * 2.05/64 * 1.003 lx (demo-probes.ts)
+    const api = (await c.get(`/api/surveys/${surveyId}/readings`)).body.items;
+    // 16000 net counts * 2.05/64 * 1.003 lx is about 514 lx (demo-probes.ts); the CSV has every digit the API has.
+    expect(lines[1]).toContain(`,R-1,,,,task,T-4107,${api[0].lux},exact,${api[0].uLux},ok,2,16057,,,`);
   });
 });

@@ -6,7 +6,8 @@ import { singleFileUpload } from '../../http/upload';
 import { getImport, uploadLog } from './imports-service';
 import { failInterruptedImports } from './import-runner';
 import { redecodeSurvey } from './redecode-service';
-import { redecodeResponseSchema } from '@shared/schemas/readings';
+import { decodeChangesSchema, redecodeResponseSchema } from '@shared/schemas/readings';
+import { decodeChanges } from './decode-changes';
 
 export function registerImportRoutes(api: Api, deps: Deps) {
   void failInterruptedImports(deps);
@@ -27,4 +28,7 @@ export function registerImportRoutes(api: Api, deps: Deps) {
   // Re-decoding reuses the import's decoder and writer, so it lives with the imports.
   api.route({ method: 'post', path: '/surveys/:id/redecode', access: 'surveys.redecode', tag: 'readings', summary: 'Re-decode the survey\'s kept samples with the current approved coefficient sets (the previous decode stays recorded)', params: idParamsSchema, response: redecodeResponseSchema },
     ({ user, params }) => redecodeSurvey(deps, user, params.id));
+
+  api.route({ method: 'get', path: '/surveys/:id/decode-changes', access: 'surveys.redecode', tag: 'readings', summary: 'What the latest re-decode changed: each changed reading before and after (read-only, for calibration staff)', params: idParamsSchema, response: decodeChangesSchema },
+    ({ user, params }) => decodeChanges(deps.db, user, params.id));
 }

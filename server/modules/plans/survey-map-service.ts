@@ -1,7 +1,7 @@
 import { and, asc, eq, isNotNull, isNull, sql } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { plans, zones } from '../../db/schema/plans';
-import { readings, surveys } from '../../db/schema/surveys';
+import { readings, sites, surveys } from '../../db/schema/surveys';
 import { probes } from '../../db/schema/calibration';
 import type { SessionUser } from '@shared/schemas/auth';
 import type { MapReading, MapZoneSummary, SurveyMapResponse } from '@shared/schemas/plans';
@@ -42,7 +42,8 @@ export function surveyMap(db: Db, user: SessionUser, surveyId: number, planId: n
     plan = db.select().from(plans).where(eq(plans.siteId, survey.siteId)).orderBy(asc(plans.id)).get();
     if (!plan) throw notFound('A plan of this survey\'s site');
   }
-  const base = { surveyId, surveyName: survey.name, siteId: survey.siteId, planId: plan.id };
+  const siteTimeZone = db.select({ timeZone: sites.timeZone }).from(sites).where(eq(sites.id, survey.siteId)).get()?.timeZone ?? 'UTC';
+  const base = { surveyId, surveyName: survey.name, siteId: survey.siteId, siteTimeZone, planId: plan.id };
   const extent = planExtent(plan);
   // Readings of imports still running (or rejected) are not shown: only accepted files count.
   const current = and(...currentReadingConditions(survey));

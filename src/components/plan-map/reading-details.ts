@@ -1,4 +1,5 @@
 import type { MapReading } from '@shared/schemas/plans';
+import { formatDateTime } from '@shared/datetime';
 
 const FLAG_TEXT: Record<MapReading['flag'], string> = {
   ok: 'No flag',
@@ -13,13 +14,13 @@ const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', 
 
 type Format = (lux: number | null | undefined, opts?: { withUnit?: boolean; bound?: 'exact' | 'lower' | 'upper' }) => string;
 
-/** Popup and tooltip content for one reading: label, E ± U, time, probe, gain code, flags. */
-export function readingDetailsHtml(r: MapReading, format: Format, extra?: { zoneName?: string | null; deltaText?: string | null }): string {
+/** Popup and tooltip content for one reading: label, E ± U, time (in the site's zone, labelled), probe, gain code, flags. */
+export function readingDetailsHtml(r: MapReading, format: Format, extra?: { zoneName?: string | null; deltaText?: string | null; timeZone?: string }): string {
   const value = r.lux === null ? 'No value' : `${format(r.lux, { bound: r.luxBound })}${r.uLux !== null && r.luxBound === 'exact' ? ` ± ${format(r.uLux)}` : ''}`;
   const rows: [string, string][] = [
     ['Illuminance', value],
     ...(extra?.deltaText ? [['Change', extra.deltaText] as [string, string]] : []),
-    ['Time', new Date(r.timestamp).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'medium' })],
+    ['Time', formatDateTime(r.timestamp, extra?.timeZone, { seconds: true })],
     ['Probe', r.probe],
     ['Gain code', r.gainCode === null ? '–' : String(r.gainCode)],
     ['Flags', FLAG_TEXT[r.flag]],

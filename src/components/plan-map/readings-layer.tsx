@@ -23,7 +23,18 @@ export function ReadingsLayer({ readings, colourOf, detailsOf, focusedId, onPain
   const renderer = useMemo(() => L.canvas({ padding: 0.3, tolerance: 4 }), []);
   const markers = useRef(new Map<number, L.CircleMarker>());
   const details = useRef(detailsOf);
-  useEffect(() => { details.current = detailsOf; }, [detailsOf]);
+  // The popup left open, so a change of units (a new detailsOf) rewrites what it shows.
+  const open = useRef<{ popup: L.Popup; r: MapReading } | null>(null);
+  useEffect(() => {
+    details.current = detailsOf;
+    const o = open.current;
+    if (o && map.hasLayer(o.popup)) o.popup.setContent(detailsOf(o.r));
+  }, [detailsOf, map]);
+  const openPopup = (latLng: L.LatLngExpression, r: MapReading) => {
+    const popup = L.popup({ maxWidth: 280 }).setLatLng(latLng).setContent(details.current(r));
+    open.current = { popup, r };
+    popup.openOn(map);
+  };
 
   useEffect(() => {
     const started = performance.now();
@@ -51,7 +62,7 @@ export function ReadingsLayer({ readings, colourOf, detailsOf, focusedId, onPain
       const r = reading.get(e.layer as L.Layer);
       if (!r) return;
       tooltip.remove();
-      L.popup({ maxWidth: 280 }).setLatLng([r.yM, r.xM]).setContent(details.current(r)).openOn(map);
+      openPopup([r.yM, r.xM], r);
     });
     group.addTo(map);
     markers.current = byId;
@@ -71,7 +82,7 @@ export function ReadingsLayer({ readings, colourOf, detailsOf, focusedId, onPain
     const r = readings.find((x) => x.id === focusedId);
     if (!m || !r) return;
     map.panTo(m.getLatLng());
-    L.popup({ maxWidth: 280 }).setLatLng(m.getLatLng()).setContent(details.current(r)).openOn(map);
+    openPopup(m.getLatLng(), r);
   }, [focusedId, map, readings]);
 
   return null;

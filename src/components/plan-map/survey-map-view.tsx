@@ -4,6 +4,7 @@ import type { MapReading, MapZoneSummary, Plan, SurveyMapResponse } from '@share
 import { isSafetyRelevant, type Zone } from '@shared/schemas/zones';
 import { isoluxLines, type IsoluxResult } from '@shared/spatial/isolux';
 import { diffByLabel } from '@shared/spatial/difference';
+import { formatClock } from '@shared/datetime';
 import { useUnits } from '@/lib/units';
 import { cx } from '@/components/ui/cx';
 import { PlanMap } from './plan-map';
@@ -62,10 +63,12 @@ export function SurveyMapView({ plan, zones, map, compareWith, zoneFill, zoneLeg
     const deltaText = difference
       ? p && p.deltaLux !== null ? `${p.deltaLux >= 0 ? '+' : '−'}${format(Math.abs(p.deltaLux))} (was ${format(p.beforeLux)})` : 'Not comparable (not in the earlier survey, a fault or a bound)'
       : null;
-    return readingDetailsHtml(r, format, { zoneName: r.zoneId ? zoneName.get(r.zoneId) : null, deltaText });
-  }, [difference, format, zoneName]);
+    return readingDetailsHtml(r, format, { zoneName: r.zoneId ? zoneName.get(r.zoneId) : null, deltaText, timeZone: map.siteTimeZone });
+  }, [difference, format, zoneName, map.siteTimeZone]);
 
   const shown = useMemo(() => map.readings.filter((r) => (r.role === 'reference' ? layers.reference : layers.points)), [map.readings, layers.points, layers.reference]);
+  // Labels (zone names, isolux levels) are placed where they hide none of the points shown.
+  const pointPositions = useMemo(() => shown.map((r) => [r.xM, r.yM] as [number, number]), [shown]);
 
   const isolux = useMemo(() => {
     if (!layers.isolux) return [];
@@ -87,7 +90,13 @@ export function SurveyMapView({ plan, zones, map, compareWith, zoneFill, zoneLeg
 
   const shapesPresent = useMemo(() => [...new Set(map.readings.map(shapeOf))] as MarkerShape[], [map.readings]);
   const safetyZones = zones.filter((z) => isSafetyRelevant(z.useType));
-  const sortedPoints = useMemo(() => [...map.readings].sort((a, b) => a.point.localeCompare(b.point, undefined, { numeric: true })), [map.readings]);
+  const sortedPoints = useMemo(() => [...map.readings].sort((a, b) => a.point.localeCompare(b.point, undefined, { numeric: true }) || a.timestamp.localeCompare(b.timestamp)), [map.readings]);
+  // A label measured more than once (e.g. a reference probe logging all walk) is told apart by its time.
+  const repeated = useMemo(() => {
+    const seen = new Map<string, number>();
+    for (const r of map.readings) seen.set(r.point, (seen.get(r.point) ?? 0) + 1);
+    return seen;
+  }, [map.readings]);
 
   const toggle = (k: keyof Layers) => setLayers((l) => ({ ...l, [k]: !l[k] }));
   const LAYER_LABELS: [keyof Layers, string][] = [['points', 'Task points'], ['reference', 'Reference points'], ['zones', 'Zones'], ['isolux', 'Isolux lines']];
@@ -96,8 +105,8 @@ export function SurveyMapView({ plan, zones, map, compareWith, zoneFill, zoneLeg
     <div className={cx('grid gap-4 lg:grid-cols-[1fr_18rem]', className)}>
       <div className="min-w-0">
         <PlanMap plan={plan} label={`Plan ${plan.name} with the readings of ${map.surveyName}`} className="h-[60vh] min-h-[20rem]" testId="survey-map">
-          {layers.zones && <ZonesLayer zones={zones} fillOf={fillOf} />}
-          {layers.isolux && <IsoluxLayer results={isolux} formatLevel={(l) => format(l)} />}
+          {layers.zones && <ZonesLayer zones={zones} fillOf={fillOf} points={pointPositions} />}
+          {layers.isolux && <IsoluxLayer results={isolux} formatLevel={format} points={pointPositions} />}
           <ReadingsLayer readings={shown} colourOf={colourOf} detailsOf={detailsOf} focusedId={focusedId} onPainted={onPainted} />
         </PlanMap>
         {layers.isolux && (
@@ -120,7 +129,11 @@ export function SurveyMapView({ plan, zones, map, compareWith, zoneFill, zoneLeg
           <label htmlFor="map-point-finder" className="mb-1 block text-xs font-semibold uppercase tracking-wide text-ink-500">Find a point</label>
           <select id="map-point-finder" className="block w-full rounded-lg bg-white px-2 py-1.5 text-sm ring-1 ring-ink-200" value={focusedId ?? ''} onChange={(e) => setFocusedId(e.target.value ? Number(e.target.value) : null)}>
             <option value="">Choose a point to show its details</option>
-            {sortedPoints.map((r) => <option key={r.id} value={r.id}>{r.point} · {r.lux === null ? 'no value' : format(r.lux, { bound: r.luxBound })}</option>)}
+            {sortedPoints.map((r) => (
+              <option key={r.id} value={r.id}>
+                {r.point}{(repeated.get(r.point) ?? 0) > 1 ? ` · ${formatClock(r.timestamp, map.siteTimeZone, { seconds: true })}` : ''} · {r.lux === null ? 'no value' : format(r.lux, { bound: r.luxBound })}
+              </option>
+            ))}
           </select>
         </div>
         <ul className="space-y-1 text-xs text-ink-600">

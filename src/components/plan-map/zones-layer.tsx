@@ -1,11 +1,41 @@
-import { Polygon, Tooltip } from 'react-leaflet';
+import { useMemo } from 'react';
+import { Polygon, Polyline, Tooltip } from 'react-leaflet';
 import type { Zone } from '@shared/schemas/zones';
+import type { PlanPoint } from '@shared/spatial/polygon';
+import { placeZoneLabel, type LabelBox } from '@shared/spatial/label-placement';
 import { toLatLng } from './plan-frame';
+import { labelSizeM, usePxPerMetre } from './use-px-per-metre';
 
 /** How a zone is drawn: the survey map shades by average illuminance, compliance views by verdict. */
 export type ZoneFill = { colour: string; opacity?: number; label?: string; dashed?: boolean };
 
-export function ZonesLayer({ zones, fillOf, showNames = true, onSelect }: { zones: readonly Zone[]; fillOf?: (z: Zone) => ZoneFill | null; showNames?: boolean; onSelect?: (z: Zone) => void }) {
+type Props = {
+  zones: readonly Zone[];
+  fillOf?: (z: Zone) => ZoneFill | null;
+  showNames?: boolean;
+  onSelect?: (z: Zone) => void;
+  /** Measurement points the names must not hide (plan metres). */
+  points?: readonly PlanPoint[];
+};
+
+/** Zone names placed where they hide no measurement point (inside the zone if there is room, else just outside it). */
+export function useZoneLabels(zones: readonly Zone[], texts: (z: Zone) => string, points: readonly PlanPoint[]) {
+  const pxPerM = usePxPerMetre();
+  return useMemo(() => {
+    const taken: LabelBox[] = [];
+    const out = new Map<number, LabelBox>();
+    for (const z of zones) {
+      const placed = placeZoneLabel(z.polygon, points, { ...labelSizeM(texts(z), pxPerM), taken });
+      taken.push(placed.box);
+      out.set(z.id, placed.box);
+    }
+    return { byZone: out, taken };
+  }, [zones, texts, points, pxPerM]);
+}
+
+export function ZonesLayer({ zones, fillOf, showNames = true, onSelect, points = NO_POINTS }: Props) {
+  const text = useMemo(() => (z: Zone) => { const f = fillOf?.(z); return `${z.name}${f?.label ? ` · ${f.label}` : ''}`; }, [fillOf]);
+  const labels = useZoneLabels(zones, text, points);
   return (
     <>
       {zones.map((z) => {
@@ -22,15 +52,21 @@ export function ZonesLayer({ zones, fillOf, showNames = true, onSelect }: { zone
             eventHandlers={onSelect ? { click: () => onSelect(z) } : undefined}
             // Under the readings, and not stealing their hover.
             interactive={Boolean(onSelect)}
-          >
-            {showNames && (
-              <Tooltip direction="center" permanent className="!border-0 !bg-white/80 !px-1 !py-0 !text-[11px] !shadow-none">
-                {z.name}{fill?.label ? ` · ${fill.label}` : ''}
-              </Tooltip>
-            )}
-          </Polygon>
+          />
+        );
+      })}
+      {showNames && zones.map((z) => {
+        const at = labels.byZone.get(z.id);
+        if (!at) return null;
+        const ll = toLatLng([at.x, at.y]);
+        return (
+          <Polyline key={`label-${z.id}`} positions={[ll, ll]} interactive={false} pathOptions={{ opacity: 0 }}>
+            <Tooltip permanent direction="center" className="zone-label !border-0 !bg-white/90 !px-1 !py-0 !text-[11px] !shadow-none">{text(z)}</Tooltip>
+          </Polyline>
         );
       })}
     </>
   );
 }
+
+const NO_POINTS: readonly PlanPoint[] = [];

@@ -66,4 +66,5 @@ Object.assign(surveyExamples, {
   'GET /surveys/:id/readings/series': async (t: TestApp) => ({ path: `/api/surveys/${(await surveyWithLog(t)).surveyId}/readings/series` }),
   'GET /surveys/:id/readings.csv': async (t: TestApp) => ({ path: `/api/surveys/${(await surveyWithLog(t)).surveyId}/readings.csv` }),
   'POST /surveys/:id/redecode': async (t: TestApp) => ({ path: `/api/surveys/${(await surveyWithLog(t)).surveyId}/redecode` }),
+  'GET /surveys/:id/decode-changes': async (t: TestApp) => ({ path: `/api/surveys/${(await surveyWithLog(t)).surveyId}/decode-changes` }),
 } satisfies RouteExamples);

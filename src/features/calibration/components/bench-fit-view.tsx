@@ -5,7 +5,7 @@ import type { BenchRunDto, GainFitDto } from '@shared/schemas/bench-runs';
 import { Badge } from '@/components/ui/badge';
 import { cx } from '@/components/ui/cx';
 import { useUnits } from '@/lib/units';
-import { percent, sig } from './format';
+import { percent, sig, symmetricTicks } from './format';
 
 /** The core's fit per gain code: coefficients with standard uncertainties (k = 1), linearity and gain-ratio flags. */
 export function BenchFitTable({ run }: { run: BenchRunDto }) {
@@ -55,12 +55,29 @@ export function BenchFitTable({ run }: { run: BenchRunDto }) {
   );
 }
 
+type TipRow = { x: number; counts?: number; fitted?: number; residual?: number };
+
+/** One tooltip for both charts: the reference illuminance, then each quantity named with its unit. */
+function BenchTip({ active, payload, unitLabel }: { active?: boolean; payload?: readonly { payload?: TipRow }[]; unitLabel: string }) {
+  const row = payload?.[0]?.payload;
+  if (!active || !row) return null;
+  return (
+    <div className="rounded-md bg-white px-2 py-1 text-xs shadow ring-1 ring-ink-200">
+      <div className="font-medium">Reference {sig(row.x, 6)} {unitLabel}</div>
+      {row.counts !== undefined && <div>Measured: {sig(row.counts, 6)} counts</div>}
+      {row.fitted !== undefined && <div>Fitted line: {sig(row.fitted, 6)} counts</div>}
+      {row.residual !== undefined && <div>Residual: {sig(row.residual, 4)} counts</div>}
+    </div>
+  );
+}
+
 function CodeCharts({ g }: { g: GainFitDto }) {
   const { convert, label, format } = useUnits();
   const points = g.points.map((p) => ({ x: convert(p.referenceLux), counts: p.counts, fitted: p.fitted, residual: p.residual, line: p.line }));
   const line = [...points].sort((a, b) => a.x - b.x);
   const xLabel = `Reference illuminance (${label})`;
   const maxRes = Math.max(...points.map((p) => Math.abs(p.residual)));
+  const resTicks = symmetricTicks(maxRes);
   return (
     <div className="grid gap-6 lg:grid-cols-2">
       <figure role="img" aria-label={`Counts against reference illuminance, gain code ${g.code}: ${g.n} points from ${format(g.points[0]?.referenceLux)} with the fitted line`} className="min-w-0">
@@ -70,8 +87,8 @@ function CodeCharts({ g }: { g: GainFitDto }) {
             <ComposedChart data={line} margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
               <CartesianGrid stroke="#e6eaf4" />
               <XAxis dataKey="x" type="number" domain={['auto', 'auto']} tickFormatter={(v: number) => sig(v, 3)} label={{ value: xLabel, position: 'insideBottom', offset: -12, fontSize: 12 }} />
-              <YAxis type="number" width={64} tickFormatter={(v: number) => sig(v, 3)} label={{ value: 'Counts', angle: -90, position: 'insideLeft', fontSize: 12 }} />
-              <Tooltip formatter={(v) => sig(Number(v), 6)} labelFormatter={(v) => `${sig(Number(v), 5)} ${label}`} />
+              <YAxis type="number" width={84} tickFormatter={(v: number) => sig(v, 3)} label={{ value: 'Counts', angle: -90, position: 'insideLeft', offset: 0, fontSize: 12, style: { textAnchor: 'middle' } }} />
+              <Tooltip content={(p) => <BenchTip active={p.active} payload={p.payload as never} unitLabel={label} />} />
               <Legend verticalAlign="top" height={24} />
               <Line name="Fitted line" dataKey="fitted" stroke="#e29a1c" strokeWidth={2} dot={false} isAnimationActive={false} />
               <Scatter name="Measured" dataKey="counts" fill="#141b2d" isAnimationActive={false} />
@@ -86,9 +103,9 @@ function CodeCharts({ g }: { g: GainFitDto }) {
             <ScatterChart margin={{ top: 8, right: 16, bottom: 24, left: 8 }}>
               <CartesianGrid stroke="#e6eaf4" />
               <XAxis dataKey="x" type="number" domain={['auto', 'auto']} tickFormatter={(v: number) => sig(v, 3)} label={{ value: xLabel, position: 'insideBottom', offset: -12, fontSize: 12 }} />
-              <YAxis dataKey="residual" type="number" width={64} domain={[-maxRes * 1.2 || -1, maxRes * 1.2 || 1]} tickFormatter={(v: number) => sig(v, 2)} label={{ value: 'Residual (counts)', angle: -90, position: 'insideLeft', fontSize: 12 }} />
+              <YAxis dataKey="residual" type="number" width={84} domain={[resTicks[0], resTicks[resTicks.length - 1]]} ticks={resTicks} interval={0} tickFormatter={(v: number) => sig(v, 3)} label={{ value: 'Residual (counts)', angle: -90, position: 'insideLeft', offset: 0, fontSize: 12, style: { textAnchor: 'middle' } }} />
               <ReferenceLine y={0} stroke="#9eabcb" />
-              <Tooltip formatter={(v) => sig(Number(v), 4)} />
+              <Tooltip content={(p) => <BenchTip active={p.active} payload={p.payload as never} unitLabel={label} />} />
               <Scatter name="Residual" data={points} fill="#6a51a3" isAnimationActive={false} />
             </ScatterChart>
           </ResponsiveContainer>

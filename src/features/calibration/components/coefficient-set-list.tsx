@@ -3,6 +3,7 @@ import { CheckCircle2, FileDown, FileUp, ShieldCheck, Trash2 } from 'lucide-reac
 import type { CoefficientSetDto } from '@shared/schemas/coefficient-sets';
 import { Badge } from '@/components/ui/badge';
 import { Button } from '@/components/ui/button';
+import { ConfirmAction } from '@/components/ui/confirm-action';
 import { FormError } from '@/components/ui/form-error';
 import { useApproveCoefficientSet } from '../api/approve-coefficient-set';
 import { useDiscardCoefficientSet } from '../api/discard-coefficient-set';
@@ -52,9 +53,11 @@ function SetCard({ set, userId, canWrite, canApprove }: { set: CoefficientSetDto
             </>
           )}
           {isDraft && canApprove && (
-            <Button size="sm" busy={approve.isPending} disabled={ownDraft} title={ownDraft ? 'You drafted this set: a colleague must approve it' : undefined} onClick={() => approve.mutate(set.id)}>
-              <ShieldCheck className="h-4 w-4" aria-hidden />Approve version {set.version}
-            </Button>
+            <ConfirmAction busy={approve.isPending} disabled={ownDraft} title={ownDraft ? 'You drafted this set: a colleague must approve it' : undefined}
+              trigger={<><ShieldCheck className="h-4 w-4" aria-hidden />Approve version {set.version}…</>}
+              consequence={<>Approving version {set.version} makes it decode this probe's readings from {formatInstant(set.effectiveFrom)} on. An approved set can never be changed or discarded: a correction is a new version.</>}
+              confirmLabel={<><ShieldCheck className="h-4 w-4" aria-hidden />Approve for good</>}
+              onConfirm={() => approve.mutate(set.id)} />
           )}
           {isDraft && canWrite && (confirmDiscard ? (
             <>

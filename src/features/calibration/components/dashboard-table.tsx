@@ -29,6 +29,10 @@ function daysText(r: DashboardRow) {
   return `in ${r.daysUntilDue} days`;
 }
 
+/** At phone width (stacked rows): the probe first, then its state, due date and time left, then the rest, labelled. */
+const STACK_KEY = new Set(['calibrationState', 'dueDate', 'daysUntilDue']);
+const stackRole = (id: string, header: string) => (id === 'serial' ? { 'data-lead': '' } : STACK_KEY.has(id) ? { 'data-key': '', 'data-label': header } : { 'data-label': header });
+
 /** Every probe with its due date; sortable columns, state filters and a text search (TanStack Table). */
 export function DashboardTable({ rows, dueSoonDays, showRetired }: { rows: DashboardRow[]; dueSoonDays: number; showRetired: boolean }) {
   const [filter, setFilter] = useState<DashboardFilter>('all');
@@ -88,14 +92,14 @@ export function DashboardTable({ rows, dueSoonDays, showRetired }: { rows: Dashb
         <label className="ml-auto flex items-center gap-2 text-sm text-ink-700">
           <span>Search</span>
           <input type="search" value={search} onChange={(e) => setSearch(e.target.value)} placeholder="Serial, description, certificate"
-            className="w-56 rounded-lg border-0 px-3 py-1.5 text-sm ring-1 ring-inset ring-ink-200 focus:ring-2 focus:ring-lamp-500" />
+            className="w-full max-w-56 rounded-lg border-0 px-3 py-1.5 text-sm ring-1 ring-inset ring-ink-200 focus:ring-2 focus:ring-lamp-500" />
         </label>
       </div>
       {table.getRowModel().rows.length === 0 ? (
         <EmptyState title="No probe matches">Choose another filter or clear the search.</EmptyState>
       ) : (
         <div className="overflow-x-auto">
-          <table className="min-w-full text-sm" aria-label="Calibration due dates">
+          <table className="stack-table min-w-full text-sm" aria-label="Calibration due dates">
             <thead className="bg-ink-50 text-left text-xs font-semibold uppercase tracking-wide text-ink-600">
               {table.getHeaderGroups().map((hg) => (
                 <tr key={hg.id}>
@@ -117,7 +121,7 @@ export function DashboardTable({ rows, dueSoonDays, showRetired }: { rows: Dashb
             <tbody className="divide-y divide-ink-100">
               {table.getRowModel().rows.map((r) => (
                 <tr key={r.id} className="align-top">
-                  {r.getVisibleCells().map((c) => <td key={c.id} className="px-4 py-2.5">{flexRender(c.column.columnDef.cell, c.getContext())}</td>)}
+                  {r.getVisibleCells().map((c) => <td key={c.id} className="px-4 py-2.5" {...stackRole(c.column.id, String(c.column.columnDef.header))}>{flexRender(c.column.columnDef.cell, c.getContext())}</td>)}
                 </tr>
               ))}
             </tbody>

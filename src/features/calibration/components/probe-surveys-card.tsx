@@ -1,10 +1,12 @@
+import { Link } from 'react-router';
+import { paths } from '@shared/paths';
 import { RefreshCcw, ScrollText } from 'lucide-react';
 import type { UseMutationResult } from '@tanstack/react-query';
 import type { RedecodeResponse } from '@shared/schemas/readings';
 import { useProbeSurveys } from '../api/get-probe-surveys';
 import { Card, CardHeader } from '@/components/ui/card';
 import { Badge } from '@/components/ui/badge';
-import { Button } from '@/components/ui/button';
+import { ConfirmAction } from '@/components/ui/confirm-action';
 import { EmptyState, QueryState } from '@/components/ui/states';
 import { FormError } from '@/components/ui/form-error';
 
@@ -29,16 +31,20 @@ export function ProbeSurveysCard({ probeId, redecode }: { probeId: number; redec
                   <div className="font-medium text-ink-900">{s.name}</div>
                   <div className="text-xs text-ink-500">{s.siteName} · {s.readings} readings</div>
                 </div>
-                <div className="flex items-center gap-2">
+                <div className="flex flex-wrap items-center gap-2">
                   {s.staleReadings > 0
                     ? <Badge tone="warn">{s.staleReadings} decoded with another set</Badge>
                     : <Badge tone="good">Current</Badge>}
-                  {s.canRedecode
+                  <Link className="text-sm font-medium text-lamp-700 underline-offset-2 hover:underline" to={paths.decodeChanges.to(s.surveyId)}>What changed</Link>
+                  {s.canRedecode && s.staleReadings > 0
                     ? (
-                      <Button size="sm" variant={s.staleReadings > 0 ? 'primary' : 'secondary'} onClick={() => start(s.surveyId)} busy={redecode.isPending && redecode.variables === s.surveyId} aria-label={`Re-decode ${s.name}`}>
-                        <RefreshCcw className="h-4 w-4" aria-hidden />Re-decode
-                      </Button>
+                      <ConfirmAction busy={redecode.isPending && redecode.variables === s.surveyId} aria-label={`Re-decode ${s.name}`}
+                        trigger={<><RefreshCcw className="h-4 w-4" aria-hidden />Re-decode…</>}
+                        consequence={<>Re-decoding “{s.name}” decodes all its kept samples again with the approved sets in force now; {s.staleReadings} reading(s) of this probe were decoded with a set that no longer applies to their time. The new decode replaces the current one for verdicts and exports; the earlier decode stays recorded. It cannot be undone.</>}
+                        confirmLabel={<><RefreshCcw className="h-4 w-4" aria-hidden />Re-decode now</>}
+                        onConfirm={() => start(s.surveyId)} />
                     )
+                    : s.canRedecode ? null
                     : <Badge tone="neutral">Signed off: frozen</Badge>}
                 </div>
               </li>
@@ -48,7 +54,11 @@ export function ProbeSurveysCard({ probeId, redecode }: { probeId: number; redec
       </QueryState>
       <div className="px-5 pb-3">
         <FormError error={redecode.error} />
-        {redecode.isSuccess && <p role="status" className="text-sm text-meets-700">Re-decoded: {redecode.data.readings} readings in the new decode.</p>}
+        {redecode.isSuccess && (
+          <p role="status" className="text-sm text-meets-700">
+            Re-decoded: {redecode.data.readings} readings in the new decode. <Link className="font-medium underline" to={paths.decodeChanges.to(redecode.variables ?? 0)}>See what changed</Link>
+          </p>
+        )}
       </div>
     </Card>
   );

@@ -1,6 +1,7 @@
 import { Link } from 'react-router';
 import { AlertTriangle, Download, RefreshCw } from 'lucide-react';
 import { can } from '@shared/policy';
+import { formatCalendarDay } from '@shared/datetime';
 import type { Role } from '@shared/roles';
 import { READING_FLAGS, READING_FLAG_LABELS } from '@shared/schemas/readings';
 import type { SurveyDetail } from '@shared/schemas/surveys';
@@ -8,6 +9,7 @@ import type { PlanListResponse } from '@shared/schemas/plans';
 import type { UseQueryResult } from '@tanstack/react-query';
 import { useSurvey } from '../api/get-survey';
 import { useRedecodeSurvey } from '../api/redecode-survey';
+import { useDecodeChanges } from '../api/get-decode-changes';
 import { SurveyStatusBadge } from './status-badge';
 import { FlagBadge, ReadingsTable } from './readings-table';
 import { LogUpload } from './log-upload';
@@ -15,7 +17,7 @@ import { WalkChart } from './walk-chart';
 import { useUnits } from '@/lib/units';
 import { Page, PageHeader } from '@/components/ui/page';
 import { Card, CardBody, CardHeader } from '@/components/ui/card';
-import { Button } from '@/components/ui/button';
+import { ConfirmAction } from '@/components/ui/confirm-action';
 import { FormError } from '@/components/ui/form-error';
 import { QueryState } from '@/components/ui/states';
 import { paths } from '@shared/paths';
@@ -59,15 +61,27 @@ function Imports({ survey }: { survey: SurveyDetail }) {
 
 function Redecode({ survey }: { survey: SurveyDetail }) {
   const redecode = useRedecodeSurvey(survey.id);
+  const changes = useDecodeChanges(survey.id);
+  const current = changes.data?.decodedWithCurrentSets;
   return (
     <div className="flex flex-col gap-2">
       <p className="text-sm text-ink-600">
         Decoded {survey.decodes.length} time{survey.decodes.length === 1 ? '' : 's'}; earlier decodes stay recorded.
         Re-decode after calibration staff approve a corrected coefficient set.
       </p>
-      <div><Button variant="secondary" busy={redecode.isPending} onClick={() => redecode.mutate()}><RefreshCw className="h-4 w-4" aria-hidden />Re-decode with current coefficients</Button></div>
+      {current === true && <p className="text-sm text-ink-700" role="status">Every reading was decoded with the approved set in force at its time: a re-decode would change nothing.</p>}
+      {current === false && (
+        <div>
+          <ConfirmAction variant="secondary" busy={redecode.isPending}
+            trigger={<><RefreshCw className="h-4 w-4" aria-hidden />Re-decode with current coefficients…</>}
+            consequence={<>A newer approved coefficient set applies to some readings. Re-decoding decodes all {survey.readingCount.toLocaleString('en-GB')} readings again from the kept samples; the new decode replaces the current one for verdicts, maps and exports. The earlier decode stays recorded, but this cannot be undone.</>}
+            confirmLabel={<><RefreshCw className="h-4 w-4" aria-hidden />Re-decode now</>}
+            onConfirm={() => redecode.mutate()} />
+        </div>
+      )}
       {redecode.isSuccess && <p role="status" className="text-sm text-meets-700">Re-decoded: {redecode.data.readings.toLocaleString('en-GB')} readings in decode {redecode.data.decodeId}.</p>}
-      <FormError error={redecode.error} />
+      {changes.data?.before && <p className="text-sm"><Link className="font-medium text-lamp-700 underline" to={paths.decodeChanges.to(survey.id)}>What the latest re-decode changed</Link></p>}
+      <FormError error={redecode.error ?? changes.error} />
     </div>
   );
 }
@@ -83,7 +97,7 @@ export function SurveyPage({ surveyId, role, sitePlans }: { surveyId: number; ro
             <PageHeader
               eyebrow={<Link to={paths.surveys.to()} className="hover:underline">Surveys · {s.siteName}</Link>}
               title={s.name}
-              description={<span className="inline-flex flex-wrap items-center gap-2"><SurveyStatusBadge status={s.status} />{s.startedOn && <span>started {s.startedOn}</span>}{s.conditions && <span>{s.conditions.daylightExcluded ? 'daylight excluded' : 'daylight included'}</span>}</span>}
+              description={<span className="inline-flex flex-wrap items-center gap-2"><SurveyStatusBadge status={s.status} />{s.startedOn && <span>started {formatCalendarDay(s.startedOn)}</span>}{s.conditions && <span>{s.conditions.daylightExcluded ? 'daylight excluded' : 'daylight included'}</span>}</span>}
             />
             <div className="flex flex-col gap-6">
               <Card><CardBody><Summary survey={s} /><Imports survey={s} /></CardBody></Card>
@@ -98,7 +112,7 @@ export function SurveyPage({ surveyId, role, sitePlans }: { surveyId: number; ro
               )}
               <Card>
                 <CardHeader title="The walk" description={`Illuminance (${units.label}, log scale) over time, and the gain code the meter used.`} />
-                <CardBody><WalkChart surveyId={s.id} /></CardBody>
+                <CardBody><WalkChart surveyId={s.id} timeZone={s.siteTimeZone} /></CardBody>
               </Card>
               <Card>
                 <CardHeader

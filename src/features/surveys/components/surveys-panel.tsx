@@ -3,6 +3,7 @@ import { Link, useNavigate } from 'react-router';
 import { ClipboardList } from 'lucide-react';
 import { createSurveyBodySchema } from '@shared/schemas/surveys';
 import { can } from '@shared/policy';
+import { formatCalendarDay } from '@shared/datetime';
 import { useSites } from '../api/get-sites';
 import { useSurveys } from '../api/get-surveys';
 import { useCreateSurvey } from '../api/create-survey';
@@ -54,22 +55,22 @@ export function SurveysPanel({ role, siteId }: { role: Parameters<typeof can>[0]
   return (
     <div className="flex flex-col gap-6">
       <Card>
-        <CardHeader title="Surveys" description="Newest first. Open one to upload logs and see its readings." />
+        <CardHeader title="Surveys" description="Newest first by start date. Open one to upload logs and see its readings." />
         <QueryState query={surveys} isEmpty={(d) => d.items.length === 0} empty={<EmptyState title="No surveys yet" icon={<ClipboardList className="h-6 w-6" />}>Start one below.</EmptyState>}>
           {(d) => (
             <div className="overflow-x-auto">
-              <table className="min-w-full text-sm">
+              <table className="stack-table min-w-full text-sm">
                 <thead className="bg-ink-50 text-left text-xs uppercase tracking-wide text-ink-500">
                   <tr><th className="px-5 py-2">Survey</th><th className="px-3 py-2">Site</th><th className="px-3 py-2">Status</th><th className="px-3 py-2 text-right">Readings</th><th className="px-3 py-2">Started</th></tr>
                 </thead>
                 <tbody className="divide-y divide-ink-100">
                   {d.items.map((s) => (
                     <tr key={s.id} className="hover:bg-ink-50">
-                      <td className="px-5 py-2"><Link className="font-medium text-ink-900 underline-offset-2 hover:underline focus-visible:underline" to={paths.survey.to(s.id)}>{s.name}</Link></td>
-                      <td className="px-3 py-2 text-ink-600">{s.siteName}</td>
-                      <td className="px-3 py-2"><SurveyStatusBadge status={s.status} /></td>
-                      <td className="num px-3 py-2 text-right">{s.readingCount.toLocaleString('en-GB')}</td>
-                      <td className="px-3 py-2 text-ink-600">{s.startedOn ?? '–'}</td>
+                      <td data-lead className="px-5 py-2"><Link className="font-medium text-ink-900 underline-offset-2 hover:underline focus-visible:underline" to={paths.survey.to(s.id)}>{s.name}</Link></td>
+                      <td data-label="Site" className="px-3 py-2 text-ink-600">{s.siteName}</td>
+                      <td data-key className="px-3 py-2"><SurveyStatusBadge status={s.status} /></td>
+                      <td data-label="Readings" className="num px-3 py-2 text-right">{s.readingCount.toLocaleString('en-GB')}</td>
+                      <td data-key data-label="Started" className="px-3 py-2 text-ink-600">{s.startedOn ? formatCalendarDay(s.startedOn) : '–'}</td>
                     </tr>
                   ))}
                 </tbody>

@@ -1,0 +1,145 @@
+import { describe, it, expect, beforeAll, afterAll } from 'vitest';
+import path from 'node:path';
+import type { Page } from 'playwright-core';
+import { startE2eApp, signInAs, screenshotDir, type E2eApp } from './harness';
+import { formatClock } from '@shared/datetime';
+
+let app: E2eApp;
+beforeAll(async () => { app = await startE2eApp(); });
+afterAll(async () => { await app?.stop(); });
+
+const PHONE = { width: 390, height: 844 };
+const LONG = { timeout: 30_000 };
+
+/** No page may scroll sideways: the document is no wider than the viewport. */
+async function expectNoSidewaysScroll(page: Page, what: string) {
+  const { scroll, inner } = await page.evaluate(() => ({ scroll: document.documentElement.scrollWidth, inner: window.innerWidth }));
+  expect(scroll, `${what} is ${scroll} px wide in a ${inner} px viewport`).toBeLessThanOrEqual(inner);
+}
+
+/** Each located element is shown, and lies wholly inside the viewport's width. */
+async function expectWithinViewport(page: Page, selector: string, what: string, atLeast = 1) {
+  const boxes = await page.locator(selector).evaluateAll((els) => els.map((e) => {
+    const r = e.getBoundingClientRect();
+    const style = getComputedStyle(e);
+    return { left: r.left, right: r.right, width: r.width, visible: style.visibility !== 'hidden' && style.display !== 'none' && r.width > 0, text: (e as HTMLElement).innerText };
+  }));
+  expect(boxes.length, `${what}: how many`).toBeGreaterThanOrEqual(atLeast);
+  const width = await page.evaluate(() => window.innerWidth);
+  for (const b of boxes) {
+    expect(b.visible, `${what} "${b.text}" shown`).toBe(true);
+    expect(b.left, `${what} "${b.text}" left edge`).toBeGreaterThanOrEqual(0);
+    expect(b.right, `${what} "${b.text}" right edge`).toBeLessThanOrEqual(width);
+  }
+}
+
+async function surveyIdByName(page: Page, name: string): Promise<number> {
+  const res = await page.request.get('/api/surveys');
+  const s = (await res.json()).items.find((x: { name: string }) => x.name === name);
+  return s.id as number;
+}
+
+describe('at phone width (390 px) the main pages fit and show each row\'s key value', () => {
+  it('surveys, a survey\'s readings, the verdicts and the calibration due dates', async () => {
+    const page = await app.newPage(PHONE);
+    await signInAs(page, 'admin@luxtrail.test');
+
+    await page.goto('/surveys');
+    await page.getByRole('link', { name: 'Autumn walk-through 2026' }).first().waitFor(LONG);
+    await expectNoSidewaysScroll(page, 'Surveys');
+    await expectWithinViewport(page, 'table.stack-table tbody tr td[data-key]', 'survey status and start');
+
+    const autumn = await surveyIdByName(page, 'Autumn walk-through 2026');
+    await page.goto(`/surveys/${autumn}`);
+    await page.locator('[data-testid="reading-row"] [data-key-value]').first().waitFor(LONG);
+    await expectNoSidewaysScroll(page, 'Survey page');
+    await page.getByRole('rowgroup', { name: /Readings list/ }).scrollIntoViewIfNeeded();
+    await expectWithinViewport(page, '[data-testid="reading-row"] [data-key-value]', 'reading illuminance', 5);
+    await page.screenshot({ path: path.join(screenshotDir(), 'phone-survey.png'), fullPage: true });
+
+    await page.goto(`/compliance/surveys/${autumn}`);
+    await page.getByTestId('zone-table').waitFor(LONG);
+    await expectNoSidewaysScroll(page, 'Verdicts');
+    await expectWithinViewport(page, '[data-testid="zone-eavg"]', 'zone Eavg', 5);
+    const eavgs = await page.locator('[data-testid="zone-eavg"]').allInnerTexts();
+    // Whole figures, not cut: each ends in its unit.
+    for (const t of eavgs) expect(t).toMatch(/(lx|fc)( ± [\d,.]+)?$|–$/);
+    await page.screenshot({ path: path.join(screenshotDir(), 'phone-verdicts.png'), fullPage: true });
+
+    await page.goto('/calibration');
+    await page.getByRole('table', { name: 'Calibration due dates' }).waitFor(LONG);
+    await expectNoSidewaysScroll(page, 'Calibration');
+    await expectWithinViewport(page, 'table.stack-table tbody tr td[data-key]', 'probe state, due date and time left', 6);
+    await page.screenshot({ path: path.join(screenshotDir(), 'phone-calibration.png'), fullPage: true });
+  });
+});
+
+describe('one clock', () => {
+  it('a survey recorded in summer time shows the same times on the chart and in the table, in the site\'s zone, for a viewer elsewhere', async () => {
+    const page = await app.newPage({ timezoneId: 'America/New_York' });
+    await signInAs(page, 'surveyor@luxtrail.test');
+    const spring = await surveyIdByName(page, 'Spring walk-through 2026');
+    const first = (await (await page.request.get(`/api/surveys/${spring}/readings?limit=1&sort=time`)).json()).items[0];
+    const expected = formatClock(first.timestamp, 'Europe/London');
+    await page.goto(`/surveys/${spring}`);
+    const span = page.getByTestId('walk-span');
+    await span.waitFor(LONG);
+    expect(await span.innerText()).toContain(`From ${expected} to`);
+    expect(await span.innerText()).toContain('Europe/London, BST');
+    const row = page.locator('[data-testid="reading-row"]').first();
+    await row.waitFor(LONG);
+    expect(await row.innerText()).toContain(`${expected}:`);
+    await expect.poll(() => page.getByRole('columnheader', { name: /Time \(Europe\/London, BST\)/ }).count()).toBe(1);
+  });
+
+  it('a new site\'s time zone starts at the browser\'s own', async () => {
+    const page = await app.newPage({ timezoneId: 'America/Chicago' });
+    await signInAs(page, 'surveyor@luxtrail.test');
+    await page.goto('/surveys');
+    const zone = page.getByLabel('Time zone');
+    await zone.waitFor(LONG);
+    expect(await zone.inputValue()).toBe('America/Chicago');
+  });
+});
+
+describe('sign-in and sign-off leave no stale or noisy state', () => {
+  it('the sign-in page logs no error to the console', async () => {
+    const page = await app.newPage();
+    const errors: string[] = [];
+    page.on('console', (m) => { if (m.type() === 'error') errors.push(m.text()); });
+    page.on('pageerror', (e) => errors.push(e.message));
+    await page.goto('/sign-in');
+    await page.getByLabel('E-mail').waitFor(LONG);
+    await page.waitForLoadState('networkidle');
+    expect(errors).toEqual([]);
+  });
+
+  it('after sign-off the page shows the signed record at once, even while the verdicts are fetched again', async () => {
+    const page = await app.newPage();
+    await signInAs(page, 'facilities@luxtrail.test');
+    const autumn = await surveyIdByName(page, 'Autumn walk-through 2026');
+    await page.goto(`/compliance/surveys/${autumn}`);
+    await page.getByTestId('zone-table').waitFor(LONG);
+    // Four counters always, "not assessed" too, even at zero.
+    await page.goto('/compliance');
+    const counters = page.getByRole('listitem').filter({ hasText: 'Fernmoor Community Library' }).getByLabel('Zones by verdict');
+    await counters.waitFor(LONG);
+    expect(await counters.innerText()).toMatch(/Not assessed/);
+    await page.goto(`/compliance/surveys/${autumn}`);
+    await page.getByTestId('zone-table').waitFor(LONG);
+    // Hold back the verdicts' refetch: what shows meanwhile must already be the signed state.
+    let release: () => void = () => {};
+    const held = new Promise<void>((r) => { release = r; });
+    await page.route(`**/api/surveys/${autumn}/compliance`, async (route) => { await held; await route.continue(); });
+    await page.getByRole('button', { name: 'Sign off…' }).click();
+    await page.getByLabel('Comment (optional)').fill('Checked on site');
+    await Promise.all([page.waitForResponse((r) => r.url().endsWith(`/api/surveys/${autumn}/sign-off`)), page.getByRole('button', { name: 'Confirm sign-off' }).click()]);
+    const record = page.getByLabel('Signed record');
+    await record.waitFor({ timeout: 10_000 });
+    expect(await record.innerText()).toMatch(/Marguerite Oakhurst[\s\S]*Checked on site/);
+    expect(await page.getByRole('button', { name: 'Confirm sign-off' }).count()).toBe(0);
+    expect(await page.getByText('Submitted', { exact: true }).count()).toBe(0);
+    release();
+    await page.unroute(`**/api/surveys/${autumn}/compliance`);
+  });
+});

@@ -1,0 +1,58 @@
+import { describe, it, expect } from 'vitest';
+import { placeLineLabel, placeZoneLabel, type LabelBox } from '@shared/spatial/label-placement';
+import { DEMO_PLANS } from '@server/db/demo/library-layout';
+import { simulateDemoWalk } from '@server/db/demo/simulate-log';
+import type { PlanPoint } from '@shared/spatial/polygon';
+
+// Label sizes as the map draws them at the demo plans' 20 px per metre (11 px text, about 6.2 px a
+// character, 16 px tall, markers of 5 px radius): common practice for a legible map label, not a standard.
+const PX_PER_M = 20;
+const size = (text: string) => ({ width: (text.length * 6.2 + 8) / PX_PER_M, height: 16 / PX_PER_M, pointMargin: 5 / PX_PER_M });
+const covers = (b: LabelBox, p: PlanPoint, m: number) => Math.abs(p[0] - b.x) <= b.hw + m && Math.abs(p[1] - b.y) <= b.hh + m;
+
+describe('zone labels leave every measurement point of the demo plans visible', () => {
+  const walk = simulateDemoWalk({ startMs: Date.parse('2026-11-19T09:00:00Z'), seed: 1 });
+  for (const plan of DEMO_PLANS) {
+    it(`${plan.name}: no zone label covers a point, and no two labels overlap`, () => {
+      const points = walk.filter((r) => r.plan === plan.name && r.xM !== undefined && r.yM !== undefined).map((r) => [r.xM!, r.yM!] as PlanPoint);
+      expect(points.length).toBeGreaterThan(5);
+      const taken: LabelBox[] = [];
+      for (const z of plan.zones) {
+        const o = size(`${z.name} · Eavg 560 lx`);
+        const placed = placeZoneLabel(z.polygon, points, { ...o, taken });
+        expect(placed.covering, z.name).toBe(false);
+        for (const p of points) expect(covers(placed.box, p, o.pointMargin), `${z.name} label over (${p[0]}, ${p[1]})`).toBe(false);
+        for (const t of taken) expect(Math.abs(t.x - placed.box.x) < t.hw + placed.box.hw && Math.abs(t.y - placed.box.y) < t.hh + placed.box.hh, `${z.name} overlaps a label`).toBe(false);
+        taken.push(placed.box);
+      }
+    });
+  }
+
+  it('keeps a label inside its zone, near the centre, when the centre is free', () => {
+    const placed = placeZoneLabel([[0, 0], [10, 0], [10, 10], [0, 10]], [[1, 1]], { width: 3, height: 1, pointMargin: 0.2 });
+    expect(placed).toMatchObject({ inside: true, covering: false });
+    expect(placed.box.x).toBeCloseTo(5, 6);
+    expect(placed.box.y).toBeCloseTo(5, 6);
+  });
+
+  it('moves off a point at the centre (the middle row of an office grid), staying inside', () => {
+    const row: PlanPoint[] = [[1, 5], [3, 5], [5, 5], [7, 5], [9, 5]];
+    const placed = placeZoneLabel([[0, 0], [10, 0], [10, 10], [0, 10]], row, { width: 3, height: 1, pointMargin: 0.2 });
+    expect(placed.inside).toBe(true);
+    expect(Math.abs(placed.box.y - 5)).toBeGreaterThan(0.7);
+  });
+
+  it('goes outside a zone whose inside is all points', () => {
+    const dense: PlanPoint[] = [];
+    for (let x = 0.25; x < 4; x += 0.5) for (let y = 0.25; y < 2; y += 0.5) dense.push([x, y]);
+    const placed = placeZoneLabel([[0, 0], [4, 0], [4, 2], [0, 2]], dense, { width: 2, height: 0.5, pointMargin: 0.1 });
+    expect(placed).toMatchObject({ inside: false, covering: false });
+  });
+
+  it('puts an isolux label on a vertex of its line that hides no point', () => {
+    const line: PlanPoint[] = [[0, 0], [1, 0], [2, 0], [3, 0], [4, 0]];
+    const at = placeLineLabel([line], [[2, 0]], { width: 1, height: 0.4, pointMargin: 0.1 });
+    expect(at).not.toBeNull();
+    expect(Math.abs(at!.x - 2)).toBeGreaterThan(0.5);
+  });
+});
