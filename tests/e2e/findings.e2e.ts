@@ -143,3 +143,47 @@ describe('sign-in and sign-off leave no stale or noisy state', () => {
     await page.unroute(`**/api/surveys/${autumn}/compliance`);
   });
 });
+
+describe('the survey map', () => {
+  it('an open popup follows the unit switch, and no zone or isolux label sits on a point', async () => {
+    const page = await app.newPage();
+    await signInAs(page, 'surveyor@luxtrail.test');
+    const autumn = await surveyIdByName(page, 'Autumn walk-through 2026');
+    await page.goto(`/surveys/${autumn}/map`);
+    const map = page.getByTestId('survey-map');
+    await expect.poll(() => map.getAttribute('data-painted-ms'), LONG).not.toBeNull();
+    const finder = page.getByLabel('Find a point');
+    await finder.selectOption({ index: 1 });
+    const popup = page.locator('.leaflet-popup').filter({ hasText: 'Point ' });
+    await popup.waitFor(LONG);
+    expect(await popup.innerText()).toMatch(/\d lx/);
+    await page.getByRole('radio', { name: 'foot-candles' }).click();
+    await expect.poll(() => popup.innerText()).toMatch(/\d fc/);
+    expect(await popup.innerText()).not.toMatch(/\d lx/);
+    await page.locator('.leaflet-popup-close-button').click();
+
+    // Every label's box against every marker drawn: the markers' screen positions come from the API's plan metres.
+    const labels = await page.locator('.zone-label, .isolux-label').evaluateAll((els) => els.map((e) => e.getBoundingClientRect()).map((r) => ({ l: r.left, r: r.right, t: r.top, b: r.bottom })));
+    expect(labels.length).toBeGreaterThan(3);
+    const points = await page.evaluate(async (surveyId) => {
+      const res = await fetch(`/api/surveys/${surveyId}/map`);
+      return ((await res.json()).readings as { xM: number; yM: number }[]).map((r) => [r.xM, r.yM]);
+    }, autumn);
+    // The plan image spans the plan's extent, so its box on screen maps plan metres to pixels.
+    const centres = await page.evaluate((n) => {
+      const o = (document.querySelector('[data-testid="survey-map"] .leaflet-image-layer') as HTMLImageElement).getBoundingClientRect();
+      return { img: { l: o.left, t: o.top, w: o.width, h: o.height }, n };
+    }, points.length);
+    expect(centres.n).toBeGreaterThan(10);
+    const plan = (await (await page.request.get(`/api/surveys/${autumn}/map`)).json()) as { planId: number };
+    const planInfo = (await (await page.request.get(`/api/plans/${plan.planId}`)).json()) as { widthM: number; heightM: number };
+    const toScreen = ([x, y]: number[]) => [centres.img.l + (x / planInfo.widthM) * centres.img.w, centres.img.t + (1 - y / planInfo.heightM) * centres.img.h];
+    for (const p of points) {
+      const [sx, sy] = toScreen(p);
+      for (const b of labels) {
+        const inside = sx > b.l + 1 && sx < b.r - 1 && sy > b.t + 1 && sy < b.b - 1;
+        expect(inside, `label [${b.l.toFixed(0)},${b.t.toFixed(0)}–${b.r.toFixed(0)},${b.b.toFixed(0)}] over point (${p[0]}, ${p[1]})`).toBe(false);
+      }
+    }
+  });
+});

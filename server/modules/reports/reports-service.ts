@@ -21,10 +21,11 @@ export type FileAnswer = { filename: string; contentType: string; content: Buffe
 
 const slug = (s: string) => s.toLowerCase().normalize('NFKD').replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'survey';
 /** Signed off: "signed-2026-12-02" (the UTC day of the sign-off); otherwise "provisional", so the two never share a name. */
-const recordTag = (survey: Pick<SurveyRow, 'status' | 'signedOffAt'>) =>
-  survey.status === 'signed_off' && survey.signedOffAt !== null ? `signed-${new Date(survey.signedOffAt).toISOString().slice(0, 10)}` : 'provisional';
-export const reportFilename = (survey: Pick<SurveyRow, 'id' | 'name' | 'status' | 'signedOffAt'>, ext: string, what = 'report') =>
-  `luxtrail-${what}-${survey.id}-${slug(survey.name)}-${recordTag(survey)}.${ext}`;
+const recordTag = (survey: Partial<Pick<SurveyRow, 'status' | 'signedOffAt'>>) =>
+  survey.status === undefined ? '' : survey.status === 'signed_off' && survey.signedOffAt ? `-signed-${new Date(survey.signedOffAt).toISOString().slice(0, 10)}` : '-provisional';
+/** A record with no sign-off (no status given) gets no tag. */
+export const reportFilename = (survey: Pick<SurveyRow, 'id' | 'name'> & Partial<Pick<SurveyRow, 'status' | 'signedOffAt'>>, ext: string, what = 'report') =>
+  `luxtrail-${what}-${survey.id}-${slug(survey.name)}${recordTag(survey)}.${ext}`;
 
 /** The PDF report of a survey (frozen verdicts once signed off). */
 export async function surveyReportPdf(deps: Deps, survey: SurveyRow, unit: ReportUnit = 'lx'): Promise<FileAnswer> {

@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useRef } from 'react';
+import { useCallback, useEffect, useMemo, useRef } from 'react';
 import L from 'leaflet';
 import { useMap } from 'react-leaflet';
 import type { MapReading } from '@shared/schemas/plans';
@@ -30,11 +30,11 @@ export function ReadingsLayer({ readings, colourOf, detailsOf, focusedId, onPain
     const o = open.current;
     if (o && map.hasLayer(o.popup)) o.popup.setContent(detailsOf(o.r));
   }, [detailsOf, map]);
-  const openPopup = (latLng: L.LatLngExpression, r: MapReading) => {
+  const openPopup = useCallback((latLng: L.LatLngExpression, r: MapReading) => {
     const popup = L.popup({ maxWidth: 280 }).setLatLng(latLng).setContent(details.current(r));
     open.current = { popup, r };
     popup.openOn(map);
-  };
+  }, [map]);
 
   useEffect(() => {
     const started = performance.now();
@@ -74,7 +74,7 @@ export function ReadingsLayer({ readings, colourOf, detailsOf, focusedId, onPain
       group.remove();
     };
     // Markers are rebuilt when the readings or their colours change.
-  }, [map, renderer, readings, colourOf, onPainted]);
+  }, [map, renderer, readings, colourOf, onPainted, openPopup]);
 
   useEffect(() => {
     if (focusedId === null || focusedId === undefined) return;
@@ -83,7 +83,7 @@ export function ReadingsLayer({ readings, colourOf, detailsOf, focusedId, onPain
     if (!m || !r) return;
     map.panTo(m.getLatLng());
     openPopup(m.getLatLng(), r);
-  }, [focusedId, map, readings]);
+  }, [focusedId, map, readings, openPopup]);
 
   return null;
 }
