@@ -1,7 +1,8 @@
 import { and, asc, eq, isNotNull, isNull, sql } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { plans, zones } from '../../db/schema/plans';
-import { readings, sites, surveys } from '../../db/schema/surveys';
+import { readings, surveys } from '../../db/schema/surveys';
+import { sites } from '../../db/schema/sites';
 import { probes } from '../../db/schema/calibration';
 import type { SessionUser } from '@shared/schemas/auth';
 import type { MapReading, MapZoneSummary, SurveyMapResponse } from '@shared/schemas/plans';
