@@ -43,7 +43,7 @@ describe('route-by-role matrix (README table, shared/policy.ts)', () => {
       const res = await send(t.client(), r.method, ex);
       expect(res.status, `${r.method} ${r.path}`).toBe(401);
     }
-  });
+  }, 180_000);
 
   for (const role of ROLES) {
     it(`gives ${role} 2xx where the policy allows and 403 where it does not`, async () => {
@@ -60,6 +60,6 @@ describe('route-by-role matrix (README table, shared/policy.ts)', () => {
           else expect(res.status >= 200 && res.status < 300, label).toBe(true);
         } else expect(res.status, label).toBe(403);
       }
-    });
+    }, 180_000); // every route in turn: minutes on a busy shared machine
   }
 });
