@@ -31,7 +31,7 @@ function present(r: Row): Reading {
     id: r.id, point: r.point, xM: r.xM, yM: r.yM, planId: r.planId, role: r.role, timestamp: new Date(r.timeMs).toISOString(), probe: r.probe,
     lux: r.lux, uLux: r.uLux, luxBound: r.luxBound, flag: r.flag, gainCode: r.gainCode, samples: r.samples, chosenSample: r.chosenSample,
     budget: decodeBudget(r.budget), plane: r.plane, azimuthDeg: r.azimuthDeg,
-    budget: decodeBudget(r.budget), rawCounts: r.rawCounts, rawSignal: r.rawSignal, intMs: r.intMs, tempC: r.tempC, coefficientSetId: r.coefficientSetId,
+    rawCounts: r.rawCounts, rawSignal: r.rawSignal, intMs: r.intMs, tempC: r.tempC, coefficientSetId: r.coefficientSetId,
   };
 }
 
