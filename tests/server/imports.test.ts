@@ -1,6 +1,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { describe, it, expect, beforeAll } from 'vitest';
+import Papa from 'papaparse';
 import { and, eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
 import { createTestProbes, newDraftSurvey, tableCounts, testWalkCsv, TEST_SERIALS, uploadAndWait } from './support/survey-log-factories';
@@ -70,7 +71,7 @@ describe('log import: accepted files', () => {
     expect(page.items).toHaveLength(5);
     expect(page.total).toBeGreaterThan(100);
     const r = page.items.find((x: { flag: string }) => x.flag === 'ok');
-    expect(Object.keys(r).sort()).toEqual(['azimuthDeg', 'budget', 'chosenSample', 'flag', 'gainCode', 'id', 'lux', 'luxBound', 'plane', 'planId', 'point', 'probe', 'role', 'samples', 'timestamp', 'uLux', 'xM', 'yM'].sort());
+    expect(Object.keys(r).sort()).toEqual(['azimuthDeg', 'budget', 'chosenSample', 'coefficientSetId', 'flag', 'gainCode', 'id', 'intMs', 'lux', 'luxBound', 'plane', 'planId', 'point', 'probe', 'rawCounts', 'rawSignal', 'role', 'samples', 'tempC', 'timestamp', 'uLux', 'xM', 'yM'].sort());
     expect(r).toMatchObject({ plane: 'horizontal', azimuthDeg: null });
     const uc = Math.sqrt(r.budget.reduce((s: number, p: { uRel: number }) => s + p.uRel ** 2, 0));
     expect(r.uLux).toBeCloseTo(2 * uc * r.lux, 6); // GUM: U = k u_c, k = 2
@@ -156,7 +157,7 @@ describe('log import: accepted files', () => {
     expect(head).toContain('illuminance_fc');
     // OWASP CSV injection: a leading apostrophe makes the cell text.
     expect(line).toContain(`"'=HYPERLINK(""http://x.invalid"")"`);
-    const fc = Number(line.split(',').at(-10));
+    const fc = Number(Papa.parse<Record<string, string>>(csv.text, { header: true }).data[0].illuminance_fc);
     expect(fc).toBeCloseTo(r.lux / 10.7639104167, 1); // 1 fc = 1/0.3048^2 lx (exact)
   });
 });
