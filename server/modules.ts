@@ -28,6 +28,7 @@ import { seedCalibration } from './db/seed-calibration';
 import { seedSurveyLogs, seedSurveys } from './db/seed-surveys';
 import { seedPlans } from './db/seed-plans';
 import { seedCompliance } from './db/seed-compliance';
+import { seedEmergency } from './db/seed-emergency';
 
 /** Background work a real server runs every `everyMs` (server/jobs.ts). */
 export type Job = { name: string; everyMs: number; run: (deps: Deps) => Promise<unknown> | unknown };
@@ -73,5 +74,6 @@ export const SERVER_MODULES: ServerModule[] = [
   { name: 'compliance', routes: registerComplianceRoutes, seed: seedCompliance },
   { name: 'workflow', routes: registerWorkflowRoutes },
   { name: 'reports', routes: registerReportRoutes },
-  { name: 'emergency', routes: registerEmergencyRoutes, jobs: [{ name: 'emergency-test-reminders', everyMs: DAY_MS, run: (deps) => runEmergencyTestReminders(deps) }] },
+  // The library's emergency lighting on the ground-floor plan, its night test and logbook.
+  { name: 'emergency', routes: registerEmergencyRoutes, seed: seedEmergency, jobs: [{ name: 'emergency-test-reminders', everyMs: DAY_MS, run: (deps) => runEmergencyTestReminders(deps) }] },
 ];

@@ -48,6 +48,10 @@ export const paths = {
   zoneCompliance: page('/compliance/surveys/:surveyId/zones/:zoneId', 'surveys.read', (surveyId: Id, zoneId: Id) => `/compliance/surveys/${surveyId}/zones/${zoneId}`),
   targets: page('/targets', 'targets.read', () => '/targets'),
   settings: page('/settings', 'organization.settings', () => '/settings'),
+  emergency: page('/emergency', 'surveys.read', () => '/emergency'),
+  emergencyPlan: page('/emergency/plans/:planId', 'surveys.read', (planId: Id) => `/emergency/plans/${planId}`),
+  emergencySurvey: page('/emergency/surveys/:surveyId', 'surveys.read', (surveyId: Id) => `/emergency/surveys/${surveyId}`),
+  emergencyLogbook: page('/emergency/logbook/:siteId', 'surveys.read', (siteId: Id) => `/emergency/logbook/${siteId}`),
 } as const;
 
 export type PageName = keyof typeof paths;

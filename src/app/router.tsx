@@ -65,6 +65,10 @@ const appRoutes: RouteObject[] = [
   lazyPage('zoneCompliance', () => import('./routes/compliance/zone-compliance').then((m) => m.ZoneComplianceRoute)),
   lazyPage('targets', () => import('./routes/compliance/targets').then((m) => m.TargetsRoute)),
   lazyPage('settings', () => import('./routes/compliance/settings').then((m) => m.SettingsRoute)),
+  lazyPage('emergency', () => import('./routes/emergency/emergency-overview').then((m) => m.EmergencyOverviewRoute)),
+  lazyPage('emergencyPlan', () => import('./routes/emergency/emergency-plan').then((m) => m.EmergencyPlanRoute)),
+  lazyPage('emergencySurvey', () => import('./routes/emergency/emergency-survey').then((m) => m.EmergencySurveyRoute)),
+  lazyPage('emergencyLogbook', () => import('./routes/emergency/logbook').then((m) => m.LogbookRoute)),
 ];
 
 const publicPage = { errorElement: <RouteErrorBoundary /> };

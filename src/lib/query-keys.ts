@@ -94,3 +94,17 @@ export const benchRunKeys = {
   all: ['bench-runs'] as const,
   detail: (benchRunId: number) => [...benchRunKeys.all, 'detail', benchRunId] as const,
 };
+
+export const emergencyKeys = {
+  all: ['emergency'] as const,
+  criteriaSets: () => [...emergencyKeys.all, 'criteria-sets'] as const,
+  /** A plan's escape routes, areas and equipment points. */
+  elements: (planId: number) => [...emergencyKeys.all, 'elements', { planId }] as const,
+  surveys: () => [...emergencyKeys.all, 'surveys'] as const,
+  surveyList: (filters: { siteId?: number }) => [...emergencyKeys.surveys(), 'list', filters] as const,
+  /** An emergency survey with its verdicts (they change with elements, readings and response times). */
+  survey: (surveyId: number) => [...emergencyKeys.surveys(), 'detail', surveyId] as const,
+  tests: () => [...emergencyKeys.all, 'tests'] as const,
+  logbook: (siteId: number) => [...emergencyKeys.tests(), 'site', siteId] as const,
+  testsDue: () => [...emergencyKeys.tests(), 'due'] as const,
+};

@@ -45,6 +45,9 @@ describe('accessibility of the main pages (axe-core, WCAG 2 A and AA)', () => {
     ['surveyor@luxtrail.test', '/surveys/3/map?planId=1', 'Layers'],
     ['facilities@luxtrail.test', '/compliance/surveys/3', 'Zones, worst first'],
     ['calibration@luxtrail.test', '/calibration/probes/1', 'Coefficient sets'],
+    // Survey 5 is the library's emergency night test.
+    ['facilities@luxtrail.test', '/emergency', 'Tests due'],
+    ['facilities@luxtrail.test', '/emergency/surveys/5', 'Criteria, conditions and passes'],
   ];
   for (const [email, path, heading] of pages) {
     it(`has no serious or critical violations on ${path} for ${email}`, async () => {

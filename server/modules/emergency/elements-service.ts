@@ -24,6 +24,16 @@ export function plannedPointsOf(e: Pick<ElementRow, 'kind' | 'code' | 'geometry'
   }
 }
 
+/** Planned points of an element body before it is stored (the demo log is simulated from them). */
+export function plannedPointsOfBody(input: EmergencyElementBody): PlannedPointDto[] {
+  const b = emergencyElementBodySchema.parse(input);
+  const geometry = b.kind === 'escape_route' ? b.line : b.kind === 'safety_equipment' ? [b.point] : b.polygon;
+  return plannedPointsOf({
+    kind: b.kind, code: b.code, geometry, widthM: b.kind === 'escape_route' ? b.widthM : null,
+    borderM: b.kind === 'open_area' ? b.borderM : null, spacingM: b.kind === 'safety_equipment' ? null : b.spacingM,
+  });
+}
+
 /** The normal lighting's maintained illuminance a high-risk area is judged against: its own figure, else its zone's target. */
 export function effectiveNormalEmLux(db: Db, organizationId: number, e: Pick<ElementRow, 'normalEmLux' | 'normalZoneId'>): number | null {
   if (e.normalEmLux !== null) return e.normalEmLux;

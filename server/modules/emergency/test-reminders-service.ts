@@ -4,6 +4,7 @@ import { organizations, users, userSites } from '../../db/schema/organizations';
 import { sites } from '../../db/schema/sites';
 import { emergencyTestReminders, emergencyTests } from '../../db/schema/emergency';
 import { testDueDates } from '@shared/core/emergency-schedule';
+import { absoluteUrl, paths } from '@shared/paths';
 import { localDate, scheduleOf } from './logbook-service';
 
 /** At most one reminder per site and test kind in this interval. */
@@ -47,7 +48,7 @@ export async function runEmergencyTestReminders(deps: Deps, onlyOrganizationId?:
         to: recipients,
         organizationId: org.id,
         subject: `Emergency lighting test ${toSend.some((d) => d.state === 'overdue') ? 'overdue' : 'due'} at ${site.name}`,
-        text: `Hello,\n\nThe emergency lighting of ${site.name} (${org.name}) needs testing:\n\n${lines.join('\n')}\n\nRecord the test in the site's logbook: ${deps.config.publicUrl}/emergency/logbook/${site.id}\n\nLuxtrail keeps the record; a competent person and the local codes decide what testing the installation needs.\nYou get at most one reminder per site and test a week.\n`,
+        text: `Hello,\n\nThe emergency lighting of ${site.name} (${org.name}) needs testing:\n\n${lines.join('\n')}\n\nRecord the test in the site's logbook: ${absoluteUrl(deps.config.publicUrl, paths.emergencyLogbook.to(site.id))}\n\nLuxtrail keeps the record; a competent person and the local codes decide what testing the installation needs.\nYou get at most one reminder per site and test a week.\n`,
       });
       deps.db.transaction((tx) => {
         for (const d of toSend) tx.insert(emergencyTestReminders).values({ siteId: site.id, kind: d.kind, state: d.state as 'due_soon' | 'overdue', sentAt: now }).run();
