@@ -13,8 +13,8 @@ export default defineConfig({
   test: {
     include: ['tests/e2e/**/*.e2e.ts'],
     environment: 'node',
-    testTimeout: 60_000,
-    hookTimeout: 90_000,
+    testTimeout: 120_000,
+    hookTimeout: 150_000,
     fileParallelism: false,
   },
 });

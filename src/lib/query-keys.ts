@@ -102,8 +102,8 @@ export const emergencyKeys = {
   elements: (planId: number) => [...emergencyKeys.all, 'elements', { planId }] as const,
   surveys: () => [...emergencyKeys.all, 'surveys'] as const,
   surveyList: (filters: { siteId?: number }) => [...emergencyKeys.surveys(), 'list', filters] as const,
-  /** An emergency survey with its verdicts (they change with elements, readings and response times). */
-  survey: (surveyId: number) => [...emergencyKeys.surveys(), 'detail', surveyId] as const,
+  /** An emergency survey with its verdicts: part of the survey, so a new log's invalidation of surveyKeys.detail refreshes it. */
+  survey: (surveyId: number) => [...surveyKeys.detail(surveyId), 'emergency'] as const,
   tests: () => [...emergencyKeys.all, 'tests'] as const,
   logbook: (siteId: number) => [...emergencyKeys.tests(), 'site', siteId] as const,
   testsDue: () => [...emergencyKeys.tests(), 'due'] as const,

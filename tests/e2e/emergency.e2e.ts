@@ -47,10 +47,12 @@ describe('emergency lighting in a real browser', () => {
     await form.getByLabel('Name').fill('Drawn exit route');
     await form.getByRole('button', { name: 'Draw on plan' }).click();
     const map = page.getByTestId('emergency-map');
-    await map.locator('.leaflet-image-layer').waitFor();
-    const box = (await map.boundingBox())!;
-    const a = { x: box.x + box.width * 0.25, y: box.y + box.height * 0.85 };
-    const b = { x: box.x + box.width * 0.6, y: box.y + box.height * 0.85 };
+    const image = map.locator('.leaflet-image-layer');
+    await image.waitFor();
+    // Fractions of the plan image (36 x 20 m): y = 0.9 from the top is 2 m up, inside the reading room.
+    const box = (await image.boundingBox())!;
+    const a = { x: box.x + box.width * 0.1, y: box.y + box.height * 0.9 };
+    const b = { x: box.x + box.width * 0.45, y: box.y + box.height * 0.9 };
     await page.mouse.click(a.x, a.y);
     await page.mouse.click(b.x, b.y);
     await page.mouse.click(b.x, b.y);
@@ -97,8 +99,9 @@ describe('emergency lighting in a real browser', () => {
   });
 
   it('shows the facility manager the library\'s overdue test on a 390 px phone, with nothing wider than the screen', async () => {
-    const page = await app.newPage({ width: 390, height: 844 });
+    const page = await app.newPage();
     await signInAs(page, 'facilities@luxtrail.test');
+    await page.setViewportSize({ width: 390, height: 844 });
     await page.goto('/emergency');
     const library = page.getByTestId('due-functional').first();
     await library.getByText(/Overdue by 10 days/).waitFor();

@@ -36,14 +36,14 @@ export async function startE2eApp(): Promise<E2eApp> {
   server.stdout?.on('data', (d) => { log += d; });
   server.stderr?.on('data', (d) => { log += d; });
   const baseUrl = `http://localhost:${port}`;
-  const deadline = Date.now() + 60_000;
+  const deadline = Date.now() + 120_000; // a busy 2-core machine seeds slowly
   for (;;) {
     if (server.exitCode !== null) throw new Error(`server exited early:\n${log}`);
     try {
       const res = await fetch(`${baseUrl}/api/health`);
       if (res.ok) break;
     } catch { /* not up yet */ }
-    if (Date.now() > deadline) throw new Error(`server did not start within 60 s:\n${log}`);
+    if (Date.now() > deadline) throw new Error(`server did not start within 120 s:\n${log}`);
     await new Promise((r) => setTimeout(r, 250));
   }
   const browser = await chromium.launch({

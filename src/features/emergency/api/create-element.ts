@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { emergencyKeys } from '@/lib/query-keys';
+import { emergencyKeys, surveyKeys } from '@/lib/query-keys';
 import { api } from '@/lib/api-client';
 import type { EmergencyElement, EmergencyElementBody } from '@shared/schemas/emergency';
 
@@ -12,6 +12,7 @@ export function useCreateElement() {
     onSuccess: (e) => {
       void qc.invalidateQueries({ queryKey: emergencyKeys.elements(e.planId) });
       void qc.invalidateQueries({ queryKey: emergencyKeys.surveys() });
+      void qc.invalidateQueries({ queryKey: surveyKeys.details() });
     },
   });
 }

@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { emergencyKeys } from '@/lib/query-keys';
+import { emergencyKeys, surveyKeys } from '@/lib/query-keys';
 import { api } from '@/lib/api-client';
 
 export const deleteElement = ({ id }: { id: number; planId: number }) => api.delete<void>(`/emergency-elements/${id}`);
@@ -11,6 +11,7 @@ export function useDeleteElement() {
     onSuccess: (_r, v) => {
       void qc.invalidateQueries({ queryKey: emergencyKeys.elements(v.planId) });
       void qc.invalidateQueries({ queryKey: emergencyKeys.surveys() });
+      void qc.invalidateQueries({ queryKey: surveyKeys.details() });
     },
   });
 }

@@ -29,7 +29,7 @@ export function ElementList({ elements, canEdit }: { elements: readonly Emergenc
               </div>
               <div className="flex items-center gap-2">
                 {e.stair && <Badge tone="warn">Stair</Badge>}
-                <Badge>{e.plannedPoints.length} planned points</Badge>
+                <Badge>{e.plannedPoints.length} planned point{e.plannedPoints.length === 1 ? '' : 's'}</Badge>
                 {canEdit && (
                   <Button size="sm" variant="ghost" onClick={() => del.mutate({ id: e.id, planId: e.planId })} aria-label={`Delete ${e.code} ${e.name}`}>
                     <Trash2 className="h-4 w-4" aria-hidden />

@@ -49,7 +49,7 @@ function ElementCard({ e, survey }: { e: ElementVerdict; survey: EmergencySurvey
             <li key={`${c.checkId}-${c.pass}-${i}`} className="flex flex-wrap items-start gap-2">
               <EmergencyVerdictBadge verdict={c.verdict} />
               {c.pass && <Badge>{PASS_WORD[c.pass]}</Badge>}
-              <span className="min-w-0 flex-1">
+              <span className="min-w-0 basis-full sm:basis-0 sm:flex-1">
                 {fmtCheck(c)}
                 {c.roundingNote && <span className="mt-0.5 block text-xs text-unsure-700">{c.roundingNote}</span>}
                 <span className="mt-0.5 block text-xs text-ink-500">{c.source}</span>
