@@ -17,6 +17,8 @@ import { registerPlanRoutes } from './modules/plans/plans-routes';
 import { registerZoneRoutes } from './modules/zones/zones-routes';
 import { registerImportRoutes } from './modules/imports/imports-routes';
 import { registerReadingRoutes } from './modules/readings/readings-routes';
+import { registerPlannedPointRoutes } from './modules/planned-points/planned-points-routes';
+import { registerPlacementRoutes } from './modules/placements/placements-routes';
 import { registerTargetRoutes } from './modules/targets/targets-routes';
 import { registerOrganizationRoutes } from './modules/organization/organization-routes';
 import { registerComplianceRoutes } from './modules/compliance/compliance-routes';
@@ -68,6 +70,8 @@ export const SERVER_MODULES: ServerModule[] = [
   { name: 'zones', routes: registerZoneRoutes },
   { name: 'imports', routes: registerImportRoutes, seed: seedSurveyLogs },
   { name: 'readings', routes: registerReadingRoutes },
+  { name: 'planned-points', routes: registerPlannedPointRoutes },
+  { name: 'placements', routes: registerPlacementRoutes },
   { name: 'targets', routes: registerTargetRoutes },
   { name: 'organization', routes: registerOrganizationRoutes },
   // The target library and the sign-off of the earlier walk-through.

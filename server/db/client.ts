@@ -10,8 +10,9 @@ import * as surveys from './schema/surveys';
 import * as plans from './schema/plans';
 import * as targets from './schema/targets';
 import * as emergency from './schema/emergency';
+import * as grids from './schema/grids';
 
-export const schema = { ...organizations, ...calibration, ...surveys, ...plans, ...targets, ...emergency };
+export const schema = { ...organizations, ...calibration, ...surveys, ...plans, ...targets, ...emergency, ...grids };
 export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
 
 const migrationsFolder = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../drizzle');

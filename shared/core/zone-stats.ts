@@ -138,16 +138,32 @@ export function zoneStats(readings: readonly Reading[]): ZoneStats {
 /** Grid rule of EN 12464-1:2011, 4.4 and Annex (formula as given in DOMAIN.md): n = ceil(d / p). */
 export const GRID_RULE = 'EN 12464-1:2011 (p = 0.2 × 5^log10(d), p ≤ 10 m, n = ceil(d / p))';
 
+/** The 2021 reading (secondary): points per side rounded to the nearest integer. */
+export const GRID_RULE_NEAREST = 'EN 12464-1:2021 as reported (secondary) (p = 0.2 × 5^log10(d), p ≤ 10 m, n = round(d / p))';
+
+export function gridRuleText(rounding: GridRounding): string {
+  return rounding === 'nearest' ? GRID_RULE_NEAREST : GRID_RULE;
+}
+
 /** Largest grid spacing p = 0.2 * 5^log10(d) m, capped at 10 m (EN 12464-1:2011). */
 export function gridSpacing(dM: number): number {
   if (!(dM > 0)) return 0;
   return Math.min(10, 0.2 * 5 ** Math.log10(dM));
 }
 
-/** Points along a side of length L at spacing p: ceil(L / p) (2011 rule), with a 1e-9 guard against float noise. */
-export function pointsPerSide(lengthM: number, spacingM: number): number {
+/**
+ * How EN 12464-1's points per side are rounded. 'next_higher': the 2011 text, "the next higher
+ * integer" of d / p (DOMAIN.md, section 5). 'nearest': the 2021 edition as reported by secondary
+ * sources (not checked against the text: secondary, from memory).
+ */
+export const GRID_ROUNDINGS = ['next_higher', 'nearest'] as const;
+export type GridRounding = (typeof GRID_ROUNDINGS)[number];
+
+/** Points along a side of length L at spacing p: ceil(L / p) or round(L / p), at least 1, with a 1e-9 guard against float noise. */
+export function pointsPerSide(lengthM: number, spacingM: number, rounding: GridRounding = 'next_higher'): number {
   if (!(lengthM > 0) || !(spacingM > 0)) return 0;
-  return Math.max(1, Math.ceil(lengthM / spacingM - 1e-9));
+  const ratio = lengthM / spacingM;
+  return Math.max(1, rounding === 'nearest' ? Math.round(ratio + 1e-9) : Math.ceil(ratio - 1e-9));
 }
 
 export interface GridRequirement {
@@ -164,14 +180,14 @@ export interface GridRequirement {
  * Required grid for a rectangular zone: d = the longer side, or the shorter side if the sides
  * differ by a factor of 2 or more (EN 12464-1:2011). wallBandM (e.g. 0.5 m) is removed from each edge first.
  */
-export function requiredGrid(sideAM: number, sideBM: number, wallBandM = 0): GridRequirement {
+export function requiredGrid(sideAM: number, sideBM: number, wallBandM = 0, rounding: GridRounding = 'next_higher'): GridRequirement {
   const a = Math.max(0, Math.max(sideAM, sideBM) - 2 * wallBandM);
   const b = Math.max(0, Math.min(sideAM, sideBM) - 2 * wallBandM);
   const d = b > 0 && a / b >= 2 ? b : a;
   const p = gridSpacing(d);
-  const pointsLong = pointsPerSide(a, p);
-  const pointsShort = pointsPerSide(b, p);
-  return { rule: GRID_RULE, dM: d, spacingM: p, pointsLong, pointsShort, total: pointsLong * pointsShort };
+  const pointsLong = pointsPerSide(a, p, rounding);
+  const pointsShort = pointsPerSide(b, p, rounding);
+  return { rule: rounding === 'nearest' ? GRID_RULE_NEAREST : GRID_RULE, dM: d, spacingM: p, pointsLong, pointsShort, total: pointsLong * pointsShort };
 }
 
 /** Flags a zone measured with fewer points than the grid rule requires. */

@@ -89,13 +89,15 @@ export const zoneComplianceSchema = z.object({
   info: z.object({ ra: z.number().nullable(), rugl: z.number().nullable(), note: z.string() }).optional(),
   /** Valid points inside the zone and outside its wall band. */
   points: z.number().int(),
-  /** Points the grid rule (GRID_RULE) asks for, from the zone's extent less the wall band. */
+  /** Points the grid asks for: the EN 12464-1 grid from the zone's outline under the survey's rounding, or its justified planned grid. */
   requiredPoints: z.number().int(),
   gridAdequate: z.boolean(),
   /** False for outdoor areas: the indoor grid rule is not applied (absent in sign-offs frozen before this was kept: applied). */
   gridRuleApplies: z.boolean().optional(),
   /** Points left out because they lie in the wall band. */
   wallBandPoints: z.number().int(),
+  /** Readings excluded by hand from the statistics (each with its reason in `reasons`). */
+  excludedPoints: z.number().int().optional(),
   eavg: z.number().nullable(),
   emin: z.number().nullable(),
   emax: z.number().nullable(),

@@ -35,6 +35,8 @@ export const importStatusSchema = z.object({
   progress: z.number().min(0).max(1),
   rowsRead: z.number().int(),
   readings: z.number().int(),
+  /** How the readings got their place: the row's x_m, y_m; a planned point named by the row's point label; none (null for imports before this was counted, or not done). */
+  placement: z.object({ byCoordinates: z.number().int(), byLabel: z.number().int(), none: z.number().int() }).nullable(),
   warnings: z.array(importWarningSchema),
   /** Up to 200 problems; a file with any is rejected whole. */
   errors: z.array(importProblemSchema),

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { IMPORT_STATUSES } from './imports';
+import { GRID_ROUNDINGS } from '../spatial/measurement-grid';
 
 export const SURVEY_STATUSES = ['draft', 'submitted', 'signed_off', 'returned'] as const;
 export type SurveyStatus = (typeof SURVEY_STATUSES)[number];
@@ -56,6 +57,8 @@ export const createSurveyBodySchema = z.object({
   startedOn: z.iso.date({ message: 'Use a date such as 2026-11-20' }).optional(),
   conditions: surveyConditionsSchema.optional(),
   installation: installationSchema.optional(),
+  /** Grid rounding to plan and judge with; the organisation's default when absent. */
+  gridRounding: z.enum(GRID_ROUNDINGS).optional(),
 });
 export type CreateSurveyBody = z.input<typeof createSurveyBodySchema>;
 
@@ -76,6 +79,8 @@ export const surveySchema = z.object({
   status: z.enum(SURVEY_STATUSES),
   activeDecodeId: z.number().int().nullable(),
   readingCount: z.number().int(),
+  /** The grid rounding the survey is planned and judged with. */
+  gridRounding: z.enum(GRID_ROUNDINGS),
   createdAt: z.string(),
 });
 export type Survey = z.infer<typeof surveySchema>;

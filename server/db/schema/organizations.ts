@@ -9,6 +9,8 @@ export const organizations = sqliteTable('organizations', {
   name: text('name').notNull(),
   /** Decision rule for verdicts: simple acceptance or guarded by U (ILAC-G8:2019). */
   decisionRule: text('decision_rule', { enum: DECISION_RULES }).notNull().default('guarded'),
+  /** Default rounding of EN 12464-1 grid points per side for new surveys (shared/core GridRounding). */
+  gridRounding: text('grid_rounding', { enum: ['next_higher', 'nearest'] }).notNull().default('next_higher'),
   createdAt: integer('created_at').notNull(),
 });
 

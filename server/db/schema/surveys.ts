@@ -34,6 +34,8 @@ export const surveys = sqliteTable('surveys', {
   signedOffAt: integer('signed_off_at'),
   /** What a sign-off was judged against: targets, rule, coefficient sets, verdicts. */
   frozen: text('frozen', { mode: 'json' }),
+  /** The grid rounding this survey is planned and judged with (the organisation's default when created). */
+  gridRounding: text('grid_rounding', { enum: ['next_higher', 'nearest'] }).notNull().default('next_higher'),
   createdBy: integer('created_by').references(() => users.id),
   createdAt: integer('created_at').notNull(),
 }, (t) => [index('surveys_site_idx').on(t.siteId), index('surveys_org_idx').on(t.organizationId)]);
@@ -46,6 +48,8 @@ export const logImports = sqliteTable('log_imports', {
   progress: real('progress').notNull().default(0),
   rowsRead: integer('rows_read').notNull().default(0),
   readingCount: integer('reading_count').notNull().default(0),
+  /** How the readings got their place (by the row's coordinates, by a planned point's label, none); null before it was counted. */
+  placement: text('placement', { mode: 'json' }).$type<{ byCoordinates: number; byLabel: number; none: number }>(),
   warnings: text('warnings', { mode: 'json' }).$type<unknown[]>().notNull().default([]),
   errors: text('errors', { mode: 'json' }).$type<unknown[]>().notNull().default([]),
   /** The plan for rows whose `plan` column is empty (the upload's planId field); null: none given. */
@@ -114,4 +118,6 @@ export const readings = sqliteTable('readings', {
   rawSignal: real('raw_signal'),
   intMs: real('int_ms'),
   tempC: real('temp_c'),
+  /** Why this reading is left out of its zone's statistics (a hand exclusion, reading_placements); null: included. */
+  excludedReason: text('excluded_reason'),
 }, (t) => [index('readings_decode_idx').on(t.decodeId, t.timeMs), index('readings_survey_idx').on(t.surveyId)]);

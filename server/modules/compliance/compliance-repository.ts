@@ -6,7 +6,9 @@ import { coefficientSets, probes } from '../../db/schema/calibration';
 import type { SurveyRow } from '../surveys/surveys-service';
 import { currentReadingConditions } from '../surveys/surveys-service';
 import { resolveZoneTarget } from '../targets/targets-service';
-import type { JudgeReading, JudgeZone } from './judge-zones';
+import type { JudgePlannedGrid, JudgeReading, JudgeZone } from './judge-zones';
+import { plannedPoints, readingPlacements, surveyGrids } from '../../db/schema/grids';
+import { gridDiffersFromGenerated } from '@shared/spatial/measurement-grid';
 
 export type PlanWithZones = { planId: number; planName: string; zones: JudgeZone[] };
 
@@ -36,6 +38,7 @@ const readingColumns = {
   id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, planId: readings.planId, role: readings.role, timeMs: readings.timeMs, probeId: readings.probeId,
   lux: readings.lux, uLux: readings.uLux, luxBound: readings.luxBound, flag: readings.flag, budget: readings.budget, coefficientSetId: readings.coefficientSetId,
   plane: readings.plane, azimuthDeg: readings.azimuthDeg,
+  excludedReason: readings.excludedReason,
 };
 
 /** The survey's current readings (active decode, accepted imports), in time order. */
@@ -78,4 +81,24 @@ export function loadUsedCoefficientSets(db: Db, readingsUsed: JudgeReading[]): U
         ? { analog: { rangeLowLux: probe.rangeLowLux, rangeHighLux: probe.rangeHighLux, scale: probe.scale ?? 'linear', accuracyPercent: probe.accuracyPercent ?? 0 } }
         : {}),
     }));
+}
+
+/** The survey's planned grids by zone, as the verdicts use them (changed: differs from the generated grid). */
+export function loadPlannedGrids(db: Db, surveyId: number): Map<number, JudgePlannedGrid> {
+  const grids = db.select().from(surveyGrids).where(eq(surveyGrids.surveyId, surveyId)).all();
+  if (grids.length === 0) return new Map();
+  const points = db.select().from(plannedPoints).where(eq(plannedPoints.surveyId, surveyId)).orderBy(asc(plannedPoints.id)).all();
+  return new Map(grids.map((g) => {
+    const own = points.filter((p) => p.gridId === g.id);
+    return [g.zoneId, { layout: g.layout, changed: gridDiffersFromGenerated(g.generated, own), reason: g.reason, points: own.map((p) => ({ id: p.id, label: p.label })) }];
+  }));
+}
+
+export const placementKey = (point: string, probeId: number, timeMs: number) => `${probeId}\u0000${timeMs}\u0000${point}`;
+
+/** Readings placed by hand on a planned point, keyed like the placements themselves (point label, probe, time). */
+export function loadPlacementsOnPlannedPoints(db: Db, surveyId: number): Map<string, number> {
+  const rows = db.select({ point: readingPlacements.point, probeId: readingPlacements.probeId, timeMs: readingPlacements.timeMs, id: readingPlacements.plannedPointId }).from(readingPlacements)
+    .where(and(eq(readingPlacements.surveyId, surveyId), eq(readingPlacements.state, 'placed'))).all();
+  return new Map(rows.filter((r) => r.id !== null).map((r) => [placementKey(r.point, r.probeId, r.timeMs), r.id!]));
 }

@@ -4,7 +4,7 @@ import { surveys } from '../../db/schema/surveys';
 import { sites } from '../../db/schema/sites';
 import { users } from '../../db/schema/organizations';
 import { RULE_TEXT, type AcceptanceRule } from '@shared/core/decision';
-import { GRID_RULE } from '@shared/core/zone-stats';
+import { gridRuleText } from '@shared/core/zone-stats';
 import type { SessionUser } from '@shared/schemas/auth';
 import type { ComplianceCounts, ComplianceResponse, MaintenanceResponse, MaintenanceZone, SitesOverviewResponse, ZoneCompliance, ZoneDetailResponse } from '@shared/schemas/compliance';
 import type { TargetEntry } from '@shared/schemas/targets';
@@ -17,7 +17,7 @@ import { siteConditions } from '../sites/sites-service';
 import { decisionRuleOf } from '../organization/organization-service';
 import { getVisibleTarget, presentTarget } from '../targets/targets-service';
 import { judgeZones, worstFirst, type JudgedZone, type JudgeReading, type JudgeResult } from './judge-zones';
-import { loadCurrentReadings, loadReadingsById, loadSitePlans, loadUsedCoefficientSets, type UsedCoefficientSet } from './compliance-repository';
+import { loadCurrentReadings, loadPlacementsOnPlannedPoints, loadPlannedGrids, loadReadingsById, loadSitePlans, loadUsedCoefficientSets, placementKey, type UsedCoefficientSet } from './compliance-repository';
 
 /** What a sign-off keeps in surveys.frozen: later target, rule or calibration changes never alter it. */
 export type FrozenCompliance = {
@@ -60,7 +60,10 @@ export function liveCompliance(db: Db, organizationId: number, survey: SurveyRow
   const reference = allReadings.filter((r) => r.role === 'reference');
   const daylightExcluded = survey.conditions?.daylightExcluded ?? false;
   const installation = coreInstallation(installationOf(survey));
-  const perPlan = plans.map((p) => judgeZones({ zones: p.zones, readings: [...byPlan.get(p.planId)!, ...reference], rule, daylightExcluded, installation }));
+  const plannedGrids = loadPlannedGrids(db, survey.id);
+  const onPlanned = loadPlacementsOnPlannedPoints(db, survey.id);
+  if (onPlanned.size > 0) for (const r of allReadings) r.plannedPointId = onPlanned.get(placementKey(r.point, r.probeId, r.timeMs)) ?? null;
+  const perPlan = plans.map((p) => judgeZones({ zones: p.zones, readings: [...byPlan.get(p.planId)!, ...reference], rule, daylightExcluded, installation, gridRounding: survey.gridRounding, plannedGrids }));
   const unplaced = plans.length === 0 ? allReadings.filter((r) => r.role === 'task').length : withoutPlan;
   const result: JudgeResult = {
     zones: worstFirst(perPlan.flatMap((r) => r.zones)),
@@ -82,7 +85,7 @@ export function buildFrozen(db: Db, organizationId: number, survey: SurveyRow, a
   const targetIds = [...new Set(result.zones.map((z) => z.targetId).filter((id): id is number => id !== null))];
   const targets = targetIds.map((id) => getVisibleTarget(db, organizationId, id)).filter((t) => t !== undefined).map(presentTarget);
   return {
-    version: 1, frozenAt: at, rule, ruleText: RULE_TEXT[rule], gridRule: GRID_RULE, decodeId: survey.activeDecodeId,
+    version: 1, frozenAt: at, rule, ruleText: RULE_TEXT[rule], gridRule: gridRuleText(survey.gridRounding), decodeId: survey.activeDecodeId,
     hasDaylightReference: result.hasDaylightReference, unassignedPoints: result.unassignedPoints, warnings: result.warnings,
     zones: result.zones, targets, coefficientSets: loadUsedCoefficientSets(db, readings), installation: installationOf(survey),
   };
@@ -155,7 +158,7 @@ export function complianceOf(db: Db, survey: SurveyRow, v: ReturnType<typeof sur
     surveyId: survey.id, surveyName: survey.name, siteId: survey.siteId, siteName: site.name, siteTimeZone: site.timeZone, startedOn: survey.startedOn,
     status: survey.status, reviewComment: survey.reviewComment,
     submittedByName: userNameOf(db, survey.submittedBy), submittedAt: isoOrNull(survey.submittedAt),
-    signedOffByName: userNameOf(db, survey.signedOffBy), signedOffAt: isoOrNull(survey.signedOffAt), rule: v.rule, ruleText: RULE_TEXT[v.rule], gridRule: v.frozen?.gridRule ?? GRID_RULE,
+    signedOffByName: userNameOf(db, survey.signedOffBy), signedOffAt: isoOrNull(survey.signedOffAt), rule: v.rule, ruleText: RULE_TEXT[v.rule], gridRule: v.frozen?.gridRule ?? gridRuleText(survey.gridRounding),
     frozen: v.frozen !== null, frozenAt: v.frozen ? new Date(v.frozen.frozenAt).toISOString() : null, hasDaylightReference: v.hasDaylightReference,
     installation: v.installation, installationText: installationSummary(coreInstallation(v.installation)),
     counts: countVerdicts(zones), zones, unassignedPoints: v.unassignedPoints,

@@ -1,5 +1,6 @@
 import { mean } from 'simple-statistics';
-import { zoneStats, gridAdequacy, GRID_RULE } from '@shared/core/zone-stats';
+import { zoneStats, requiredGrid, gridRuleText, type GridRounding } from '@shared/core/zone-stats';
+import { GridError, labelKey, measurementGrid } from '@shared/spatial/measurement-grid';
 import { decideZone, type AcceptanceRule } from '@shared/core/decision';
 import { combineBudget, COVERAGE_K, meanUncertainty } from '@shared/core/uncertainty';
 import { createOutdoorReference, pairDaylight, type OutdoorReference } from '@shared/core/daylight';
@@ -52,6 +53,18 @@ export type JudgeReading = {
   /** Where the sensor faced (readings before planes were kept are horizontal). */
   plane?: ReadingPlane;
   azimuthDeg?: number | null;
+  /** A hand exclusion from the zone's statistics, with its reason; null or absent: included. */
+  excludedReason?: string | null;
+  /** The planned point this reading was placed on by hand, if any. */
+  plannedPointId?: number | null;
+};
+
+/** The survey's planned grid of a zone: its points, and whether it was changed (with its reason) or is a centreline row. */
+export type JudgePlannedGrid = {
+  layout: 'full' | 'centreline';
+  changed: boolean;
+  reason: string | null;
+  points: { id: number; label: string }[];
 };
 
 export type JudgeTarget = {
@@ -122,6 +135,36 @@ export function zoneExtent(polygon: readonly PlanPoint[]): { a: number; b: numbe
   return { a, b, rectangular };
 }
 
+/**
+ * The points a zone's grid asks for: the EN 12464-1 grid generated from its outline under the
+ * survey's rounding (shared/spatial/measurement-grid: the bounding box less the band, points kept
+ * inside the outline), or the survey's planned grid when it is a centreline row or a changed grid
+ * with a written reason. Says which in the reasons.
+ */
+function requiredPointsOf(z: JudgeZone, rounding: GridRounding, measured: number, planned: JudgePlannedGrid | undefined, reasons: string[]) {
+  let ruleCount: number;
+  try {
+    ruleCount = measurementGrid({ kind: z.kind, wallBandM: z.wallBandM, polygon: z.polygon }, { rounding }).points.length;
+  } catch (e) {
+    if (!(e instanceof GridError)) throw e;
+    const extent = zoneExtent(z.polygon);
+    ruleCount = requiredGrid(extent.a, extent.b, 0, rounding).total;
+    reasons.push(`${e.message}; the grid is taken without the band.`);
+  }
+  if (planned && planned.layout === 'centreline') {
+    reasons.push(`Planned as a centreline row of ${planned.points.length} point(s) (narrow zone; the full grid would ask for ${ruleCount}).`);
+    return { required: planned.points.length, adequate: measured >= planned.points.length, basis: 'planned' as const };
+  }
+  if (planned && planned.changed) {
+    if (planned.reason) {
+      reasons.push(`Changed grid: ${planned.points.length} planned point(s) instead of the ${ruleCount} the rule gives. Reason: ${planned.reason}`);
+      return { required: planned.points.length, adequate: measured >= planned.points.length, basis: 'planned' as const };
+    }
+    reasons.push(`Changed grid without a written reason: judged against the ${ruleCount} point(s) the rule gives.`);
+  }
+  return { required: ruleCount, adequate: measured >= ruleCount, basis: 'rule' as const };
+}
+
 function shortfallRatio(z: ZoneCompliance): number {
   return z.eavg !== null && z.targetLux ? z.eavg / z.targetLux : 1;
 }
@@ -145,11 +188,17 @@ export function judgeZones(input: {
   daylightExcluded: boolean;
   /** New installation (limits Em / MF) or in service (Em); in service when absent. */
   installation?: Installation;
+  /** The rounding of grid points per side the survey is judged with (default: the 2011 text). */
+  gridRounding?: GridRounding;
+  /** The survey's planned grids by zone id. */
+  plannedGrids?: ReadonlyMap<number, JudgePlannedGrid>;
 }): JudgeResult {
   const installation: Installation = input.installation ?? { state: 'in_service' };
+  const rounding = input.gridRounding ?? 'next_higher';
+  const ruleText = gridRuleText(rounding);
   const warnings: string[] = [];
   const assign = createZoneAssigner(input.zones.map((z) => ({ id: z.id, kind: z.kind, wallBandM: z.wallBandM, polygon: z.polygon })));
-  const inZone = new Map<number, { included: JudgeReading[]; wallBand: JudgeReading[] }>(input.zones.map((z) => [z.id, { included: [], wallBand: [] }]));
+  const inZone = new Map<number, { included: JudgeReading[]; wallBand: JudgeReading[]; excluded: JudgeReading[] }>(input.zones.map((z) => [z.id, { included: [], wallBand: [], excluded: [] }]));
   // Readings on walls, ceilings and vertical planes belong to the zone they stand in; the wall band concerns the working plane only.
   const onOtherPlanes = new Map<number, JudgeReading[]>(input.zones.map((z) => [z.id, []]));
   let unassigned = 0;
@@ -160,7 +209,7 @@ export function judgeZones(input: {
     if (a.zoneId === null) { unassigned++; continue; }
     if ((r.plane ?? 'horizontal') !== 'horizontal') { onOtherPlanes.get(a.zoneId)!.push(r); continue; }
     const bucket = inZone.get(a.zoneId)!;
-    (a.inWallBand ? bucket.wallBand : bucket.included).push(r);
+    (r.excludedReason ? bucket.excluded : a.inWallBand ? bucket.wallBand : bucket.included).push(r);
   }
   const noPosition = task.filter((r) => r.xM === null || r.yM === null).length;
   if (noPosition > 0) warnings.push(`${noPosition} reading(s) have no position (x_m, y_m) and belong to no zone.`);
@@ -177,20 +226,33 @@ export function judgeZones(input: {
     warnings.push(`${brightReference} outdoor reference reading(s) were over range (sky brighter than the probe's range, likely direct sun): they are left out of the daylight pairing, since the daylight factor is defined for an overcast sky.`);
   }
 
+  // A planned point is visited when a task reading names it (labels are unique within a survey) or was placed on it by hand.
+  const visited = new Set<string>();
+  const visitedIds = new Set<number>();
+  for (const r of task) {
+    visited.add(labelKey(r.point));
+    if (r.plannedPointId) visitedIds.add(r.plannedPointId);
+  }
+
   const zones = input.zones.map((z): JudgedZone => {
-    const { included, wallBand } = inZone.get(z.id)!;
+    const { included, wallBand, excluded } = inZone.get(z.id)!;
     const core = included.map(toCoreReading);
     const stats = zoneStats(core);
-    const extent = zoneExtent(z.polygon);
-    // Task areas keep their edge points (shared/spatial never marks them), so no band is taken off their grid either.
-    const band = z.kind === 'room' ? z.wallBandM : 0;
     const outdoor = z.kind === 'outdoor';
-    // The indoor grid rule is not applied outdoors: no points are asked for, and the note says what applies.
-    const grid = outdoor ? { required: 0, adequate: true } : gridAdequacy(stats.validPoints, extent.a, extent.b, band);
     const reasons: string[] = [];
+    // The indoor grid rule is not applied outdoors: no points are asked for, and the note says what applies.
     if (outdoor) reasons.push(OUTDOOR_GRID_NOTE);
-    if (!outdoor && !extent.rectangular) reasons.push(`Grid required from the zone's bounding box (${extent.a.toFixed(1)} m x ${extent.b.toFixed(1)} m).`);
+    const grid = outdoor ? { required: 0, adequate: true, basis: 'rule' as const } : requiredPointsOf(z, rounding, stats.validPoints, input.plannedGrids?.get(z.id), reasons);
     if (wallBand.length > 0) reasons.push(`${wallBand.length} point(s) in the ${z.wallBandM} m wall band left out.`);
+    for (const r of excluded) reasons.push(`Reading ${r.point} at ${new Date(r.timeMs).toISOString()} excluded from the statistics: ${r.excludedReason}.`);
+    const planned = input.plannedGrids?.get(z.id);
+    if (planned && planned.points.length > 0) {
+      const missing = planned.points.filter((p) => !visited.has(labelKey(p.label)) && !visitedIds.has(p.id));
+      if (missing.length > 0) {
+        const shown = missing.slice(0, 30).map((p) => p.label).join(', ');
+        reasons.push(`${missing.length} of ${planned.points.length} planned point(s) have no reading: ${shown}${missing.length > 30 ? ` and ${missing.length - 30} more` : ''}.`);
+      }
+    }
     const lapsed = included.filter((r) => r.flag === 'calibration_lapsed').length;
     if (lapsed > 0) reasons.push(`${lapsed} point(s) were taken with a probe whose calibration had lapsed.`);
     if (z.target?.confidence === 'memory') reasons.push('The target value is from memory and unchecked against the standard: confirm it before relying on the verdict.');
@@ -213,7 +275,7 @@ export function judgeZones(input: {
       verdict = v.verdict;
       reasons.unshift(...v.reasons, ...designReasons);
     }
-    if (!grid.adequate && stats.validPoints > 0) reasons.push(`${stats.validPoints} of ${grid.required} points the grid rule asks for (${GRID_RULE}).`);
+    if (!grid.adequate && stats.validPoints > 0) reasons.push(`${stats.validPoints} of ${grid.required} points the grid asks for (${grid.basis === 'rule' ? ruleText : 'the justified planned grid'}).`);
     reasons.push(...stats.reasons);
     // First among the reasons: the verdict above describes the sky, not the luminaires.
     if (outdoor && z.target && stats.eavg !== null && stats.eavg >= DAYLIGHT_SWAMP_RATIO * z.target.emLux) {
@@ -287,6 +349,7 @@ export function judgeZones(input: {
         info: { ra: z.target.ra ?? null, rugl: z.target.rugl ?? null, note: INFO_ONLY_NOTE },
       } : {}),
       points: stats.validPoints, requiredPoints: grid.required, gridAdequate: grid.adequate, gridRuleApplies: !outdoor, wallBandPoints: wallBand.length,
+      ...(excluded.length > 0 ? { excludedPoints: excluded.length } : {}),
       eavg: stats.eavg, emin: stats.validPoints ? stats.emin : null, emax: stats.validPoints ? stats.emax : null, u0: stats.u0, uEavg: stats.uEavg,
       bounds: { eavg: stats.bounded.eavg, emin: stats.bounded.emin, u0: stats.bounded.u0 },
       ...(dfAvg !== undefined ? { dfAvg } : {}),

@@ -5,6 +5,7 @@ import { setImmediate as yieldToEventLoop } from 'node:timers/promises';
 import { and, eq, inArray, sql } from 'drizzle-orm';
 import type { Deps } from '../../deps';
 import { decodes, logImports, readings, surveys } from '../../db/schema/surveys';
+import { plannedPoints } from '../../db/schema/grids';
 import { loadDecodingCalibration } from '../probes/probe-calibration';
 import { recordAudit } from '../audit/audit-service';
 import type { ImportProblem, ImportWarning, WorkerToMain } from './log-parser';
@@ -180,7 +181,9 @@ async function runImport(deps: Deps, job: ImportJob): Promise<ImportOutcome> {
     w.on('message', onMessage);
     w.on('error', onError);
     w.on('exit', onExit);
-    const input = { filePath: job.filePath, timeZone: job.timeZone, calibration, plans: job.plans, defaultPlanId: job.defaultPlanId };
+    // The survey's planned points as they are now: rows naming one by label take its plan and position.
+    const planned = deps.db.select({ label: plannedPoints.label, planId: plannedPoints.planId, xM: plannedPoints.xM, yM: plannedPoints.yM }).from(plannedPoints).where(eq(plannedPoints.surveyId, job.surveyId)).all();
+    const input = { filePath: job.filePath, timeZone: job.timeZone, calibration, plans: job.plans, defaultPlanId: job.defaultPlanId, plannedPoints: planned };
     if (writer) {
       writer.on('error', onWriterGone);
       writer.on('exit', onWriterGone);
@@ -199,11 +202,11 @@ async function runImport(deps: Deps, job: ImportJob): Promise<ImportOutcome> {
 
   const now = deps.clock.now();
   deps.db.transaction((tx) => {
-    tx.update(logImports).set({ status: 'done', progress: 1, rowsRead: end.rowsRead, readingCount: end.readingCount, warnings: end.warnings, errors: [], finishedAt: now })
+    tx.update(logImports).set({ status: 'done', progress: 1, rowsRead: end.rowsRead, readingCount: end.readingCount, placement: end.placement, warnings: end.warnings, errors: [], finishedAt: now })
       .where(eq(logImports.id, job.importId)).run();
     recordAudit(tx, {
       organizationId: job.organizationId, actorId: job.actorId, entityType: 'log_import', entityId: job.importId, surveyId: job.surveyId, action: 'imported',
-      after: { rows: end.rowsRead, readings: end.readingCount, decodeId, warnings: end.warnings.length }, at: now,
+      after: { rows: end.rowsRead, readings: end.readingCount, decodeId, placement: end.placement, warnings: end.warnings.length }, at: now,
     });
   });
   return { importId: job.importId, status: 'done', readings: end.readingCount, errors: [] };

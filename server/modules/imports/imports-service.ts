@@ -67,7 +67,7 @@ export function getImport(deps: Deps, user: SessionUser, importId: number): Impo
   const { imp } = row;
   return {
     id: imp.id, surveyId: imp.surveyId, filename: row.filename, planId: imp.planId, status: imp.status, progress: imp.progress, rowsRead: imp.rowsRead, readings: imp.readingCount,
-    warnings: imp.warnings as ImportWarning[], errors: imp.errors as ImportProblem[],
+    placement: imp.placement ?? null, warnings: imp.warnings as ImportWarning[], errors: imp.errors as ImportProblem[],
     createdAt: new Date(imp.createdAt).toISOString(), finishedAt: imp.finishedAt === null ? null : new Date(imp.finishedAt).toISOString(),
   };
 }

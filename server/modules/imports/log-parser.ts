@@ -17,12 +17,20 @@ export const MAX_NOTE_LENGTH = 1000;
 
 export type ImportProblem = SampleProblem;
 export type ImportWarning = { line: number | null; column: string | null; message: string };
+/** How the import's readings got their place: the row's own x_m, y_m; a planned point named by the row's point label; none. */
+export type PlacementSummary = { byCoordinates: number; byLabel: number; none: number };
+/** A planned point of the survey, for the label join (label compared trimmed and case-insensitively). */
+export type PlannedPosition = { label: string; planId: number; xM: number; yM: number };
+
+/** Lines listed per unknown label, and unknown labels named, before the warning just counts the rest. */
+const MAX_LINES_PER_LABEL = 20;
+const MAX_UNKNOWN_LABELS = 50;
 
 
 export type WorkerToMain =
   | { type: 'batch'; batch: Batch }
   | { type: 'progress'; bytesRead: number; rowsRead: number }
-  | { type: 'end'; rowsRead: number; readingCount: number; warnings: ImportWarning[]; errors: ImportProblem[]; errorCount: number }
+  | { type: 'end'; rowsRead: number; readingCount: number; placement: PlacementSummary; warnings: ImportWarning[]; errors: ImportProblem[]; errorCount: number }
   | { type: 'crash'; message: string };
 
 export type ParseLogInput = {
@@ -33,6 +41,8 @@ export type ParseLogInput = {
   plans: readonly { id: number; name: string }[];
   /** The plan for rows with an empty `plan` (the upload's planId field), or null. */
   defaultPlanId: number | null;
+  /** The survey's planned points: a row without x_m, y_m whose point names one takes its plan and position. */
+  plannedPoints?: readonly PlannedPosition[];
   /** Samples per batch sent for writing. */
   batchRows?: number;
 };
@@ -115,11 +125,29 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
   let errorCount = 0;
   let rowsRead = 0;
   let readingCount = 0;
+  const placement: PlacementSummary = { byCoordinates: 0, byLabel: 0, none: 0 };
+  const planned = new Map<string, PlannedPosition>();
+  for (const p of input.plannedPoints ?? []) planned.set(p.label.trim().toLowerCase(), p);
+  /** Label keys some row was placed by, to tell a reading placed by label from one with its own coordinates. */
+  const placedByLabel = new Set<string>();
+  /** Unknown labels of rows without coordinates → their lines (only when the survey has planned points). */
+  const unknownLabels = new Map<string, { label: string; lines: number[]; count: number }>();
   const addError = (p: ImportProblem) => {
     errorCount++;
     if (errors.length < MAX_REPORTED_ERRORS) errors.push(p);
   };
-  const end = () => sink.post({ type: 'end', rowsRead, readingCount, warnings, errors, errorCount });
+  const end = () => {
+    let named = 0;
+    for (const u of unknownLabels.values()) {
+      if (named++ >= MAX_UNKNOWN_LABELS) {
+        warnings.push({ line: null, column: 'point', message: `${unknownLabels.size - MAX_UNKNOWN_LABELS} more point label(s) match no planned point either` });
+        break;
+      }
+      const more = u.count > u.lines.length ? ` and ${u.count - u.lines.length} more` : '';
+      warnings.push({ line: u.lines[0], column: 'point', message: `Point "${u.label}" has no x_m, y_m and matches no planned point of this survey (line${u.count > 1 ? 's' : ''} ${u.lines.join(', ')}${more}): its readings are kept without a position` });
+    }
+    sink.post({ type: 'end', rowsRead, readingCount, placement, warnings, errors, errorCount });
+  };
 
   const size = fs.statSync(input.filePath).size;
   const header = firstLine(input.filePath);
@@ -135,6 +163,9 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
   const batch = createBatchBuilder(batchRows * 2);
   const decoder = createLogDecoder(input.calibration, (r: DecodedReading) => {
     readingCount++;
+    if (r.xM === null) placement.none++;
+    else if (placedByLabel.size > 0 && placedByLabel.has(r.point.toLowerCase()) && planned.get(r.point.toLowerCase())?.xM === r.xM && planned.get(r.point.toLowerCase())?.yM === r.yM) placement.byLabel++;
+    else placement.byCoordinates++;
     if (errorCount > 0) return;
     batch.addReading(r);
   }, addError);
@@ -246,11 +277,30 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
       addError({ line, column: 'azimuth_deg', value: text(row, at.azimuth_deg), message: `azimuth_deg applies to vertical and wall readings, not to a ${plane} one` });
     }
     if (errorCount > before) return;
+    // Precedence: the row's own coordinates, then a planned point its label names, then none.
+    let placedX = xM ?? null;
+    let placedY = yM ?? null;
+    if (placedX === null && planned.size > 0 && roleText !== 'reference') {
+      const key = point.toLowerCase();
+      const p = planned.get(key);
+      if (p) {
+        placedX = p.xM;
+        placedY = p.yM;
+        planId = p.planId;
+        placedByLabel.add(key);
+      } else {
+        const u = unknownLabels.get(key);
+        if (u) {
+          u.count++;
+          if (u.lines.length < MAX_LINES_PER_LABEL) u.lines.push(line);
+        } else unknownLabels.set(key, { label: point, lines: [line], count: 1 });
+      }
+    }
     const note = text(row, at.note);
     const sample: LogSample = {
       line, timeMs: timeMs!, probe, point,
       gainCode: gainCode ?? undefined, counts: counts ?? undefined, ma: ma ?? undefined, volts: volts ?? undefined,
-      intMs: intMs ?? undefined, tempC: tempC ?? undefined, xM: xM ?? null, yM: yM ?? null, planId,
+      intMs: intMs ?? undefined, tempC: tempC ?? undefined, xM: placedX, yM: placedY, planId,
       role: roleText === 'reference' ? 'reference' : 'task', note: note === '' ? null : note.slice(0, MAX_NOTE_LENGTH),
       plane, azimuthDeg: azimuthDeg ?? null,
     };

@@ -14,6 +14,7 @@ import { surveysBeingRedecoded } from './imports-service';
 import { pagesOfSamples } from './sample-blocks';
 import { createBatchBuilder } from './batch-format.mjs';
 import { createBatchWriter } from './batch-writer.mjs';
+import { applyPlacements } from '../placements/placements-service';
 
 /**
  * Re-decodes every kept sample of a survey's accepted imports with the approved coefficient sets
@@ -67,6 +68,8 @@ export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: n
       .where(and(eq(readings.decodeId, decode.id), sql`${readings.timeMs} > ${coefficientSets.dueDate}`)).get()!.n;
     const now = deps.clock.now();
     deps.db.transaction((tx) => {
+      // Hand placements and exclusions are kept by point label, probe and time: the new decode's readings get them again.
+      applyPlacements(tx, survey.id, decode.id);
       tx.update(surveys).set({ activeDecodeId: decode.id }).where(eq(surveys.id, survey.id)).run();
       recordAudit(tx, {
         organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'redecoded',

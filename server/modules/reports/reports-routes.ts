@@ -8,7 +8,8 @@ import { readingsCsv, reportPdfFor, sendReport, zonesCsv, type FileAnswer } from
 
 const reportQuerySchema = z.object({ unit: z.enum(['lx', 'fc']).default('lx') });
 
-function sendFile(res: Response, file: FileAnswer) {
+/** Sends a file answer as a download, never cached. */
+export function sendFile(res: Response, file: FileAnswer) {
   res.setHeader('Content-Type', file.contentType);
   res.setHeader('Content-Disposition', `attachment; filename="${file.filename}"`);
   res.setHeader('Cache-Control', 'private, no-store');

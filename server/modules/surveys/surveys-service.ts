@@ -13,6 +13,7 @@ import { maintenanceFactor } from '@shared/core/maintained';
 import { notFound, refused } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
 import { getSiteRow, siteConditions } from '../sites/sites-service';
+import { getOrganization } from '../organization/organization-service';
 
 export type SurveyRow = typeof surveys.$inferSelect;
 type SiteRow = typeof sites.$inferSelect;
@@ -89,7 +90,7 @@ function present(row: SurveyRow, site: SiteRow, count: number): Survey {
   return {
     installation: installationOf(row),
     id: row.id, siteId: row.siteId, siteName: site.name, siteTimeZone: site.timeZone, name: row.name, startedOn: row.startedOn,
-    conditions: row.conditions ?? null, status: row.status, activeDecodeId: row.activeDecodeId, readingCount: count,
+    conditions: row.conditions ?? null, status: row.status, activeDecodeId: row.activeDecodeId, readingCount: count, gridRounding: row.gridRounding,
     createdAt: new Date(row.createdAt).toISOString(),
   };
 }
@@ -136,12 +137,13 @@ export function createSurvey(deps: Deps, actor: SessionUser, input: CreateSurvey
   const body = createSurveyBodySchema.parse(input);
   const site = getSiteRow(deps.db, actor, body.siteId);
   const now = deps.clock.now();
+  const gridRounding = body.gridRounding ?? getOrganization(deps.db, actor.organizationId).gridRounding;
   const row = deps.db.transaction((tx) => {
     const created = tx.insert(surveys).values({
       organizationId: actor.organizationId, siteId: site.id, name: body.name, startedOn: body.startedOn ?? null,
-      conditions: body.conditions ?? null, status, createdBy: actor.id, createdAt: now, ...installationColumns(body.installation),
+      conditions: body.conditions ?? null, status, gridRounding, createdBy: actor.id, createdAt: now, ...installationColumns(body.installation),
     }).returning().get();
-    recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: created.id, surveyId: created.id, action: 'created', after: body, at: now });
+    recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: created.id, surveyId: created.id, action: 'created', after: { ...body, gridRounding }, at: now });
     return created;
   });
   return present(row, site, 0);

@@ -1,0 +1,87 @@
+import type { RouteExamples } from './types';
+import type { TestApp } from '../helpers';
+import { DEMO } from '../helpers';
+import { insertSite, orgOf, pngOf } from '../plans-fixtures';
+import { eq } from 'drizzle-orm';
+import { decodes, logImports, readings, surveys } from '@server/db/schema/surveys';
+import { probes } from '@server/db/schema/calibration';
+import { storedFiles } from '@server/db/schema/organizations';
+
+let n = 0;
+
+// One admin session per test app: signing in (argon2) for every example would slow the matrix.
+const adminClients = new WeakMap<TestApp, ReturnType<TestApp['signIn']>>();
+function adminOf(t: TestApp) {
+  if (!adminClients.has(t)) adminClients.set(t, t.signIn(DEMO.admin));
+  return adminClients.get(t)!;
+}
+
+/** A survey on a fresh 10 m plan with one 4 m × 3 m room whose grid is generated. */
+async function exampleGrid(t: TestApp) {
+  const admin = await adminOf(t);
+  const siteId = insertSite(t, orgOf(t, DEMO.admin), `Grid site ${n++}`);
+  const plan = await admin.post(`/api/sites/${siteId}/plans`).attach('file', pngOf(100, 80, n), { filename: 'p.png', contentType: 'image/png' }).field('name', 'Grid plan').field('widthM', '10');
+  const zone = await admin.post(`/api/plans/${plan.body.id}/zones`).send({ name: 'Grid room', kind: 'room', useType: 'office_writing', polygon: [[1, 1], [5, 1], [5, 4], [1, 4]] });
+  const survey = await admin.post('/api/surveys').send({ siteId, name: `Grid survey ${n}` });
+  const gen = await admin.post(`/api/surveys/${survey.body.id}/planned-points/generate`).send({ zoneId: zone.body.id });
+  if (gen.status !== 200) throw new Error(`example grid failed: ${gen.status} ${JSON.stringify(gen.body)}`);
+  await admin.put(`/api/surveys/${survey.body.id}/grids/${gen.body.grids[0].id}/reason`).send({ reason: 'Example reason' });
+  return { surveyId: survey.body.id as number, planId: plan.body.id as number, zoneId: zone.body.id as number, gridId: gen.body.grids[0].id as number, pointId: gen.body.items[0].id as number };
+}
+
+export const plannedPointExamples: RouteExamples = {
+  'GET /surveys/:id/planned-points': async (t) => ({ path: `/api/surveys/${(await exampleGrid(t)).surveyId}/planned-points` }),
+  'POST /surveys/:id/planned-points/generate': async (t) => {
+    const g = await exampleGrid(t);
+    return { path: `/api/surveys/${g.surveyId}/planned-points/generate`, body: { planId: g.planId } };
+  },
+  'POST /surveys/:id/planned-points': async (t) => {
+    const g = await exampleGrid(t);
+    return { path: `/api/surveys/${g.surveyId}/planned-points`, body: { zoneId: g.zoneId, xM: 3, yM: 2.5 }, okStatus: 201 };
+  },
+  'PATCH /surveys/:id/planned-points/:pointId': async (t) => {
+    const g = await exampleGrid(t);
+    return { path: `/api/surveys/${g.surveyId}/planned-points/${g.pointId}`, body: { xM: 2, yM: 2 } };
+  },
+  'DELETE /surveys/:id/planned-points/:pointId': async (t) => {
+    const g = await exampleGrid(t);
+    return { path: `/api/surveys/${g.surveyId}/planned-points/${g.pointId}`, okStatus: 204 };
+  },
+  'PUT /surveys/:id/grids/:gridId/reason': async (t) => {
+    const g = await exampleGrid(t);
+    return { path: `/api/surveys/${g.surveyId}/grids/${g.gridId}/reason`, body: { reason: 'Shelving moved in' } };
+  },
+};
+
+/** A survey with one reading that has no position (written directly) on the example grid's site. */
+async function exampleUnplaced(t: TestApp) {
+  const g = await exampleGrid(t);
+  const survey = t.db.select().from(surveys).where(eq(surveys.id, g.surveyId)).get()!;
+  const probe = t.db.insert(probes).values({ organizationId: survey.organizationId, serial: `LX-P${n++}-${Math.random().toString(36).slice(2, 6)}`, kind: 'counts', createdAt: 0, updatedAt: 0 }).returning().get();
+  const file = t.db.insert(storedFiles).values({ organizationId: survey.organizationId, sha256: 'e'.repeat(64), filename: 'log.csv', contentType: 'text/csv', size: 1, createdAt: 0 }).returning().get();
+  const imp = t.db.insert(logImports).values({ surveyId: survey.id, fileId: file.id, status: 'done', createdAt: 0 }).returning().get();
+  const decode = t.db.insert(decodes).values({ surveyId: survey.id, reason: 'import', createdAt: 0 }).returning().get();
+  const reading = t.db.insert(readings).values({
+    surveyId: survey.id, decodeId: decode.id, importId: imp.id, point: 'LOOSE-1', xM: null, yM: null, planId: null, role: 'task', timeMs: t.clock.now() + n, probeId: probe.id,
+    lux: 420, uLux: 30, luxBound: 'exact', flag: 'ok', gainCode: 2, sampleCount: 1, budget: [{ name: 'calibration', uRel: 0.04 }],
+  }).returning().get();
+  t.db.update(surveys).set({ activeDecodeId: decode.id }).where(eq(surveys.id, survey.id)).run();
+  return { ...g, readingId: reading.id };
+}
+
+export const placementExamples: RouteExamples = {
+  'GET /surveys/:id/unplaced': async (t) => ({ path: `/api/surveys/${(await exampleUnplaced(t)).surveyId}/unplaced` }),
+  'PUT /surveys/:id/readings/:readingId/placement': async (t) => {
+    const g = await exampleUnplaced(t);
+    return { path: `/api/surveys/${g.surveyId}/readings/${g.readingId}/placement`, body: { planId: g.planId, xM: 2, yM: 2 } };
+  },
+  'PUT /surveys/:id/readings/:readingId/exclusion': async (t) => {
+    const g = await exampleUnplaced(t);
+    return { path: `/api/surveys/${g.surveyId}/readings/${g.readingId}/exclusion`, body: { excluded: true, reason: 'Door left open' } };
+  },
+};
+
+export const walkSheetExamples: RouteExamples = {
+  'GET /surveys/:id/walk-sheet.pdf': async (t) => ({ path: `/api/surveys/${(await exampleGrid(t)).surveyId}/walk-sheet.pdf` }),
+  'GET /surveys/:id/planned-points.csv': async (t) => ({ path: `/api/surveys/${(await exampleGrid(t)).surveyId}/planned-points.csv` }),
+};
