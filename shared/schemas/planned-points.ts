@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { GRID_ROUNDINGS, GRID_LAYOUTS } from '../spatial/measurement-grid';
+import { mapReadingSchema } from './plans';
 
 export { GRID_ROUNDINGS, GRID_LAYOUTS };
 
@@ -103,17 +104,7 @@ export const plannedPointsResponseSchema = z.object({
 export type PlannedPointsResponse = z.infer<typeof plannedPointsResponseSchema>;
 
 /** A reading without a position, for the hand-placement panel. */
-export const unplacedReadingSchema = z.object({
-  id: z.number().int(),
-  point: z.string(),
-  timestamp: z.string(),
-  probe: z.string(),
-  role: z.enum(['task', 'reference']),
-  lux: z.number().nullable(),
-  uLux: z.number().nullable(),
-  luxBound: z.enum(['exact', 'lower', 'upper']),
-  flag: z.string(),
-});
+export const unplacedReadingSchema = mapReadingSchema.pick({ id: true, point: true, timestamp: true, probe: true, role: true, lux: true, uLux: true, luxBound: true, flag: true });
 export const unplacedResponseSchema = z.object({
   total: z.number().int(),
   groups: z.array(z.object({ point: z.string(), readings: z.array(unplacedReadingSchema) })),

@@ -27,6 +27,8 @@ export type SurveyMapViewProps = {
   /** Shown under the legend (e.g. a verdict legend from the compliance view). */
   zoneLegend?: ReactNode;
   onPainted?: (ms: number) => void;
+  /** More map layers drawn above the readings (planned points, a drop target). */
+  extraLayers?: ReactNode;
   className?: string;
 };
 
@@ -37,7 +39,7 @@ type Layers = { points: boolean; reference: boolean; zones: boolean; isolux: boo
  * with their own shapes, zones shaded, isolux lines, layer toggles, legend and a keyboard-usable
  * point finder. Shared by the survey page and the compliance views.
  */
-export function SurveyMapView({ plan, zones, map, compareWith, zoneFill, zoneLegend, onPainted, className }: SurveyMapViewProps) {
+export function SurveyMapView({ plan, zones, map, compareWith, zoneFill, zoneLegend, onPainted, extraLayers, className }: SurveyMapViewProps) {
   const { format } = useUnits();
   const [layers, setLayers] = useState<Layers>({ points: true, reference: true, zones: true, isolux: true });
   const [focusedId, setFocusedId] = useState<number | null>(null);
@@ -108,6 +110,7 @@ export function SurveyMapView({ plan, zones, map, compareWith, zoneFill, zoneLeg
           {layers.zones && <ZonesLayer zones={zones} fillOf={fillOf} points={pointPositions} />}
           {layers.isolux && <IsoluxLayer results={isolux} formatLevel={format} points={pointPositions} />}
           <ReadingsLayer readings={shown} colourOf={colourOf} detailsOf={detailsOf} focusedId={focusedId} onPainted={onPainted} />
+          {extraLayers}
         </PlanMap>
         {layers.isolux && (
           <p className="mt-2 text-xs text-ink-600">Isolux lines are interpolated linearly between measured points and are not extrapolated beyond the measured points (dotted outline: the area they cover). They show where the survey found the EN 12464-1 steps, not a lighting calculation.</p>
@@ -138,7 +141,7 @@ export function SurveyMapView({ plan, zones, map, compareWith, zoneFill, zoneLeg
         </div>
         <ul className="space-y-1 text-xs text-ink-600">
           <li>{map.readings.length} point(s) on this plan.</li>
-          {map.withoutPosition > 0 && <li>{map.withoutPosition} reading(s) have no position in the log and are not shown.</li>}
+          {map.withoutPosition > 0 && <li>{map.withoutPosition} reading(s) have no position yet: place them from the list of readings without a place.</li>}
           {map.withoutPlan > 0 && <li>{map.withoutPlan} reading(s) could not be placed: their log names no plan and this site has several (give logs a plan column, or choose the plan when uploading).</li>}
           {map.outsidePlan > 0 && map.notice === null && <li>{map.outsidePlan} reading(s) of this plan lie beyond its edge and are not shown.</li>}
           {difference && <li>{difference.points.length} point(s) matched by label; {difference.onlyAfter.length} new, {difference.onlyBefore.length} no longer measured.</li>}

@@ -1,4 +1,4 @@
-import { useCallback } from 'react';
+import { useCallback, useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router';
 import { useSurveyMap } from '@/features/plans/api/get-survey-map';
 import { useSitePlans } from '@/features/plans/api/get-site-plans';
@@ -9,6 +9,15 @@ import { Page, PageHeader } from '@/components/ui/page';
 import { SelectField } from '@/components/ui/field';
 import { EmptyState, QueryState } from '@/components/ui/states';
 import { paths } from '@shared/paths';
+import { FormError } from '@/components/ui/form-error';
+import { useSurvey } from '@/features/surveys/api/get-survey';
+import { usePlannedPoints } from '@/features/grids/api/get-planned-points';
+import { useMovePlannedPoint } from '@/features/grids/api/edit-planned-points';
+import { usePlaceReading } from '@/features/grids/api/place-reading';
+import { PlannedPointsLayer, ReadingDropTarget } from '@/features/grids/components/planned-points-layer';
+import { GridPanel } from '@/features/grids/components/grid-panel';
+import { UnplacedPanel } from '@/features/grids/components/unplaced-panel';
+import type { PlannedPoint } from '@shared/schemas/planned-points';
 
 /** A survey's readings on one of its site's plans, optionally as the change since another survey. */
 export function SurveyMapRoute() {
@@ -23,6 +32,13 @@ export function SurveyMapRoute() {
   const surveys = useSurveys(map.data?.siteId, { enabled: map.data?.siteId !== undefined });
   const compare = useSurveyMap(compareId, planId);
   const set = (k: string, v: string) => { const next = new URLSearchParams(params); if (v) next.set(k, v); else next.delete(k); setParams(next, { replace: true }); };
+  const survey = useSurvey(surveyId);
+  const planned = usePlannedPoints(surveyId, planId);
+  const editable = survey.data?.canUpload ?? false;
+  const [selected, setSelected] = useState<PlannedPoint | null>(null);
+  const [reason, setReason] = useState('');
+  const move = useMovePlannedPoint();
+  const place = usePlaceReading();
   const onPainted = useCallback((ms: number) => { document.querySelector('[data-testid="survey-map"]')?.setAttribute('data-painted-ms', ms.toFixed(1)); }, []);
 
   return (
@@ -45,9 +61,38 @@ export function SurveyMapRoute() {
               </div>
               {m.notice && <p role="status" className="mb-3 rounded-lg bg-lamp-50 p-3 text-sm text-lamp-900 ring-1 ring-lamp-200">{m.notice}</p>}
               {compareId && compare.isError && <p role="alert" className="mb-3 text-sm text-short-700">The comparison could not be loaded: {compare.error.message}</p>}
+              {m.readings.length === 0 && !m.notice && (planned.data?.items.length ?? 0) === 0 && !editable
+                && <EmptyState title="No readings with a position on this plan">Import the survey's log, or choose another plan.</EmptyState>}
               {!plan || zones.isPending ? <QueryState query={zones}>{() => null}</QueryState>
-                : m.readings.length === 0 && !m.notice ? <EmptyState title="No readings with a position on this plan">Import the survey's log, or choose another plan.</EmptyState>
-                  : <SurveyMapView plan={plan} zones={zones.data?.items ?? []} map={m} compareWith={compareId ? compare.data ?? null : null} onPainted={onPainted} />}
+                : (m.readings.length > 0 || m.notice || (planned.data?.items.length ?? 0) > 0 || editable) && (
+                  <SurveyMapView
+                    plan={plan} zones={zones.data?.items ?? []} map={m} compareWith={compareId ? compare.data ?? null : null} onPainted={onPainted}
+                    extraLayers={(
+                      <>
+                        {planned.data && (
+                          <PlannedPointsLayer
+                            points={planned.data.items} draggable={editable} selectedId={selected?.id ?? null} onSelect={setSelected}
+                            onMove={(p, [x, y]) => move.mutate({ surveyId, pointId: p.id, xM: x, yM: y, reason: reason.trim() || undefined })}
+                          />
+                        )}
+                        {editable && <ReadingDropTarget onDrop={(readingId, [x, y]) => place.mutate({ surveyId, readingId, body: { planId: m.planId, xM: x, yM: y } })} />}
+                      </>
+                    )}
+                  />
+                )}
+              {plan && (
+                <div className="mt-4 grid gap-4 lg:grid-cols-2">
+                  {move.isError && <div className="lg:col-span-2"><FormError error={move.error} /></div>}
+                  <QueryState query={planned} loadingLabel="Loading the planned points…">
+                    {(pp) => (
+                      <GridPanel surveyId={surveyId} planId={m.planId} zones={zones.data?.items ?? []} data={pp} editable={editable}
+                        selected={selected} onSelect={setSelected} reason={reason} onReason={setReason} />
+                    )}
+                  </QueryState>
+                  <UnplacedPanel surveyId={surveyId} planId={m.planId} timeZone={survey.data?.siteTimeZone ?? 'UTC'} plannedPoints={planned.data?.items ?? []} editable={editable}
+                    placeError={place.error} />
+                </div>
+              )}
             </>
           );
         }}
