@@ -55,6 +55,9 @@ export const surveyKeys = {
   /** What the latest re-decode changed (refreshed with the survey after a re-decode). */
   decodeChanges: (surveyId: number) => [...surveyKeys.detail(surveyId), 'decode-changes'] as const,
   zoneCompliance: (surveyId: number, zoneId: number) => [...surveyKeys.compliance(surveyId), 'zones', zoneId] as const,
+  /** Planned grids and points (with their reading counts), for the whole survey or one plan. */
+  plannedPoints: (surveyId: number, planId: number | null) => [...surveyKeys.detail(surveyId), 'planned-points', { planId }] as const,
+  unplaced: (surveyId: number) => [...surveyKeys.detail(surveyId), 'unplaced'] as const,
 };
 
 export const importKeys = {
