@@ -16,17 +16,30 @@ function adminOf(t: TestApp) {
   return adminClients.get(t)!;
 }
 
-/** A survey on a fresh 10 m plan with one 4 m × 3 m room whose grid is generated. */
+/** One 10 m plan with a 4 m × 3 m room per test app (uploading a plan per example would slow the matrix). */
+const bases = new WeakMap<TestApp, Promise<{ siteId: number; planId: number; zoneId: number }>>();
+function baseOf(t: TestApp) {
+  if (!bases.has(t)) {
+    bases.set(t, (async () => {
+      const admin = await adminOf(t);
+      const siteId = insertSite(t, orgOf(t, DEMO.admin), 'Grid site');
+      const plan = await admin.post(`/api/sites/${siteId}/plans`).attach('file', pngOf(100, 80, 11), { filename: 'p.png', contentType: 'image/png' }).field('name', 'Grid plan').field('widthM', '10');
+      const zone = await admin.post(`/api/plans/${plan.body.id}/zones`).send({ name: 'Grid room', kind: 'room', useType: 'office_writing', polygon: [[1, 1], [5, 1], [5, 4], [1, 4]] });
+      return { siteId, planId: plan.body.id as number, zoneId: zone.body.id as number };
+    })());
+  }
+  return bases.get(t)!;
+}
+
+/** A fresh survey on the shared plan with the room's grid generated and justified (so edits need no reason). */
 async function exampleGrid(t: TestApp) {
   const admin = await adminOf(t);
-  const siteId = insertSite(t, orgOf(t, DEMO.admin), `Grid site ${n++}`);
-  const plan = await admin.post(`/api/sites/${siteId}/plans`).attach('file', pngOf(100, 80, n), { filename: 'p.png', contentType: 'image/png' }).field('name', 'Grid plan').field('widthM', '10');
-  const zone = await admin.post(`/api/plans/${plan.body.id}/zones`).send({ name: 'Grid room', kind: 'room', useType: 'office_writing', polygon: [[1, 1], [5, 1], [5, 4], [1, 4]] });
-  const survey = await admin.post('/api/surveys').send({ siteId, name: `Grid survey ${n}` });
-  const gen = await admin.post(`/api/surveys/${survey.body.id}/planned-points/generate`).send({ zoneId: zone.body.id });
+  const { siteId, planId, zoneId } = await baseOf(t);
+  const survey = await admin.post('/api/surveys').send({ siteId, name: `Grid survey ${n++}` });
+  const gen = await admin.post(`/api/surveys/${survey.body.id}/planned-points/generate`).send({ zoneId });
   if (gen.status !== 200) throw new Error(`example grid failed: ${gen.status} ${JSON.stringify(gen.body)}`);
   await admin.put(`/api/surveys/${survey.body.id}/grids/${gen.body.grids[0].id}/reason`).send({ reason: 'Example reason' });
-  return { surveyId: survey.body.id as number, planId: plan.body.id as number, zoneId: zone.body.id as number, gridId: gen.body.grids[0].id as number, pointId: gen.body.items[0].id as number };
+  return { surveyId: survey.body.id as number, planId, zoneId, gridId: gen.body.grids[0].id as number, pointId: gen.body.items[0].id as number };
 }
 
 export const plannedPointExamples: RouteExamples = {

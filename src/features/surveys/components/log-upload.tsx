@@ -87,6 +87,11 @@ export function LogUpload({ surveyId, plans }: { surveyId: number; plans: UseQue
           {imp.data.filename}: {imp.data.rowsRead.toLocaleString('en-GB')} rows read, {imp.data.readings.toLocaleString('en-GB')} readings added.
         </p>
       )}
+      {imp.data?.placement && status === 'done' && (
+        <p className="text-sm text-ink-700" data-testid="import-placement">
+          Placed by their coordinates: {imp.data.placement.byCoordinates.toLocaleString('en-GB')}; by a planned point's label: {imp.data.placement.byLabel.toLocaleString('en-GB')}; without a place: {imp.data.placement.none.toLocaleString('en-GB')}.
+        </p>
+      )}
       {imp.data && <ImportWarningsList warnings={imp.data.warnings} />}
       {imp.data && status === 'failed' && <ImportErrorsTable errors={imp.data.errors} filename={imp.data.filename} />}
     </div>

@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router';
 import { AlertTriangle, Download, RefreshCw } from 'lucide-react';
 import { can } from '@shared/policy';
@@ -86,7 +87,11 @@ function Redecode({ survey }: { survey: SurveyDetail }) {
   );
 }
 
-export function SurveyPage({ surveyId, role, sitePlans }: { surveyId: number; role: Role; sitePlans: UseQueryResult<PlanListResponse> }) {
+export function SurveyPage({ surveyId, role, sitePlans, plannedPoints }: {
+  surveyId: number; role: Role; sitePlans: UseQueryResult<PlanListResponse>;
+  /** The planned points card, composed by the route from the grids feature. */
+  plannedPoints?: ReactNode;
+}) {
   const survey = useSurvey(surveyId);
   const units = useUnits();
   return (
@@ -101,6 +106,7 @@ export function SurveyPage({ surveyId, role, sitePlans }: { surveyId: number; ro
             />
             <div className="flex flex-col gap-6">
               <Card><CardBody><Summary survey={s} /><Imports survey={s} /></CardBody></Card>
+              {plannedPoints}
               {s.abilities.upload && (
                 <Card>
                   <CardHeader title="Add a meter log" description="A file with any problem is rejected whole; nothing from it is stored." />
