@@ -40,6 +40,7 @@ async function readingsOf(surveyId: number) {
   return res.body.items as { id: number; point: string; xM: number | null; yM: number | null; planId: number | null }[];
 }
 
+// The demo seed imports two logs: give it time on a busy machine.
 beforeAll(async () => {
   t = await createTestApp();
   admin = await t.signIn(DEMO.admin);
@@ -49,7 +50,7 @@ beforeAll(async () => {
   const plan = await admin.post(`/api/sites/${siteId}/plans`).attach('file', pngOf(200, 150, 5), { filename: 'p.png', contentType: 'image/png' }).field('name', 'Ground').field('widthM', '20');
   planId = plan.body.id;
   officeId = (await admin.post(`/api/plans/${planId}/zones`).send({ name: 'Office 1', kind: 'room', useType: 'office_writing', polygon: rect(0, 0, 11, 11) })).body.id;
-});
+}, 180_000);
 
 describe('logs that name planned points', () => {
   it('rows without coordinates take the planned point\'s plan and position (trimmed, any case); a row\'s own coordinates win; unknown labels are a warning listing their lines', async () => {

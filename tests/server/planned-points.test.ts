@@ -20,6 +20,7 @@ async function newSurvey(body: Record<string, unknown> = {}) {
   return res.body.id as number;
 }
 
+// The demo seed imports two logs: give it time on a busy machine.
 beforeAll(async () => {
   t = await createTestApp();
   admin = await t.signIn(DEMO.admin);
@@ -39,7 +40,7 @@ beforeAll(async () => {
     expect(res.status).toBe(201);
     zone[k] = res.body.id;
   }
-});
+}, 180_000);
 
 describe('generating grids', () => {
   it('under the 2011 reading (the organisation default): a 10 m room less its band has 10 × 10 points labelled OF1-A1..OF1-J10', async () => {
