@@ -5,7 +5,7 @@ import { plans, zones } from '../../db/schema/plans';
 import { readings, surveys } from '../../db/schema/surveys';
 import { plannedPoints, readingPlacements, surveyGrids, type GeneratedPoint } from '../../db/schema/grids';
 import type { SessionUser } from '@shared/schemas/auth';
-import { UPLOADABLE_STATUSES, type SurveyStatus } from '@shared/schemas/surveys';
+import { WORKED_ON_STATUSES } from '@shared/survey-abilities';
 import type {
   CreatePlannedPointBody, GenerateGridBody, MovePlannedPointBody, PlannedPoint, PlannedPointsResponse, SurveyGrid,
 } from '@shared/schemas/planned-points';
@@ -27,7 +27,7 @@ type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 /** Planned points, placements and exclusions change only while the survey is a draft or returned (409 otherwise). */
 export function assertSurveyEditable(survey: Pick<SurveyRow, 'status' | 'name'>, what: string): void {
-  if (!UPLOADABLE_STATUSES.includes(survey.status as SurveyStatus)) {
+  if (!WORKED_ON_STATUSES.includes(survey.status)) {
     throw conflict(`Survey "${survey.name}" is ${survey.status.replace('_', ' ')}: ${what} can change only while it is a draft or returned for changes`);
   }
 }

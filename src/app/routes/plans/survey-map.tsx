@@ -34,7 +34,7 @@ export function SurveyMapRoute() {
   const set = (k: string, v: string) => { const next = new URLSearchParams(params); if (v) next.set(k, v); else next.delete(k); setParams(next, { replace: true }); };
   const survey = useSurvey(surveyId);
   const planned = usePlannedPoints(surveyId, planId);
-  const editable = survey.data?.canUpload ?? false;
+  const editable = survey.data?.abilities.edit ?? false;
   const [selected, setSelected] = useState<PlannedPoint | null>(null);
   const [reason, setReason] = useState('');
   const move = useMovePlannedPoint();
