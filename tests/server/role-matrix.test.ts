@@ -38,8 +38,7 @@ describe('route-by-role matrix (README table, shared/policy.ts)', () => {
     expect(missing).toEqual([]);
   });
 
-  // Each walks every route with fresh example data: give them room on a busy machine.
-  it('answers 401 to every non-public route without a session', { timeout: 180_000 }, async () => {
+  it('answers 401 to every non-public route without a session', async () => {
     for (const r of t.routes.filter((r) => r.access !== 'public')) {
       const ex = await EXAMPLES[`${r.method} ${r.path}`](t, 'anonymous');
       const res = await send(t.client(), r.method, ex);
@@ -48,7 +47,7 @@ describe('route-by-role matrix (README table, shared/policy.ts)', () => {
   }, 180_000);
 
   for (const role of ROLES) {
-    it(`gives ${role} 2xx where the policy allows and 403 where it does not`, { timeout: 180_000 }, async () => {
+    it(`gives ${role} 2xx where the policy allows and 403 where it does not`, async () => {
       const c = await t.signIn(ROLE_ACCOUNT[role]);
       for (const r of t.routes) {
         const ex = await EXAMPLES[`${r.method} ${r.path}`](t, role);
