@@ -79,7 +79,8 @@ export async function signInAs(page: Page, email: string, password = DEMO_PASSWO
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('navigation', { name: 'Main' }).first().waitFor();
+  // The shell: the sidebar's navigation on a desktop, the menu button at phone width (the sidebar is hidden there).
+  await page.getByRole('navigation', { name: 'Main' }).or(page.getByRole('button', { name: 'Open menu' })).filter({ visible: true }).first().waitFor();
 }
 
 /** Names of the main navigation's links, in order. */
