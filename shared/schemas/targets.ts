@@ -78,7 +78,10 @@ const modifiedNotBelowRequired = (b: { emValue?: number; sourceUnit?: string; em
   b.emModifiedLux == null || b.emValue === undefined || b.sourceUnit === 'fc' || b.emModifiedLux >= b.emValue;
 const modifiedMessage = { message: 'The modified value cannot be below the required value Em', path: ['emModifiedLux'] };
 
-export const createTargetBodySchema = z.object(fields).refine(modifiedNotBelowRequired, modifiedMessage);
+/** The fields without the cross-field check, for forms that extend them (zod cannot extend a refined object). */
+export const targetFieldsSchema = z.object(fields);
+export const TARGET_MODIFIED_CHECK = [modifiedNotBelowRequired, modifiedMessage] as const;
+export const createTargetBodySchema = targetFieldsSchema.refine(...TARGET_MODIFIED_CHECK);
 export type CreateTargetBody = z.infer<typeof createTargetBodySchema>;
 
 export const updateTargetBodySchema = z.object({

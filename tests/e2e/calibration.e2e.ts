@@ -56,6 +56,8 @@ describe('calibration workspace in a real browser', () => {
     await colleague.goto(probeUrl);
     const theirs = colleague.getByRole('listitem', { name: 'Version 1' });
     await theirs.getByRole('button', { name: 'Approve version 1' }).click();
+    // Approval cannot be undone, so it asks first.
+    await theirs.getByRole('button', { name: 'Approve for good' }).click();
     await theirs.getByText('Approved', { exact: true }).waitFor();
     await theirs.getByText(/approved by Osric Penhallow/).waitFor();
 

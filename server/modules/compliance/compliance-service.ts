@@ -2,6 +2,7 @@ import { and, desc, eq, ne, sql } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { surveys } from '../../db/schema/surveys';
 import { sites } from '../../db/schema/sites';
+import { emergencySurveys } from '../../db/schema/emergency';
 import { users } from '../../db/schema/organizations';
 import { RULE_TEXT, type AcceptanceRule } from '@shared/core/decision';
 import { gridRuleText } from '@shared/core/zone-stats';
@@ -199,7 +200,9 @@ export function sitesOverview(db: Db, user: SessionUser): SitesOverviewResponse 
   const orgRule = decisionRuleOf(db, user.organizationId);
   const items = siteRows.map((site) => {
     // The latest survey with readings: a fresh empty draft says nothing about the rooms yet.
-    const latest = db.select().from(surveys).where(eq(surveys.siteId, site.id))
+    // Emergency-lighting surveys are judged on their own page, not against the rooms' targets.
+    const latest = db.select().from(surveys)
+      .where(and(eq(surveys.siteId, site.id), sql`not exists (select 1 from ${emergencySurveys} where ${emergencySurveys.surveyId} = ${surveys.id})`))
       .orderBy(desc(sql`${surveys.activeDecodeId} is not null`), desc(sql`coalesce(${surveys.startedOn}, '')`), desc(surveys.createdAt), desc(surveys.id)).get();
     if (!latest) return { siteId: site.id, name: site.name, address: site.address, latestSurvey: null, counts: null, rule: null };
     const v = surveyVerdicts(db, latest);

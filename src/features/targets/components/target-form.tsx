@@ -1,7 +1,7 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
-import { CONFIDENCE_LABELS, createTargetBodySchema, TARGET_CONFIDENCE, type TargetEntry } from '@shared/schemas/targets';
+import { CONFIDENCE_LABELS, TARGET_CONFIDENCE, TARGET_MODIFIED_CHECK, targetFieldsSchema, type TargetEntry } from '@shared/schemas/targets';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { FormError } from '@/components/ui/form-error';
@@ -10,11 +10,18 @@ import { useUpdateTarget } from '../api/update-target';
 
 // Number inputs arrive as text: empty means "none" for the optional figures; the ranges are the API's.
 const blankIsNull = (schema: z.ZodNumber) => z.union([z.literal(''), z.coerce.number().pipe(schema)]).transform((v) => (v === '' ? null : v));
-const formSchema = createTargetBodySchema.extend({
-  emValue: z.coerce.number({ message: 'Enter Em as a number' }).pipe(createTargetBodySchema.shape.emValue),
+const lux = (what: string) => blankIsNull(z.number().positive(`${what} must be above 0 lx`).max(200_000, `${what} above 200,000 lx is not an illuminance target`));
+const formSchema = targetFieldsSchema.extend({
+  emValue: z.coerce.number({ message: 'Enter Em as a number' }).pipe(targetFieldsSchema.shape.emValue),
   u0Min: blankIsNull(z.number().min(0, 'U0 is between 0 and 1').max(1, 'U0 is between 0 and 1')),
   dfTargetPercent: blankIsNull(z.number().positive('The daylight factor target must be above 0 %').max(100, 'A daylight factor is at most 100 %')),
-});
+  emModifiedLux: lux('The modified value'),
+  ezLux: lux('Ez'),
+  emWallLux: lux('The wall illuminance'),
+  emCeilingLux: lux('The ceiling illuminance'),
+  ra: blankIsNull(z.number().int('Ra is a whole number').min(0, 'Ra is between 0 and 100').max(100, 'Ra is between 0 and 100')),
+  rugl: blankIsNull(z.number().int('RUGL is a whole number').min(5, 'RUGL is between 5 and 40').max(40, 'RUGL is between 5 and 40')),
+}).refine(...TARGET_MODIFIED_CHECK);
 type FormInput = z.input<typeof formSchema>;
 type FormOutput = z.output<typeof formSchema>;
 
@@ -26,8 +33,11 @@ export function TargetForm({ entry, onDone }: { entry?: TargetEntry; onDone: () 
   const form = useForm<FormInput, unknown, FormOutput>({
     resolver: zodResolver(formSchema),
     defaultValues: entry
-      ? { useType: entry.useType, name: entry.name, emValue: entry.emSourceValue, sourceUnit: entry.sourceUnit, u0Min: entry.u0Min ?? '', dfTargetPercent: entry.dfTargetPercent ?? '', source: entry.source, confidence: entry.confidence }
-      : { useType: '', name: '', emValue: '', sourceUnit: 'lx', u0Min: '', dfTargetPercent: '', source: '', confidence: 'published' },
+      ? {
+        useType: entry.useType, name: entry.name, emValue: entry.emSourceValue, sourceUnit: entry.sourceUnit, u0Min: entry.u0Min ?? '', dfTargetPercent: entry.dfTargetPercent ?? '', source: entry.source, confidence: entry.confidence,
+        emModifiedLux: entry.emModifiedLux ?? '', ezLux: entry.ezLux ?? '', emWallLux: entry.emWallLux ?? '', emCeilingLux: entry.emCeilingLux ?? '', ra: entry.ra ?? '', rugl: entry.rugl ?? '',
+      }
+      : { useType: '', name: '', emValue: '', sourceUnit: 'lx', u0Min: '', dfTargetPercent: '', source: '', confidence: 'published', emModifiedLux: '', ezLux: '', emWallLux: '', emCeilingLux: '', ra: '', rugl: '' },
   });
   const err = form.formState.errors;
   const onSubmit = form.handleSubmit(async (body) => {
@@ -46,6 +56,12 @@ export function TargetForm({ entry, onDone }: { entry?: TargetEntry; onDone: () 
       </SelectField>
       <TextField label="Minimum uniformity U0 (optional)" inputMode="decimal" placeholder="e.g. 0.6" error={err.u0Min?.message} {...form.register('u0Min')} />
       <TextField label="Daylight factor target, % (optional)" inputMode="decimal" error={err.dfTargetPercent?.message} {...form.register('dfTargetPercent')} />
+      <TextField label="Modified value, lx (optional)" hint="EN 12464-1:2021: the most context modifiers lead to" inputMode="decimal" error={err.emModifiedLux?.message} {...form.register('emModifiedLux')} />
+      <TextField label="Cylindrical illuminance Ez, lx (optional)" inputMode="decimal" error={err.ezLux?.message} {...form.register('ezLux')} />
+      <TextField label="Walls Em,wall, lx (optional)" hint="Judged with U0 ≥ 0.10" inputMode="decimal" error={err.emWallLux?.message} {...form.register('emWallLux')} />
+      <TextField label="Ceiling Em,ceiling, lx (optional)" hint="Judged with U0 ≥ 0.10" inputMode="decimal" error={err.emCeilingLux?.message} {...form.register('emCeilingLux')} />
+      <TextField label="Ra (optional, information only)" hint="A meter cannot measure colour rendering" inputMode="numeric" error={err.ra?.message} {...form.register('ra')} />
+      <TextField label="RUGL (optional, information only)" hint="A meter cannot measure glare" inputMode="numeric" error={err.rugl?.message} {...form.register('rugl')} />
       <TextField className="sm:col-span-2" label="Source (document, clause or table)" error={err.source?.message} {...form.register('source')} />
       <SelectField label="Confidence" error={err.confidence?.message} {...form.register('confidence')}>
         {TARGET_CONFIDENCE.map((c) => <option key={c} value={c}>{CONFIDENCE_LABELS[c]}</option>)}

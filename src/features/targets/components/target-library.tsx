@@ -25,17 +25,19 @@ export function TargetLibrary({ items, canEdit }: { items: TargetEntry[]; canEdi
           <thead className="bg-ink-50 text-left text-xs font-semibold uppercase tracking-wide text-ink-600">
             <tr>
               <th scope="col" className="px-5 py-2">Use type</th>
-              <th scope="col" className="px-3 py-2 text-right">Em</th>
+              <th scope="col" className="px-3 py-2 text-right">Em required</th>
+              <th scope="col" className="px-3 py-2 text-right">Modified</th>
               <th scope="col" className="px-3 py-2 text-right">As stated</th>
               <th scope="col" className="px-3 py-2 text-right">U0</th>
               <th scope="col" className="px-3 py-2 text-right">DF</th>
+              <th scope="col" className="px-3 py-2">EN 12464-1:2021 further values</th>
               <th scope="col" className="px-3 py-2">Source</th>
               <th scope="col" className="px-3 py-2"><span className="sr-only">Actions</span></th>
             </tr>
           </thead>
           <tbody className="divide-y divide-ink-100">
             {shown.map((t) => editing === t.id ? (
-              <tr key={t.id}><td colSpan={7} className="bg-ink-50/60 px-5 py-4"><TargetForm entry={t} onDone={() => setEditing(null)} /></td></tr>
+              <tr key={t.id}><td colSpan={9} className="bg-ink-50/60 px-5 py-4"><TargetForm entry={t} onDone={() => setEditing(null)} /></td></tr>
             ) : (
               <tr key={t.id} className="align-top">
                 <th scope="row" className="px-5 py-2 text-left">
@@ -43,9 +45,17 @@ export function TargetLibrary({ items, canEdit }: { items: TargetEntry[]; canEdi
                   <code className="text-xs text-ink-500">{t.useType}</code>
                 </th>
                 <td className="num px-3 py-2 text-right">{format(t.emLux)}</td>
+                <td className="num px-3 py-2 text-right">{t.emModifiedLux === null ? '–' : format(t.emModifiedLux)}</td>
                 <td className="num px-3 py-2 text-right text-ink-600">{formatNumber(t.emSourceValue)} {t.sourceUnit}</td>
                 <td className="num px-3 py-2 text-right">{t.u0Min === null ? '–' : t.u0Min.toFixed(2)}</td>
                 <td className="num px-3 py-2 text-right">{t.dfTargetPercent === undefined ? '–' : `${t.dfTargetPercent} %`}</td>
+                <td className="num px-3 py-2 text-xs text-ink-700">
+                  {t.ezLux !== null && <span className="block">Ez {format(t.ezLux)}</span>}
+                  {t.emWallLux !== null && <span className="block">Walls {format(t.emWallLux)}, U0 ≥ {t.surfaceU0Min.toFixed(2)}</span>}
+                  {t.emCeilingLux !== null && <span className="block">Ceiling {format(t.emCeilingLux)}, U0 ≥ {t.surfaceU0Min.toFixed(2)}</span>}
+                  {(t.ra !== null || t.rugl !== null) && <span className="block" title="For information: an illuminance meter cannot measure colour rendering or glare.">Ra {t.ra ?? '–'}, RUGL {t.rugl ?? '–'} (information only)</span>}
+                  {t.ezLux === null && t.emWallLux === null && t.emCeilingLux === null && t.ra === null && t.rugl === null && '–'}
+                </td>
                 <td className="px-3 py-2">
                   <span className="block text-ink-700">{t.source}</span>
                   <span className="mt-1 flex flex-wrap gap-1">
