@@ -17,6 +17,8 @@ export type PlaceOptions = {
   taken?: readonly LabelBox[];
   /** Candidate positions per side of the zone's extent. */
   steps?: number;
+  /** How many rings, a label's height apart, are tried outside the zone before giving up. */
+  rings?: number;
 };
 
 function box(x: number, y: number, o: PlaceOptions): LabelBox {
@@ -30,8 +32,11 @@ function clear(b: LabelBox, points: readonly PlanPoint[], o: PlaceOptions): bool
 /**
  * Where a zone's label goes so that it hides no measurement point: the free position inside the
  * zone (the whole box inside the outline) nearest its centre, avoiding labels already placed; if the
- * zone has none, the nearest free position just outside its extent (above, below, then beside). As
- * a last resort the centre, and `covering` says so. Our own greedy rule, not from a reference.
+ * zone has none, the nearest free position outside its extent, in rings a label's height apart
+ * (above, below, beside), so a small zone inside a densely measured one is labelled beyond its
+ * neighbour's points. Failing that, the nearest position that hides no point even if it overlaps
+ * another label (labels are opaque and stay legible); as a last resort the centre, and `covering`
+ * says so. Our own greedy rule, not from a reference.
  */
 export function placeZoneLabel(polygon: readonly PlanPoint[], points: readonly PlanPoint[], o: PlaceOptions): { box: LabelBox; inside: boolean; covering: boolean } {
   const xs = polygon.map((p) => p[0]);
@@ -40,33 +45,45 @@ export function placeZoneLabel(polygon: readonly PlanPoint[], points: readonly P
   const cx = (x0 + x1) / 2;
   const cy = (y0 + y1) / 2;
   const steps = o.steps ?? 24;
+  const rings = o.rings ?? 12;
   const taken = o.taken ?? [];
   const free = (b: LabelBox) => clear(b, points, o) && taken.every((t) => !overlaps(b, t));
   const inside = (b: LabelBox) => [[b.x - b.hw, b.y - b.hh], [b.x + b.hw, b.y - b.hh], [b.x + b.hw, b.y + b.hh], [b.x - b.hw, b.y + b.hh]]
     .every((c) => polygonContains(polygon as PlanPoint[], c as PlanPoint));
+  const byDistance = (a: LabelBox, b: LabelBox) => Math.hypot(a.x - cx, a.y - cy) - Math.hypot(b.x - cx, b.y - cy);
 
   const candidates: LabelBox[] = [];
   for (let i = 0; i <= steps; i++) {
     for (let j = 0; j <= steps; j++) candidates.push(box(x0 + ((x1 - x0) * i) / steps, y0 + ((y1 - y0) * j) / steps, o));
   }
-  const byDistance = (a: LabelBox, b: LabelBox) => Math.hypot(a.x - cx, a.y - cy) - Math.hypot(b.x - cx, b.y - cy);
   const within = candidates.filter((b) => inside(b) && free(b)).sort(byDistance);
   if (within.length > 0) return { box: within[0], inside: true, covering: false };
 
+  // Ring k: boxes whose near edge is k label heights (plus a small gap) beyond the zone's extent.
   const gap = o.height * 0.2;
-  const outside: LabelBox[] = [];
-  for (let i = 0; i <= steps; i++) {
-    const x = x0 + ((x1 - x0) * i) / steps;
-    outside.push(box(x, y1 + o.height / 2 + gap, o), box(x, y0 - o.height / 2 - gap, o));
+  const ring = (k: number): LabelBox[] => {
+    const dx = o.width / 2 + gap + k * o.height;
+    const dy = o.height / 2 + gap + k * o.height;
+    const out: LabelBox[] = [];
+    for (let i = 0; i <= steps; i++) {
+      const x = x0 - dx + ((x1 - x0 + 2 * dx) * i) / steps;
+      out.push(box(x, y1 + dy, o), box(x, y0 - dy, o));
+    }
+    for (let j = 0; j <= steps; j++) {
+      const y = y0 - dy + ((y1 - y0 + 2 * dy) * j) / steps;
+      out.push(box(x1 + dx, y, o), box(x0 - dx, y, o));
+    }
+    return out;
+  };
+  const outside = Array.from({ length: rings }, (_, k) => ring(k));
+  for (const r of outside) {
+    const beyond = r.filter(free).sort(byDistance);
+    if (beyond.length > 0) return { box: beyond[0], inside: false, covering: false };
   }
-  for (let j = 0; j <= steps; j++) {
-    const y = y0 + ((y1 - y0) * j) / steps;
-    outside.push(box(x1 + o.width / 2 + gap, y, o), box(x0 - o.width / 2 - gap, y, o));
+  for (const r of [candidates.filter(inside), ...outside]) {
+    const anyClear = r.filter((b) => clear(b, points, o)).sort(byDistance);
+    if (anyClear.length > 0) return { box: anyClear[0], inside: inside(anyClear[0]), covering: false };
   }
-  const beyond = outside.filter(free).sort(byDistance);
-  if (beyond.length > 0) return { box: beyond[0], inside: false, covering: false };
-  const anyClear = [...candidates.filter(inside), ...outside].filter((b) => clear(b, points, o)).sort(byDistance);
-  if (anyClear.length > 0) return { box: anyClear[0], inside: inside(anyClear[0]), covering: false };
   return { box: box(cx, cy, o), inside: true, covering: true };
 }
 

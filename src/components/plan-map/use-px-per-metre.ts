@@ -9,8 +9,9 @@ export function usePxPerMetre(): number {
   return 2 ** zoom;
 }
 
-/** A map label's size in metres from its text, as the label styles draw it (about 6.2 px a character at 11 px, 16 px tall). */
+/** A map label's size in metres from its text, as the label styles draw it (about 6.3 px a character at 11 px, 16.5 px tall). */
 export function labelSizeM(text: string, pxPerM: number, fontPx = 11) {
   const charPx = fontPx * 0.57;
-  return { width: (text.length * charPx + 8) / pxPerM, height: (fontPx + 5) / pxPerM, pointMargin: 5 / pxPerM };
+  // Leaflet sets the map's text at line-height 1.5.
+  return { width: (text.length * charPx + 8) / pxPerM, height: (fontPx * 1.5) / pxPerM, pointMargin: 5 / pxPerM };
 }
