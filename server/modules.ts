@@ -31,6 +31,7 @@ import { seedSurveyLogs, seedSurveys } from './db/seed-surveys';
 import { seedPlans } from './db/seed-plans';
 import { seedCompliance } from './db/seed-compliance';
 import { seedEmergency } from './db/seed-emergency';
+import { seedCommissioning } from './db/seed-commissioning';
 
 /** Background work a real server runs every `everyMs` (server/jobs.ts). */
 export type Job = { name: string; everyMs: number; run: (deps: Deps) => Promise<unknown> | unknown };
@@ -76,6 +77,8 @@ export const SERVER_MODULES: ServerModule[] = [
   { name: 'organization', routes: registerOrganizationRoutes },
   // The target library and the sign-off of the earlier walk-through.
   { name: 'compliance', routes: registerComplianceRoutes, seed: seedCompliance },
+  // A refitted office measured new against Em / MF (EN 12464-1:2021 targets, cylindrical point, task-area bands).
+  { name: 'commissioning-demo', seed: seedCommissioning },
   { name: 'workflow', routes: registerWorkflowRoutes },
   { name: 'reports', routes: registerReportRoutes },
   // The library's emergency lighting on the ground-floor plan, its night test and logbook.

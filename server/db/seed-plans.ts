@@ -109,7 +109,7 @@ const QUILLBANK_PLAN: DemoPlan = {
   ],
 };
 
-async function seedPlan(deps: Deps, actor: SessionUser, siteId: number, plan: DemoPlan) {
+export async function seedPlan(deps: Deps, actor: SessionUser, siteId: number, plan: DemoPlan) {
   const dir = path.join(deps.config.dataDir, 'uploads');
   fs.mkdirSync(dir, { recursive: true });
   const tmp = path.join(dir, `seed-${crypto.randomUUID()}.png`);

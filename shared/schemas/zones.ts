@@ -15,6 +15,7 @@ export const ZONE_KIND_LABELS: Record<ZoneKindValue, string> = {
  */
 export const ZONE_USE_TYPES = [
   { value: 'office_writing', label: 'Office: writing, reading, data processing', safety: false },
+  { value: 'office_filing', label: 'Office: filing, copying', safety: false },
   { value: 'technical_drawing', label: 'Technical drawing', safety: false },
   { value: 'conference', label: 'Conference and meeting room', safety: false },
   { value: 'library_reading', label: 'Library: reading area', safety: false },

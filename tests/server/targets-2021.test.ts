@@ -172,3 +172,22 @@ describe('GET /api/compliance/maintenance', () => {
     expect(items[0].state).toBe('due');
   });
 });
+
+describe('demo: a newly commissioned office', () => {
+  it('the seeded commissioning survey, when judged, compares with Em / MF (MF 0.9 x 1 x 0.93 x 0.95) and has a cylindrical point and the desk cluster\'s bands', async () => {
+    const fm = await t.signIn(DEMO.facility_manager);
+    const list = (await fm.get('/api/surveys')).body.items as { id: number; name: string; installation: { state: string; maintenanceFactor: number } }[];
+    const survey = list.find((s) => s.name === 'Commissioning after the lighting refit')!;
+    expect(survey.installation.state).toBe('new');
+    expect(survey.installation.maintenanceFactor).toBeCloseTo(0.9 * 1 * 0.93 * 0.95, 12);
+    const c = (await fm.get(`/api/surveys/${survey.id}/compliance`)).body;
+    const office = c.zones.find((z: Zone) => z.name === 'Open-plan office') as Zone;
+    expect(office.limitLux).toBeCloseTo(500 / 0.79515, 9);
+    const cyl = office.checks!.find((k) => k.kind === 'cylindrical')!;
+    expect(cyl.points).toBe(1);
+    expect(cyl.limitLux).toBeCloseTo(150 / 0.79515, 9);
+    const desk = c.zones.find((z: Zone) => z.name === 'Desk cluster') as Zone;
+    expect(desk.checks!.map((k) => k.kind)).toEqual(['surrounding', 'background']);
+    expect(c.installationText).toMatch(/New installation/);
+  });
+});

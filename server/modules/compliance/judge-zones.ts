@@ -312,10 +312,12 @@ export function judgeZones(input: {
           none: `No ${plane} readings in this zone (log rows with plane = ${plane}).`,
         }));
       };
-      surface('wall', t.emWallLux);
-      surface('ceiling', t.emCeilingLux);
+      // Walls and ceilings belong to rooms: a task area or an outdoor zone gets these checks only from readings taken in it.
+      const room = z.kind === 'room';
+      surface('wall', room || other.some((r) => r.plane === 'wall') ? t.emWallLux : undefined);
+      surface('ceiling', room || other.some((r) => r.plane === 'ceiling') ? t.emCeilingLux : undefined);
       const vertical = other.filter((r) => r.plane === 'vertical');
-      if (t.ezLux != null || vertical.length > 0) {
+      if ((room && t.ezLux != null) || vertical.length > 0) {
         const cyl = cylindricalPoints(vertical);
         const c = judgeCheck({
           kind: 'cylindrical', readings: cyl.points, targetLux: t.ezLux ?? null, u0Min: null, minPoints: 1,
