@@ -44,6 +44,7 @@ export const paths = {
   decodeChanges: page('/calibration/surveys/:surveyId/decode-changes', 'surveys.redecode', (surveyId: Id) => `/calibration/surveys/${surveyId}/decode-changes`),
   audit: page('/calibration/audit', 'audit.read', (probeId?: Id) => `/calibration/audit${query({ probe: probeId })}`),
   compliance: page('/compliance', 'surveys.read', () => '/compliance'),
+  maintenance: page('/compliance/maintenance', 'surveys.read', () => '/compliance/maintenance'),
   surveyCompliance: page('/compliance/surveys/:surveyId', 'surveys.read', (surveyId: Id) => `/compliance/surveys/${surveyId}`),
   zoneCompliance: page('/compliance/surveys/:surveyId/zones/:zoneId', 'surveys.read', (surveyId: Id, zoneId: Id) => `/compliance/surveys/${surveyId}/zones/${zoneId}`),
   targets: page('/targets', 'targets.read', () => '/targets'),

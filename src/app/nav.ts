@@ -1,7 +1,7 @@
 import type { LucideIcon } from 'lucide-react';
 import {
   ClipboardCheck, ClipboardList as SurveysIcon, Gauge as CalibrationIcon, History as AuditIcon,
-  LayoutDashboard, Library, Mail, Map as PlanIcon, Settings, Siren, Users,
+  LayoutDashboard, Library, Mail, Map as PlanIcon, Settings, Siren, Users, Wrench,
 } from 'lucide-react';
 import type { Capability } from '@shared/policy';
 import { paths } from '@shared/paths';
@@ -21,6 +21,7 @@ export const NAV_ITEMS: NavItem[] = [
   entry(paths.plans, { label: 'Plans', icon: PlanIcon, group: 'work', description: 'Plans to scale, zones, and survey points on the plan.' }),
   entry(paths.compliance, { label: 'Verdicts', icon: ClipboardCheck, group: 'work', description: 'Which rooms meet their lighting targets, sign-off and reports.' }),
   entry(paths.emergency, { label: 'Emergency lighting', icon: Siren, group: 'work', description: 'Escape routes and areas surveyed in the dark, verdicts, and the test logbook with due dates.' }),
+  entry(paths.maintenance, { label: 'Maintenance', icon: Wrench, group: 'work', description: 'Zones whose signed-off levels fell below their maintained value, or are heading there.' }),
   entry(paths.targets, { label: 'Targets', icon: Library, group: 'work', description: 'The target library: Em and U0 per use type, with sources.' }),
   entry(paths.calibration, { label: 'Calibration', icon: CalibrationIcon, group: 'work', description: 'Probes, coefficient sets, bench runs and due dates.' }),
   entry(paths.audit, { label: 'Audit trail', icon: AuditIcon, group: 'work', description: 'Who changed which probe or coefficient set, and how.' }),

@@ -61,6 +61,7 @@ const appRoutes: RouteObject[] = [
   lazyPage('audit', () => import('./routes/calibration/calibration-audit').then((m) => m.CalibrationAuditRoute)),
   lazyPage('decodeChanges', () => import('./routes/calibration/decode-changes').then((m) => m.DecodeChangesRoute)),
   lazyPage('compliance', () => import('./routes/compliance/compliance-overview').then((m) => m.ComplianceOverviewRoute)),
+  lazyPage('maintenance', () => import('./routes/compliance/maintenance').then((m) => m.MaintenanceRoute)),
   lazyPage('surveyCompliance', () => import('./routes/compliance/survey-compliance').then((m) => m.SurveyComplianceRoute)),
   lazyPage('zoneCompliance', () => import('./routes/compliance/zone-compliance').then((m) => m.ZoneComplianceRoute)),
   lazyPage('targets', () => import('./routes/compliance/targets').then((m) => m.TargetsRoute)),

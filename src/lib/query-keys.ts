@@ -37,6 +37,8 @@ export const siteKeys = {
   list: () => [...siteKeys.all, 'list'] as const,
   /** Sites with their latest survey's verdict counts. */
   overview: () => [...siteKeys.all, 'overview'] as const,
+  /** Zones due for maintenance across the sites, with their signed-off trend. */
+  maintenance: () => [...siteKeys.all, 'maintenance'] as const,
 };
 
 export const surveyKeys = {
