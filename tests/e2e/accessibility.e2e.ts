@@ -46,6 +46,7 @@ describe('accessibility of the main pages (axe-core, WCAG 2 A and AA)', () => {
     ['facilities@luxtrail.test', '/compliance/surveys/3', 'Zones, worst first'],
     ['calibration@luxtrail.test', '/calibration/probes/1', 'Coefficient sets'],
     // Survey 5 is the library's emergency night test.
+    ['facilities@luxtrail.test', '/compliance/maintenance', 'Maintenance due'],
     ['facilities@luxtrail.test', '/emergency', 'Tests due'],
     ['facilities@luxtrail.test', '/emergency/surveys/5', 'Criteria, conditions and passes'],
   ];
