@@ -26,7 +26,8 @@ export type AppOptions = {
 /** Builds the Express app from its dependencies without listening (supertest drives it in-process). */
 export function createApp(deps: Deps, options: AppOptions = {}) {
   const app = express();
-  app.set('trust proxy', 'loopback');
+  // X-Forwarded-For is believed only from the proxies TRUST_PROXY names (none by default).
+  app.set('trust proxy', deps.config.trustProxy);
   app.disable('x-powered-by');
   const logger = pino({ level: deps.config.logLevel });
 

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import fs from 'node:fs';
 import path from 'node:path';
 import crypto from 'node:crypto';
+import net from 'node:net';
 
 const envSchema = z.object({
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
@@ -13,7 +14,35 @@ const envSchema = z.object({
   UPLOAD_LIMIT_MB: z.coerce.number().positive().default(200),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  TRUST_PROXY: z.string().trim().optional().transform((v, ctx) => {
+    if (v === undefined || v === '' || v === 'false') return undefined;
+    const parsed = parseTrustProxy(v);
+    if (typeof parsed === 'string') {
+      ctx.addIssue({ code: 'custom', message: parsed });
+      return z.NEVER;
+    }
+    return parsed;
+  }),
 });
+
+const PROXY_NAMES = ['loopback', 'linklocal', 'uniquelocal'];
+
+/**
+ * TRUST_PROXY: how many proxies sit in front (e.g. `1`), or which addresses are proxies, comma
+ * separated (`loopback`, `linklocal`, `uniquelocal`, an IP, or an IP/prefix). Only then is
+ * X-Forwarded-For believed; "true" (any sender) is refused, as it lets every client pick its address.
+ */
+function parseTrustProxy(v: string): number | string[] | string {
+  if (/^\d+$/.test(v)) return Number(v) > 0 ? Number(v) : 'TRUST_PROXY must be at least 1 hop, or unset';
+  if (v === 'true') return 'TRUST_PROXY=true would believe any client\'s X-Forwarded-For; give the number of proxies (e.g. 1) or their addresses';
+  const items = v.split(',').map((s) => s.trim()).filter(Boolean);
+  for (const item of items) {
+    const [ip, prefix, ...rest] = item.split('/');
+    const ok = PROXY_NAMES.includes(item) || (rest.length === 0 && net.isIP(ip) !== 0 && (prefix === undefined || (/^\d+$/.test(prefix) && Number(prefix) <= (net.isIP(ip) === 4 ? 32 : 128))));
+    if (!ok) return `TRUST_PROXY: "${item}" is not a hop count, ${PROXY_NAMES.join(', ')}, an IP address or IP/prefix`;
+  }
+  return items;
+}
 
 export type Config = {
   port: number;
@@ -27,8 +56,12 @@ export type Config = {
   secureCookies: boolean;
   /** Background jobs (reminders) run only in a real server, not in tests. */
   runJobs: boolean;
-  /** Sign-in attempts allowed per 15 minutes: all attempts per address, failed ones per account. */
+  /** Sign-in attempts allowed per 15 minutes: all attempts per address, failed ones per account and address. */
   signInLimits: { perAddress: number; perAccount: number };
+  /** Forgot-password requests allowed per 15 minutes: per address, and per account and address. */
+  resetLimits: { perAddress: number; perAccount: number };
+  /** Express's `trust proxy`: false unless TRUST_PROXY names the proxies in front of Luxtrail. */
+  trustProxy: false | number | string[];
 };
 
 export class ConfigError extends Error {}
@@ -55,6 +88,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     secureCookies: publicUrl.startsWith('https://'),
     runJobs: e.NODE_ENV !== 'test',
     signInLimits: { perAddress: 30, perAccount: 5 },
+    resetLimits: { perAddress: 10, perAccount: 3 },
+    trustProxy: e.TRUST_PROXY ?? false,
   };
 }
 
@@ -81,6 +116,8 @@ export function testConfig(overrides: Partial<Config> = {}): Config {
     secureCookies: false,
     runJobs: false,
     signInLimits: { perAddress: 30, perAccount: 5 },
+    resetLimits: { perAddress: 10, perAccount: 3 },
+    trustProxy: false,
     ...overrides,
   };
 }

@@ -1,19 +1,21 @@
 import type { Server } from 'node:http';
 import { ConfigError, loadConfig } from './config';
 import { openDatabase } from './db/client';
-import { createMailer } from './mail/mailer';
+import { buildDeps } from './deps';
 import { systemClock } from './lib/clock';
 import { createApp } from './app';
 import { seedIfEmpty } from './db/seed';
 import { startJobs } from './jobs';
+import { prepareStart } from './start-up';
 
 async function main() {
   const dev = process.argv.includes('--dev');
   const config = loadConfig();
   const db = openDatabase(config.databaseUrl);
   const clock = systemClock;
-  const mailer = createMailer({ db, clock, smtpUrl: config.smtpUrl });
-  const deps = { db, mailer, clock, config };
+  const deps = buildDeps({ db, clock, config, onJobError: (name, err) => console.error(`Job ${name} failed:`, err instanceof Error ? err.message : err) });
+  // Before listening: nothing a client sees may still belong to the process that died.
+  await prepareStart(deps);
   const seeded = await seedIfEmpty(deps);
   let clientMiddleware;
   let closeVite = async () => {};
@@ -24,7 +26,7 @@ async function main() {
     closeVite = () => vite.close();
   }
   const { app, sessionStore } = createApp(deps, { serveClient: !dev, clientMiddleware });
-  const stopJobs = config.runJobs ? startJobs(deps, sessionStore) : () => {};
+  const stopJobs = config.runJobs ? startJobs(deps, sessionStore) : async () => {};
   const server: Server = app.listen(config.port, () => {
     const address = server.address();
     const port = typeof address === 'object' && address ? address.port : config.port;
@@ -36,8 +38,8 @@ async function main() {
     if (stopping) return;
     stopping = true;
     console.log(`${signal} received: finishing open requests and closing`);
-    stopJobs();
     server.close(async () => {
+      await stopJobs();
       await closeVite();
       db.$client.close();
       process.exit(0);

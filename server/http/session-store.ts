@@ -10,6 +10,14 @@ import type { Clock } from '../lib/clock';
  */
 export const SESSION_TOUCH_INTERVAL_MS = 60_000;
 
+/**
+ * Ends every session of an account, in the caller's transaction: a password reset, disabling the
+ * account or changing its role signs it out everywhere.
+ */
+export function endSessionsOf(tx: Pick<Db, 'delete'>, userId: number): number {
+  return tx.delete(sessions).where(eq(sessions.userId, userId)).run().changes;
+}
+
 /** Server-side sessions kept in SQLite; expiry follows the injected clock. */
 export class SqliteSessionStore extends session.Store {
   private readonly touchedAt = new Map<string, number>();
@@ -30,8 +38,10 @@ export class SqliteSessionStore extends session.Store {
     try {
       const expiresAt = this.clock.now() + this.ttlMs;
       const json = JSON.stringify(data);
-      this.db.insert(sessions).values({ sid, data: json, expiresAt })
-        .onConflictDoUpdate({ target: sessions.sid, set: { data: json, expiresAt } }).run();
+      // Kept beside the data so an account's sessions can be ended together (endSessionsOf).
+      const userId = typeof data.userId === 'number' ? data.userId : null;
+      this.db.insert(sessions).values({ sid, data: json, expiresAt, userId })
+        .onConflictDoUpdate({ target: sessions.sid, set: { data: json, expiresAt, userId } }).run();
       cb?.();
     } catch (err) { cb?.(err); }
   }

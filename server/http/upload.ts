@@ -5,12 +5,15 @@ import type { RequestHandler } from 'express';
 import type { Deps } from '../deps';
 import { badRequest } from './errors';
 
+/** Temporary uploads, under the data directory; emptied at start-up (server/start-up.ts). */
+export const UPLOADS_DIR = 'uploads';
+
 /**
  * Multer to disk under the data directory, one file in `field`, size-limited.
  * Handlers then check the content with sniffFile and keep it with keepUploadedFile.
  */
 export function singleFileUpload(deps: Deps, field: string, maxBytes: number): RequestHandler[] {
-  const dir = path.join(deps.config.dataDir, 'uploads');
+  const dir = path.join(deps.config.dataDir, UPLOADS_DIR);
   fs.mkdirSync(dir, { recursive: true });
   const upload = multer({ dest: dir, limits: { fileSize: maxBytes, files: 1, fields: 20 } }).single(field);
   const requireFile: RequestHandler = (req, res, next) => {

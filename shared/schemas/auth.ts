@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { singleLineText } from './text';
 import { ROLES } from '../roles';
 import { emailSchema, passwordSchema } from './common';
 
@@ -27,7 +28,7 @@ export const tokenPasswordBodySchema = z
     token: z.string().min(20).max(200),
     password: passwordSchema,
     confirmPassword: z.string(),
-    name: z.string().trim().min(1).max(120).optional(),
+    name: singleLineText(z.string().trim().min(1).max(120)).optional(),
   })
   .refine((v) => v.password === v.confirmPassword, { message: 'The passwords do not match', path: ['confirmPassword'] });
 export type TokenPasswordBody = z.infer<typeof tokenPasswordBodySchema>;

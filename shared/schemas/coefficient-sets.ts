@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { multiLineText, singleLineText } from './text';
 import { isoDateTimeSchema } from './common';
 
 export const COEFFICIENT_SET_STATUSES = ['draft', 'approved'] as const;
@@ -16,8 +17,8 @@ export type GainCoefficientsInput = z.infer<typeof gainCoefficientsSchema>;
 const draftCommon = {
   effectiveFrom: isoDateTimeSchema,
   dueDate: isoDateTimeSchema,
-  certificateNumber: z.string().trim().min(1, 'Enter the certificate number').max(80),
-  note: z.string().trim().max(1000).default(''),
+  certificateNumber: singleLineText(z.string().trim().min(1, 'Enter the certificate number').max(80)),
+  note: multiLineText(z.string().trim().max(1000)).default(''),
 };
 
 function dueAfterEffective(v: { effectiveFrom: string; dueDate: string }, ctx: z.RefinementCtx) {

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { singleLineText } from './text';
 
 /** Largest plan image accepted, bytes; larger plans are better exported at a lower resolution. */
 export const PLAN_IMAGE_MAX_BYTES = 25 * 1024 * 1024;
@@ -12,7 +13,7 @@ const widthM = z.coerce.number({ message: 'The plan width must be a number of me
 
 /** The multipart text fields of an upload (the image goes in the field `file`). */
 export const createPlanFieldsSchema = z.object({
-  name: z.string().trim().min(1, 'Give the plan a name').max(120, 'Use at most 120 characters'),
+  name: singleLineText(z.string().trim().min(1, 'Give the plan a name').max(120, 'Use at most 120 characters')),
   widthM: z.preprocess((v) => (v === '' ? undefined : v), widthM.optional()),
 });
 export type CreatePlanFields = z.infer<typeof createPlanFieldsSchema>;

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { SURVEY_STATUSES } from './surveys';
+import { multiLineText } from './text';
 
 export const PROBE_KINDS = ['counts', 'current_4_20', 'voltage_0_10'] as const;
 export const PROBE_STATUSES = ['in_service', 'out_of_service', 'retired'] as const;
@@ -35,7 +36,7 @@ const optionalNumber = z.number().finite().nullable().optional();
 export const probeFieldsSchema = z.object({
   serial: z.string().trim().min(1, 'Enter the serial number').max(60).regex(/^[A-Za-z0-9][A-Za-z0-9._\-/]*$/, 'Use letters, digits and . _ - / only'),
   kind: z.enum(PROBE_KINDS),
-  description: z.string().trim().max(500).default(''),
+  description: multiLineText(z.string().trim().max(500)).default(''),
   status: z.enum(PROBE_STATUSES).default('in_service'),
   fullScaleCounts: z.number().int().positive().max(2 ** 31 - 1).nullable().optional(),
   saturationCounts: z.number().int().positive().max(2 ** 31 - 1).nullable().optional(),
@@ -95,7 +96,7 @@ export type CreateProbeBody = z.input<typeof createProbeBodySchema>;
 
 /** Any subset of the fields; the merged probe must still satisfy probeFieldIssues. */
 export const updateProbeBodySchema = probeFieldsSchema.partial()
-  .extend({ description: z.string().trim().max(500).optional(), status: z.enum(PROBE_STATUSES).optional() })
+  .extend({ description: multiLineText(z.string().trim().max(500)).optional(), status: z.enum(PROBE_STATUSES).optional() })
   .refine((v) => Object.keys(v).length > 0, { message: 'Nothing to change' });
 export type UpdateProbeBody = z.infer<typeof updateProbeBodySchema>;
 

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { READING_PLANES } from '../core/planes';
+import { singleLineText } from './text';
 import type { ReadingFlag as CoreReadingFlag } from '../core/types';
 
 export const READING_FLAGS = ['ok', 'over_range', 'under_range', 'fault', 'calibration_lapsed', 'low_confidence'] as const;
@@ -24,7 +25,7 @@ export const readingsQuerySchema = z.object({
   offset: z.coerce.number().int().min(0).default(0),
   flag: z.enum(READING_FLAGS).optional(),
   /** Readings whose point label contains this text (case-insensitive). */
-  point: z.string().trim().max(120).optional(),
+  point: singleLineText(z.string().trim().max(120)).optional(),
   sort: z.enum(READING_SORTS).default('time'),
   order: z.enum(['asc', 'desc']).default('asc'),
 });

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { multiLineText, singleLineText } from './text';
 
 /** True for a time zone name the runtime's IANA database knows (e.g. Europe/London, UTC). */
 export function isIanaTimeZone(name: string): boolean {
@@ -15,8 +16,8 @@ export const timeZoneSchema = z.string().trim().min(1, 'Choose a time zone')
   .refine(isIanaTimeZone, { message: 'Use an IANA time zone name such as Europe/London or America/Chicago' });
 
 export const createSiteBodySchema = z.object({
-  name: z.string().trim().min(1, 'Enter a site name').max(160),
-  address: z.string().trim().max(400).optional().transform((v) => (v ? v : undefined)),
+  name: singleLineText(z.string().trim().min(1, 'Enter a site name').max(160)),
+  address: multiLineText(z.string().trim().max(400)).optional().transform((v) => (v ? v : undefined)),
   timeZone: timeZoneSchema,
 });
 export type CreateSiteBody = z.input<typeof createSiteBodySchema>;

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { IMPORT_STATUSES } from './imports';
 import { GRID_ROUNDINGS } from '../spatial/measurement-grid';
+import { multiLineText, singleLineText } from './text';
 
 export const SURVEY_STATUSES = ['draft', 'submitted', 'signed_off', 'returned'] as const;
 export type SurveyStatus = (typeof SURVEY_STATUSES)[number];
@@ -21,7 +22,7 @@ export const SURVEY_STATUS_LABELS: Record<SurveyStatus, string> = {
 export const surveyConditionsSchema = z.object({
   /** True when daylight was excluded (blinds down, after dark) so readings are electric light only. */
   daylightExcluded: z.boolean(),
-  notes: z.string().trim().max(1000).optional(),
+  notes: multiLineText(z.string().trim().max(1000)).optional(),
 });
 export type SurveyConditions = z.infer<typeof surveyConditionsSchema>;
 
@@ -53,7 +54,7 @@ export type InstallationInfo = z.infer<typeof installationInfoSchema>;
 
 export const createSurveyBodySchema = z.object({
   siteId: z.number().int().positive(),
-  name: z.string().trim().min(1, 'Enter a survey name').max(160),
+  name: singleLineText(z.string().trim().min(1, 'Enter a survey name').max(160)),
   startedOn: z.iso.date({ message: 'Use a date such as 2026-11-20' }).optional(),
   conditions: surveyConditionsSchema.optional(),
   installation: installationSchema.optional(),

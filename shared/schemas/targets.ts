@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { CONTEXT_MODIFIER_IDS } from '../core/illuminance-scale';
+import { singleLineText } from './text';
 
 export const TARGET_CONFIDENCE = ['published', 'secondary', 'memory'] as const;
 export type TargetConfidence = (typeof TARGET_CONFIDENCE)[number];
@@ -58,7 +59,7 @@ export const INFO_ONLY_NOTE = 'Ra and RUGL are shown for information: an illumin
 
 const fields = {
   useType: useTypeSchema,
-  name: z.string().trim().min(1, 'Give the entry a name').max(160),
+  name: singleLineText(z.string().trim().min(1, 'Give the entry a name').max(160)),
   /** Em in the source unit; the server stores lux. */
   emValue: z.number({ message: 'Enter Em as a number' }).positive('Em must be above 0').max(200_000, 'Em above 200,000 lx is not an illuminance target'),
   sourceUnit: z.enum(SOURCE_UNITS).default('lx'),
@@ -70,7 +71,7 @@ const fields = {
   emCeilingLux: luxSchema('The ceiling illuminance').nullable().default(null),
   ra: z.number().int('Ra is a whole number').min(0, 'Ra is between 0 and 100').max(100, 'Ra is between 0 and 100').nullable().default(null),
   rugl: z.number().int('RUGL is a whole number').min(5, 'RUGL is between 5 and 40').max(40, 'RUGL is between 5 and 40').nullable().default(null),
-  source: z.string().trim().min(3, 'Say where the value comes from, e.g. the client\'s specification and clause').max(300),
+  source: singleLineText(z.string().trim().min(3, 'Say where the value comes from, e.g. the client\'s specification and clause').max(300)),
   confidence: z.enum(TARGET_CONFIDENCE).default('published'),
 };
 

@@ -1,18 +1,19 @@
 import { z } from 'zod';
+import { multiLineText } from './text';
 import { SURVEY_STATUSES } from './surveys';
 
 export const submitSurveyBodySchema = z.object({
-  note: z.string().trim().max(2000, 'Keep the note under 2,000 characters').optional(),
+  note: multiLineText(z.string().trim().max(2000, 'Keep the note under 2,000 characters')).optional(),
 });
 export type SubmitSurveyBody = z.infer<typeof submitSurveyBodySchema>;
 
 export const signOffBodySchema = z.object({
-  comment: z.string().trim().max(2000, 'Keep the comment under 2,000 characters').optional(),
+  comment: multiLineText(z.string().trim().max(2000, 'Keep the comment under 2,000 characters')).optional(),
 });
 export type SignOffBody = z.infer<typeof signOffBodySchema>;
 
 export const returnSurveyBodySchema = z.object({
-  comment: z.string().trim().min(3, 'Say what the surveyor should change (at least 3 characters)').max(2000, 'Keep the comment under 2,000 characters'),
+  comment: multiLineText(z.string().trim().min(3, 'Say what the surveyor should change (at least 3 characters)').max(2000, 'Keep the comment under 2,000 characters')),
 });
 export type ReturnSurveyBody = z.infer<typeof returnSurveyBodySchema>;
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { singleLineText } from './text';
 
 export const ZONE_KINDS = ['room', 'task_area', 'outdoor'] as const;
 export type ZoneKindValue = (typeof ZONE_KINDS)[number];
@@ -53,7 +54,7 @@ export const polygonSchema = z.array(z.tuple([z.number(), z.number()]), { messag
   .max(500, 'A zone may have at most 500 corners');
 
 export const zoneBodySchema = z.object({
-  name: z.string().trim().min(1, 'Give the zone a name').max(120, 'Use at most 120 characters'),
+  name: singleLineText(z.string().trim().min(1, 'Give the zone a name').max(120, 'Use at most 120 characters')),
   kind: z.enum(ZONE_KINDS, { message: 'Kind must be room, task_area or outdoor' }),
   useType: z.enum(USE_TYPE_VALUES, { message: 'Choose a use type from the list' }),
   planeHeightM: z.number().min(0, 'The working plane cannot be below the floor').max(10, 'The working plane is at most 10 m high').default(0.75),

@@ -24,7 +24,7 @@ export const organizationKeys = {
 
 export const outboxKeys = {
   all: ['outbox'] as const,
-  list: () => [...outboxKeys.all, 'list'] as const,
+  list: (filters: { status?: string } = {}) => [...outboxKeys.all, 'list', filters] as const,
 };
 
 export const auditKeys = {

@@ -3,7 +3,8 @@ import type { Test } from 'supertest';
 import { openDatabase } from '@server/db/client';
 import { testConfig, type Config } from '@server/config';
 import { fixedClock } from '@server/lib/clock';
-import { createMailer } from '@server/mail/mailer';
+import { buildDeps } from '@server/deps';
+import type { MailTransport } from '@server/mail/mailer';
 import { createApp } from '@server/app';
 import { seedIfEmpty, DEMO_PASSWORD } from '@server/db/seed';
 import { outboxMessages } from '@server/db/schema/organizations';
@@ -24,14 +25,13 @@ export const DEMO = {
 
 /**
  * A fresh app on an in-memory database seeded with the demo scenario, a movable clock,
- * and the fake outbox. Each test file (or test) makes its own.
+ * and the outbox (mail is queued there; `deliverMail()` runs the delivery jobs). Each test file (or test) makes its own.
  */
-export async function createTestApp(overrides: Partial<Config> = {}, opts: { seed?: boolean } = {}) {
+export async function createTestApp(overrides: Partial<Config> = {}, opts: { seed?: boolean; transport?: MailTransport } = {}) {
   const config = testConfig(overrides);
   const db = openDatabase(config.databaseUrl);
   const clock = fixedClock(DEMO_START);
-  const mailer = createMailer({ db, clock, smtpUrl: null });
-  const deps = { db, mailer, clock, config };
+  const deps = buildDeps({ db, clock, config, transport: opts.transport });
   if (opts.seed !== false) await seedIfEmpty(deps);
   const { app, routes } = createApp(deps);
 
@@ -60,7 +60,12 @@ export async function createTestApp(overrides: Partial<Config> = {}, opts: { see
     return db.select().from(outboxMessages).orderBy(desc(outboxMessages.id)).get();
   }
 
-  return { app, routes, deps, db, clock, config, client, signIn, lastMail };
+  /** Runs the job queue once, as the server's runner would: delivers queued mail (building report PDFs). */
+  function deliverMail() {
+    return deps.jobs.runDue();
+  }
+
+  return { app, routes, deps, db, clock, config, client, signIn, lastMail, deliverMail };
 }
 
 export type TestApp = Awaited<ReturnType<typeof createTestApp>>;

@@ -6,6 +6,7 @@ import { and, eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
 import { createTestProbes, newDraftSurvey, tableCounts, testWalkCsv, TEST_SERIALS, uploadAndWait } from './support/survey-log-factories';
 import { logImports, surveys } from '@server/db/schema/surveys';
+import { boundImportRecord, cutText, IMPORT_RECORD_LIMITS } from '@server/modules/imports/import-record';
 
 let t: TestApp;
 let c: TestClient;
@@ -295,5 +296,57 @@ describe('sample logs in public/samples', () => {
     const broken = await uploadAndWait(t, c, await newDraftSurvey(t, c), read('broken-log.csv'));
     expect(broken.status.status).toBe('failed');
     expect(broken.status.errors.map((e: { line: number; column: string }) => [e.line, e.column])).toEqual([[3, 'counts'], [4, 'timestamp'], [5, 'probe'], [6, 'gain'], [7, 'y_m'], [8, 'plan']]);
+  });
+});
+
+const storedBytes = (importId: number) => {
+  const row = t.db.select().from(logImports).where(eq(logImports.id, importId)).get()!;
+  return Buffer.byteLength(JSON.stringify({ errors: row.errors, warnings: row.warnings }), 'utf8');
+};
+
+describe('an import\'s record stays bounded', () => {
+  it('a 5 MB file of one line, when imported, is refused with a record under 256 KB whose values and messages are cut', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    // One header line of 5 MB: a made-up column name of 5 million characters and no samples.
+    const content = `timestamp,probe,point,${'x'.repeat(5 * 1024 * 1024)}\n`;
+    const { status, upload } = await uploadAndWait(t, c, surveyId, content);
+    expect(upload.status).toBe(202);
+    expect(status.status).toBe('failed');
+    expect(storedBytes(upload.body.importId)).toBeLessThan(IMPORT_RECORD_LIMITS.recordBytes);
+    for (const w of status.warnings) {
+      expect(w.message.length).toBeLessThanOrEqual(IMPORT_RECORD_LIMITS.messageChars);
+      expect((w.column ?? '').length).toBeLessThanOrEqual(IMPORT_RECORD_LIMITS.columnChars);
+    }
+    expect(status.warnings[0].message).toMatch(/^Unknown column "xxx.*…$/);
+    const answer = await c.get(`/api/imports/${upload.body.importId}`);
+    expect(Buffer.byteLength(answer.text)).toBeLessThan(IMPORT_RECORD_LIMITS.recordBytes + 1024);
+  });
+
+  it('a file with 300 unknown columns, when imported, keeps 200 warnings and says 100 more were found', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const extra = Array.from({ length: 300 }, (_, i) => `extra_${i}`);
+    const content = `timestamp,probe,point,gain,counts,${extra.join(',')}\n2026-11-01T08:00:00Z,${TEST_SERIALS.tripod},A1,2,16000,${extra.map(() => '').join(',')}\n`;
+    const { status } = await uploadAndWait(t, c, surveyId, content);
+    expect(status.status).toBe('done');
+    expect(status.warnings).toHaveLength(IMPORT_RECORD_LIMITS.warnings + 1);
+    expect(status.warnings.at(-1).message).toBe('100 more warnings were found and not listed');
+  });
+
+  it('errors whose text JSON escapes to six bytes a character, when stored, are dropped from the end until the record fits, and counted', () => {
+    const nasty = '\u0001'.repeat(1000);
+    const errors = Array.from({ length: 200 }, (_, i) => ({ line: i + 2, column: nasty, value: nasty, message: nasty }));
+    const warnings = Array.from({ length: 200 }, (_, i) => ({ line: i + 2, column: nasty, message: nasty }));
+    const record = boundImportRecord({ errors, errorCount: 5000, warnings });
+    expect(Buffer.byteLength(JSON.stringify(record))).toBeLessThanOrEqual(IMPORT_RECORD_LIMITS.recordBytes);
+    const listedErrors = record.errors.length - 1;
+    expect(listedErrors).toBeGreaterThan(0);
+    expect(record.errors.at(-1)!.message).toBe(`${5000 - listedErrors} more problems were found and not listed`);
+    expect(record.errors[0].value.length).toBe(IMPORT_RECORD_LIMITS.valueChars);
+  });
+
+  it('cutText never splits a character made of two UTF-16 units', () => {
+    expect(cutText('ab💡cd', 4)).toBe('ab…');
+    expect(cutText('abc', 3)).toBe('abc');
+    expect(cutText('abcdef', 4)).toBe('abc…');
   });
 });

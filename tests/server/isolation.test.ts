@@ -25,7 +25,7 @@ describe('organisation isolation of the foundation routes', () => {
   it('keeps one organisation\'s outbox mail and attachments from another\'s admin', async () => {
     const admin = await t.signIn(DEMO.admin);
     await admin.post('/api/invitations').send({ email: 'iso-check@luxtrail.test', name: 'Iso Check', role: 'surveyor' });
-    await t.deps.mailer.send({ to: 'x@luxtrail.test', subject: 'private report', text: 'attached', organizationId: 1, attachments: [{ filename: 'r.pdf', contentType: 'application/pdf', content: Buffer.from('%PDF-1.4') }] });
+    t.deps.mailer.send({ to: 'x@luxtrail.test', subject: 'private report', text: 'attached', organizationId: 1, attachments: [{ filename: 'r.pdf', contentType: 'application/pdf', content: Buffer.from('%PDF-1.4') }] });
     const mine = await admin.get('/api/outbox');
     const attachmentId = mine.body.items.find((m: { subject: string }) => m.subject === 'private report').attachments[0].id;
 

@@ -185,10 +185,16 @@ describe('POST /api/surveys/:id/report/send', () => {
     const mail = t.lastMail()!;
     expect(mail.to).toBe('board@fernmoor.test, estates@fernmoor.test');
     expect(mail.text).toContain('For Thursday\'s meeting');
-    const [att] = t.db.select().from(outboxAttachments).where(eq(outboxAttachments.messageId, mail.id)).all();
-    expect(att).toMatchObject({ contentType: 'application/pdf', filename: res.body.filename, size: res.body.size });
+    expect(res.body.messageId).toBe(mail.id);
     const admin = await t.signIn(DEMO.admin);
+    const queued = await admin.get('/api/outbox');
+    expect(queued.body.items[0]).toMatchObject({ status: 'queued', attempts: 0, attachments: [], pendingAttachments: [{ filename: res.body.filename }] });
+    await t.deliverMail();
+    const [att] = t.db.select().from(outboxAttachments).where(eq(outboxAttachments.messageId, mail.id)).all();
+    expect(att).toMatchObject({ contentType: 'application/pdf', filename: res.body.filename });
+    expect(att.content.subarray(0, 5).toString()).toBe('%PDF-');
     const outbox = await admin.get('/api/outbox');
+    expect(outbox.body.items[0]).toMatchObject({ status: 'sent', attempts: 1, pendingAttachments: [] });
     expect(outbox.body.items[0].attachments[0]).toMatchObject({ filename: res.body.filename });
     const audit = await admin.get(`/api/audit?surveyId=${surveyId}`);
     expect(audit.body.items[0]).toMatchObject({ action: 'report_sent' });

@@ -19,7 +19,7 @@ const ROLE_ACCOUNT: Record<Role, string> = {
 };
 
 let t: TestApp;
-beforeAll(async () => { t = await createTestApp({ signInLimits: { perAddress: 100_000, perAccount: 100_000 } }); });
+beforeAll(async () => { t = await createTestApp({ signInLimits: { perAddress: 100_000, perAccount: 100_000 }, resetLimits: { perAddress: 100_000, perAccount: 100_000 } }); });
 
 async function send(c: TestClient, method: string, ex: ExampleRequest) {
   const m = method.toLowerCase() as 'get' | 'post' | 'patch' | 'put' | 'delete';

@@ -52,6 +52,11 @@ describe('POST /api/surveys/:id/sign-off', () => {
     expect(mail.to).toContain(DEMO.surveyor);
     expect(mail.to).toContain(DEMO.facility_manager);
     expect(mail.text).toMatch(/1 zone\(s\) meets target, 1 falls short/);
+    // Queued with the sign-off; the runner builds the frozen report and delivers it.
+    expect(mail.status).toBe('queued');
+    expect(attachmentsOf(mail.id)).toEqual([]);
+    await t.deliverMail();
+    expect(t.lastMail()).toMatchObject({ id: mail.id, status: 'sent', attempts: 1, pendingAttachments: null });
     const [pdf] = attachmentsOf(mail.id);
     expect(pdf.contentType).toBe('application/pdf');
     expect(pdf.content.subarray(0, 5).toString()).toBe('%PDF-');

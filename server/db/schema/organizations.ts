@@ -46,9 +46,15 @@ export const sessions = sqliteTable('sessions', {
   sid: text('sid').primaryKey(),
   data: text('data').notNull(),
   expiresAt: integer('expires_at').notNull(),
-}, (t) => [index('sessions_expires_idx').on(t.expiresAt)]);
+  /** The signed-in account (null before sign-in), so its sessions can be ended together. */
+  userId: integer('user_id').references(() => users.id, { onDelete: 'cascade' }),
+}, (t) => [index('sessions_expires_idx').on(t.expiresAt), index('sessions_user_idx').on(t.userId)]);
 
-/** The local fake mail transport delivers here when no SMTP_URL is configured. */
+/**
+ * Every e-mail Luxtrail sends, written in the same transaction as the change that causes it and
+ * delivered afterwards by the job runner (server/mail/mailer.ts). Without SMTP_URL delivery only
+ * marks the row sent: the Outbox page is then where mail is read.
+ */
 export const outboxMessages = sqliteTable('outbox_messages', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   organizationId: integer('organization_id').references(() => organizations.id),
@@ -57,7 +63,17 @@ export const outboxMessages = sqliteTable('outbox_messages', {
   text: text('text').notNull(),
   html: text('html'),
   createdAt: integer('created_at').notNull(),
-});
+  status: text('status', { enum: ['queued', 'sent', 'failed'] }).notNull().default('sent'),
+  attempts: integer('attempts').notNull().default(0),
+  lastError: text('last_error'),
+  /** When the runner tries again after a failed attempt (null when not waiting). */
+  nextAttemptAt: integer('next_attempt_at'),
+  sentAt: integer('sent_at'),
+  /** Attachments built at delivery (e.g. a report PDF): [{kind, filename, params}], emptied once built. */
+  pendingAttachments: text('pending_attachments', { mode: 'json' }).$type<PendingAttachment[]>(),
+}, (t) => [index('outbox_org_idx').on(t.organizationId, t.id)]);
+
+export type PendingAttachment = { kind: string; filename: string; params: Record<string, unknown> };
 
 export const outboxAttachments = sqliteTable('outbox_attachments', {
   id: integer('id').primaryKey({ autoIncrement: true }),
@@ -94,3 +110,13 @@ export const storedFiles = sqliteTable('stored_files', {
   createdBy: integer('created_by').references(() => users.id),
   createdAt: integer('created_at').notNull(),
 }, (t) => [index('stored_files_hash_idx').on(t.organizationId, t.sha256)]);
+
+/**
+ * Fixed-window counters of the request limits (sign-in, forgot-password), kept here so a restart
+ * does not hand an attacker a fresh budget (server/http/rate-limit-store.ts).
+ */
+export const rateLimitHits = sqliteTable('rate_limit_hits', {
+  key: text('key').primaryKey(),
+  hits: integer('hits').notNull(),
+  resetAt: integer('reset_at').notNull(),
+}, (t) => [index('rate_limit_reset_idx').on(t.resetAt)]);

@@ -15,11 +15,11 @@ export const REMINDER_INTERVAL_MS = 7 * DAY_MS;
 const fmtDate = (ms: number) => new Date(ms).toISOString().slice(0, 10);
 
 /**
- * E-mails each organisation's active calibration users one message listing its probes that are
+ * Queues for each organisation's active calibration users one message listing its probes that are
  * due within 14 days or overdue, skipping probes reminded in the last 7 days (calibration_reminders).
  * Retired probes and probes without an approved set are not reminded.
  */
-export async function runCalibrationReminders(deps: Deps, onlyOrganizationId?: number): Promise<ReminderRunResponse> {
+export function runCalibrationReminders(deps: Deps, onlyOrganizationId?: number): ReminderRunResponse {
   const now = deps.clock.now();
   const orgs = deps.db.select().from(organizations).where(onlyOrganizationId ? eq(organizations.id, onlyOrganizationId) : undefined).all();
   const out: ReminderRunResponse = { messagesSent: 0, reminded: [], skippedRecentlyReminded: [] };
@@ -45,13 +45,14 @@ export async function runCalibrationReminders(deps: Deps, onlyOrganizationId?: n
         return `- ${probe.serial} (${probe.description || probe.kind}): ${when}; certificate ${current!.certificateNumber}, version ${current!.version}\n  ${absoluteUrl(deps.config.publicUrl, paths.probe.to(probe.id))}`;
       });
     const overdue = toSend.filter((d) => d.status.state === 'overdue').length;
-    await deps.mailer.send({
-      to: recipients,
-      organizationId: org.id,
-      subject: `Calibration reminder: ${toSend.length} probe(s) ${overdue ? `(${overdue} overdue) ` : ''}at ${org.name}`,
-      text: `Hello,\n\nThese probes of ${org.name} need calibration. Readings taken after a due date are flagged "calibration lapsed" in surveys.\n\n${lines.join('\n')}\n\nYou get at most one reminder per probe per week.\n`,
-    });
+    // The message and the record of what it reminded commit together: neither without the other.
     deps.db.transaction((tx) => {
+      deps.mailer.queue(tx, {
+        to: recipients,
+        organizationId: org.id,
+        subject: `Calibration reminder: ${toSend.length} probe(s) ${overdue ? `(${overdue} overdue) ` : ''}at ${org.name}`,
+        text: `Hello,\n\nThese probes of ${org.name} need calibration. Readings taken after a due date are flagged "calibration lapsed" in surveys.\n\n${lines.join('\n')}\n\nYou get at most one reminder per probe per week.\n`,
+      });
       for (const d of toSend) tx.insert(calibrationReminders).values({ probeId: d.probe.id, kind: d.status.state === 'overdue' ? 'overdue' : 'due_soon', sentAt: now }).run();
     });
     out.messagesSent++;

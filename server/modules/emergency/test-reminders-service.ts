@@ -15,12 +15,12 @@ const KIND_NAME = { functional: 'functional test', full_duration: 'full-duration
 export type TestReminderRun = { messagesSent: number; reminded: { siteId: number; kind: 'functional' | 'full_duration'; state: 'due_soon' | 'overdue'; dueOn: string }[] };
 
 /**
- * E-mails the facility managers who look after a site (all of the organisation's facility
+ * Queues an e-mail to the facility managers who look after a site (all of the organisation's facility
  * managers when one is not limited to sites) and its administrators when a site's emergency
  * lighting test is due within a week or overdue. Sites with no logbook entry are not reminded
  * (nothing says they have emergency lighting to test). Runs in the daily reminder job.
  */
-export async function runEmergencyTestReminders(deps: Deps, onlyOrganizationId?: number): Promise<TestReminderRun> {
+export function runEmergencyTestReminders(deps: Deps, onlyOrganizationId?: number): TestReminderRun {
   const now = deps.clock.now();
   const out: TestReminderRun = { messagesSent: 0, reminded: [] };
   const orgs = deps.db.select().from(organizations).where(onlyOrganizationId ? eq(organizations.id, onlyOrganizationId) : undefined).all();
@@ -44,13 +44,14 @@ export async function runEmergencyTestReminders(deps: Deps, onlyOrganizationId?:
       }).map((p) => p.email);
       if (recipients.length === 0) continue;
       const lines = toSend.map((d) => `- ${KIND_NAME[d.kind]}: ${d.state === 'overdue' ? `OVERDUE since ${d.dueOn} (${d.daysOverdue} days)` : `due ${d.dueOn}`}; last done ${d.lastTestedOn} (${d.lastResult === 'fail' ? 'failed' : 'passed'})`);
-      await deps.mailer.send({
-        to: recipients,
-        organizationId: org.id,
-        subject: `Emergency lighting test ${toSend.some((d) => d.state === 'overdue') ? 'overdue' : 'due'} at ${site.name}`,
-        text: `Hello,\n\nThe emergency lighting of ${site.name} (${org.name}) needs testing:\n\n${lines.join('\n')}\n\nRecord the test in the site's logbook: ${absoluteUrl(deps.config.publicUrl, paths.emergencyLogbook.to(site.id))}\n\nLuxtrail keeps the record; a competent person and the local codes decide what testing the installation needs.\nYou get at most one reminder per site and test a week.\n`,
-      });
+      // The message and the record of what it reminded commit together (the mail is queued, server/mail/mailer.ts).
       deps.db.transaction((tx) => {
+        deps.mailer.queue(tx, {
+          to: recipients,
+          organizationId: org.id,
+          subject: `Emergency lighting test ${toSend.some((d) => d.state === 'overdue') ? 'overdue' : 'due'} at ${site.name}`,
+          text: `Hello,\n\nThe emergency lighting of ${site.name} (${org.name}) needs testing:\n\n${lines.join('\n')}\n\nRecord the test in the site's logbook: ${absoluteUrl(deps.config.publicUrl, paths.emergencyLogbook.to(site.id))}\n\nLuxtrail keeps the record; a competent person and the local codes decide what testing the installation needs.\nYou get at most one reminder per site and test a week.\n`,
+        });
         for (const d of toSend) tx.insert(emergencyTestReminders).values({ siteId: site.id, kind: d.kind, state: d.state as 'due_soon' | 'overdue', sentAt: now }).run();
       });
       out.messagesSent++;

@@ -8,7 +8,8 @@ import { decodes, logImports, readings, surveys } from '../../db/schema/surveys'
 import { plannedPoints } from '../../db/schema/grids';
 import { loadDecodingCalibration } from '../probes/probe-calibration';
 import { recordAudit } from '../audit/audit-service';
-import type { ImportProblem, ImportWarning, WorkerToMain } from './log-parser';
+import type { WorkerToMain } from './log-parser';
+import { boundImportRecord, type ImportProblem, type ImportWarning } from './import-record';
 import { createBatchWriter } from './batch-writer.mjs';
 
 export type ImportJob = {
@@ -198,15 +199,16 @@ async function runImport(deps: Deps, job: ImportJob): Promise<ImportOutcome> {
   if (end.type === 'crash') {
     return failImport(deps, job, { decodeId, created }, [{ line: 0, column: '', value: '', message: `The import stopped unexpectedly: ${end.message}` }], [], 0);
   }
-  if (end.errorCount > 0) return failImport(deps, job, { decodeId, created }, end.errors, end.warnings, end.rowsRead, end.errorCount);
+  if (end.errorCount > 0) return failImport(deps, job, { decodeId, created }, end.errors, end.warnings, end.rowsRead, end.errorCount, end.warningCount);
 
   const now = deps.clock.now();
+  const { warnings } = boundImportRecord({ errors: [], warnings: end.warnings, warningCount: end.warningCount });
   deps.db.transaction((tx) => {
-    tx.update(logImports).set({ status: 'done', progress: 1, rowsRead: end.rowsRead, readingCount: end.readingCount, placement: end.placement, warnings: end.warnings, errors: [], finishedAt: now })
+    tx.update(logImports).set({ status: 'done', progress: 1, rowsRead: end.rowsRead, readingCount: end.readingCount, placement: end.placement, warnings, errors: [], finishedAt: now })
       .where(eq(logImports.id, job.importId)).run();
     recordAudit(tx, {
       organizationId: job.organizationId, actorId: job.actorId, entityType: 'log_import', entityId: job.importId, surveyId: job.surveyId, action: 'imported',
-      after: { rows: end.rowsRead, readings: end.readingCount, decodeId, placement: end.placement, warnings: end.warnings.length }, at: now,
+      after: { rows: end.rowsRead, readings: end.readingCount, decodeId, placement: end.placement, warnings: end.warningCount }, at: now,
     });
   });
   return { importId: job.importId, status: 'done', readings: end.readingCount, errors: [] };
@@ -222,11 +224,11 @@ async function deleteInSlices(deps: Deps, table: 'sample_blocks' | 'readings', w
  * Rejects an import: removes every sample and reading it wrote (and the decode it made, if
  * that decode holds nothing else), so the survey is exactly as before; keeps the errors.
  */
-export async function failImport(deps: Deps, job: ImportJob, decode: { decodeId: number; created: boolean } | null, errors: ImportProblem[], warnings: ImportWarning[], rowsRead: number, errorCount = errors.length): Promise<ImportOutcome> {
+export async function failImport(deps: Deps, job: ImportJob, decode: { decodeId: number; created: boolean } | null, errors: ImportProblem[], warnings: ImportWarning[], rowsRead: number, errorCount = errors.length, warningCount = warnings.length): Promise<ImportOutcome> {
   await deleteInSlices(deps, 'readings', 'import_id = ?', [job.importId]);
   await deleteInSlices(deps, 'sample_blocks', 'import_id = ?', [job.importId]);
-  const reported: (ImportProblem | { line: number; column: string; value: string; message: string })[] = [...errors];
-  if (errorCount > errors.length) reported.push({ line: 0, column: '', value: '', message: `${errorCount - errors.length} more problems were found and not listed` });
+  // At most 200 of each, cut, under 256 KB, with how many more there were (import-record.ts).
+  const record = boundImportRecord({ errors, errorCount, warnings, warningCount });
   deps.db.transaction((tx) => {
     if (decode?.created) {
       const left = tx.select({ n: sql<number>`count(*)` }).from(readings).where(eq(readings.decodeId, decode.decodeId)).get()!.n;
@@ -235,20 +237,23 @@ export async function failImport(deps: Deps, job: ImportJob, decode: { decodeId:
         tx.delete(decodes).where(eq(decodes.id, decode.decodeId)).run();
       }
     }
-    tx.update(logImports).set({ status: 'failed', progress: 1, rowsRead, readingCount: 0, warnings, errors: reported, finishedAt: deps.clock.now() })
+    tx.update(logImports).set({ status: 'failed', progress: 1, rowsRead, readingCount: 0, warnings: record.warnings, errors: record.errors, finishedAt: deps.clock.now() })
       .where(eq(logImports.id, job.importId)).run();
   });
   return { importId: job.importId, status: 'failed', readings: 0, errors };
 }
 
 /** At start-up: imports a previous process left queued or running cannot finish; reject them cleanly. */
-export async function failInterruptedImports(deps: Deps) {
+export async function failInterruptedImports(deps: Deps): Promise<number> {
   const stale = deps.db.select().from(logImports).where(inArray(logImports.status, ['queued', 'running'])).all();
+  let failed = 0;
   for (const imp of stale) {
     if (pendingOf(deps.db).has(imp.id)) continue;
     const survey = deps.db.select().from(surveys).where(eq(surveys.id, imp.surveyId)).get()!;
     const job: ImportJob = { importId: imp.id, surveyId: imp.surveyId, organizationId: survey.organizationId, actorId: imp.createdBy, filePath: '', fileSize: 0, timeZone: 'UTC', plans: [], defaultPlanId: null };
     const decode = survey.activeDecodeId === null ? null : { decodeId: survey.activeDecodeId, created: true };
     await failImport(deps, job, decode, [{ line: 0, column: '', value: '', message: 'The server restarted during this import; upload the file again' }], [], imp.rowsRead);
+    failed++;
   }
+  return failed;
 }

@@ -4,14 +4,11 @@ import { idParamsSchema } from '@shared/schemas/common';
 import { importStatusSchema, uploadLogResponseSchema } from '@shared/schemas/imports';
 import { singleFileUpload } from '../../http/upload';
 import { getImport, uploadLog } from './imports-service';
-import { failInterruptedImports } from './import-runner';
 import { redecodeSurvey } from './redecode-service';
 import { decodeChangesSchema, redecodeResponseSchema } from '@shared/schemas/readings';
 import { decodeChanges } from './decode-changes';
 
 export function registerImportRoutes(api: Api, deps: Deps) {
-  void failInterruptedImports(deps);
-
   api.route({
     method: 'post', path: '/surveys/:id/logs', access: 'surveys.upload', tag: 'imports', status: 202,
     summary: 'Upload a survey log (CSV, multipart field "file"; optional "planId": the plan for rows whose plan column is empty); answers at once with the import to poll',

@@ -2,21 +2,20 @@ import fs from 'node:fs';
 import Papa from 'papaparse';
 import { READING_PLANES, type ReadingPlane } from '../../../shared/core/planes';
 import type { DecodingCalibration } from '../probes/probe-calibration';
-import { createLogDecoder, type DecodedReading, type LogSample, type SampleProblem } from './log-decoder';
+import { createLogDecoder, type DecodedReading, type LogSample } from './log-decoder';
 import { createTimestampParser } from './log-time';
 import { createBatchBuilder, type Batch } from './batch-format.mjs';
+import { createProblemCollector, type ImportProblem, type ImportWarning } from './import-record';
 
 /** The log format's columns (README, "Survey logs and the log format"). */
 export const LOG_COLUMNS = ['timestamp', 'probe', 'point', 'gain', 'counts', 'ma', 'volts', 'x_m', 'y_m', 'plan', 'int_ms', 'temp_c', 'role', 'note', 'plane', 'azimuth_deg'] as const;
 export const REQUIRED_COLUMNS = ['timestamp', 'probe', 'point'] as const;
 type Column = (typeof LOG_COLUMNS)[number];
 
-export const MAX_REPORTED_ERRORS = 200;
 export const MAX_POINT_LENGTH = 120;
 export const MAX_NOTE_LENGTH = 1000;
 
-export type ImportProblem = SampleProblem;
-export type ImportWarning = { line: number | null; column: string | null; message: string };
+export type { ImportProblem, ImportWarning };
 /** How the import's readings got their place: the row's own x_m, y_m; a planned point named by the row's point label; none. */
 export type PlacementSummary = { byCoordinates: number; byLabel: number; none: number };
 /** A planned point of the survey, for the label join (label compared trimmed and case-insensitively). */
@@ -30,7 +29,7 @@ const MAX_UNKNOWN_LABELS = 50;
 export type WorkerToMain =
   | { type: 'batch'; batch: Batch }
   | { type: 'progress'; bytesRead: number; rowsRead: number }
-  | { type: 'end'; rowsRead: number; readingCount: number; placement: PlacementSummary; warnings: ImportWarning[]; errors: ImportProblem[]; errorCount: number }
+  | { type: 'end'; rowsRead: number; readingCount: number; placement: PlacementSummary; warnings: ImportWarning[]; warningCount: number; errors: ImportProblem[]; errorCount: number }
   | { type: 'crash'; message: string };
 
 export type ParseLogInput = {
@@ -117,12 +116,11 @@ function firstLine(filePath: string): string {
 /**
  * Streams one log file through papaparse, validates each row, decodes with the measurement
  * core and posts accepted rows in batches. After the first error no batch is posted (the
- * file will be rejected), but reading goes on to report up to MAX_REPORTED_ERRORS problems.
+ * file will be rejected), but reading goes on to report up to 200 problems.
  */
 export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Promise<void> {
-  const warnings: ImportWarning[] = [];
-  const errors: ImportProblem[] = [];
-  let errorCount = 0;
+  // At most 200 of each kind kept, each cut to the record's lengths (import-record.ts).
+  const problems = createProblemCollector();
   let rowsRead = 0;
   let readingCount = 0;
   const placement: PlacementSummary = { byCoordinates: 0, byLabel: 0, none: 0 };
@@ -132,21 +130,18 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
   const placedByLabel = new Set<string>();
   /** Unknown labels of rows without coordinates → their lines (only when the survey has planned points). */
   const unknownLabels = new Map<string, { label: string; lines: number[]; count: number }>();
-  const addError = (p: ImportProblem) => {
-    errorCount++;
-    if (errors.length < MAX_REPORTED_ERRORS) errors.push(p);
-  };
+  const addError = problems.error;
   const end = () => {
     let named = 0;
     for (const u of unknownLabels.values()) {
       if (named++ >= MAX_UNKNOWN_LABELS) {
-        warnings.push({ line: null, column: 'point', message: `${unknownLabels.size - MAX_UNKNOWN_LABELS} more point label(s) match no planned point either` });
+        problems.warning({ line: null, column: 'point', message: `${unknownLabels.size - MAX_UNKNOWN_LABELS} more point label(s) match no planned point either` });
         break;
       }
       const more = u.count > u.lines.length ? ` and ${u.count - u.lines.length} more` : '';
-      warnings.push({ line: u.lines[0], column: 'point', message: `Point "${u.label}" has no x_m, y_m and matches no planned point of this survey (line${u.count > 1 ? 's' : ''} ${u.lines.join(', ')}${more}): its readings are kept without a position` });
+      problems.warning({ line: u.lines[0], column: 'point', message: `Point "${u.label}" has no x_m, y_m and matches no planned point of this survey (line${u.count > 1 ? 's' : ''} ${u.lines.join(', ')}${more}): its readings are kept without a position` });
     }
-    sink.post({ type: 'end', rowsRead, readingCount, placement, warnings, errors, errorCount });
+    sink.post({ type: 'end', rowsRead, readingCount, placement, warnings: problems.warnings, warningCount: problems.warningCount, errors: problems.errors, errorCount: problems.errorCount });
   };
 
   const size = fs.statSync(input.filePath).size;
@@ -166,7 +161,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     if (r.xM === null) placement.none++;
     else if (placedByLabel.size > 0 && placedByLabel.has(r.point.toLowerCase()) && planned.get(r.point.toLowerCase())?.xM === r.xM && planned.get(r.point.toLowerCase())?.yM === r.yM) placement.byLabel++;
     else placement.byCoordinates++;
-    if (errorCount > 0) return;
+    if (problems.errorCount > 0) return;
     batch.addReading(r);
   }, addError);
 
@@ -210,7 +205,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
       if (seen.has(name)) addError({ line: 1, column: name, value: raw, message: `Column "${name}" appears twice in the header` });
       seen.add(name);
       if ((LOG_COLUMNS as readonly string[]).includes(name)) col[name as Column] = i;
-      else warnings.push({ line: 1, column: name, message: `Unknown column "${raw.trim()}" was kept in the file but not imported` });
+      else problems.warning({ line: 1, column: name, message: `Unknown column "${raw.trim()}" was kept in the file but not imported` });
     });
     for (const c of REQUIRED_COLUMNS) {
       if (col[c] < 0) addError({ line: 1, column: c, value: '', message: `The header has no "${c}" column (required: ${REQUIRED_COLUMNS.join(', ')}); found: ${row.map((r) => r.trim()).join(', ')}` });
@@ -220,7 +215,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
       addError({ line: 1, column: missing, value: '', message: `The header has ${missing === 'x_m' ? 'y_m' : 'x_m'} but no ${missing}: give both plan coordinates or neither` });
     }
     at = { ...col };
-    return errorCount === 0;
+    return problems.errorCount === 0;
   }
 
   function readRow(row: string[], line: number) {
@@ -231,7 +226,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     if (row.length < headerWidth) {
       return addError({ line, column: '', value: row.join(delimiter), message: `The row has ${row.length} fields but the header has ${headerWidth}` });
     }
-    const before = errorCount;
+    const before = problems.errorCount;
     const ts = text(row, at.timestamp);
     const probe = text(row, at.probe);
     const point = text(row, at.point);
@@ -276,7 +271,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     } else if ((plane === 'horizontal' || plane === 'ceiling') && azimuthDeg !== undefined && azimuthDeg !== null) {
       addError({ line, column: 'azimuth_deg', value: text(row, at.azimuth_deg), message: `azimuth_deg applies to vertical and wall readings, not to a ${plane} one` });
     }
-    if (errorCount > before) return;
+    if (problems.errorCount > before) return;
     // Precedence: the row's own coordinates, then a planned point its label names, then none.
     let placedX = xM ?? null;
     let placedY = yM ?? null;
@@ -307,15 +302,15 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     const cal = input.calibration.get(probe);
     if (cal && cal.status !== 'in_service' && !warnedProbes.has(probe)) {
       warnedProbes.add(probe);
-      warnings.push({ line, column: 'probe', message: `Probe ${probe} is marked ${cal.status.replace(/_/g, ' ')}; its samples were decoded all the same` });
+      problems.warning({ line, column: 'probe', message: `Probe ${probe} is marked ${cal.status.replace(/_/g, ' ')}; its samples were decoded all the same` });
     }
     decoder.push(sample);
-    if (errorCount > before || errorCount > 0) return;
+    if (problems.errorCount > before || problems.errorCount > 0) return;
     batch.addSample(sample, cal!.probeId);
   }
 
   const flush = () => {
-    if (errorCount > 0) return batch.clear();
+    if (problems.errorCount > 0) return batch.clear();
     if (batch.sampleRows === 0 && batch.readingRows === 0) return;
     sink.post({ type: 'batch', batch: batch.take() });
   };
@@ -348,7 +343,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
         for (const e of results.errors) {
           if (e.type === 'Quotes') addError({ line: nextLine, column: '', value: '', message: `A quoted field is not closed (${e.message})` });
         }
-        if (batch.sampleRows >= batchRows || errorCount > 0) flush();
+        if (batch.sampleRows >= batchRows || problems.errorCount > 0) flush();
         sink.post({ type: 'progress', bytesRead: stream.bytesRead, rowsRead });
         // Hold both the parser and the file stream until the writer has caught up.
         parser.pause();
@@ -363,10 +358,10 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     });
   });
   stream.destroy();
-  if (headerDone && errorCount === 0 && rowsRead === 0) {
+  if (headerDone && problems.errorCount === 0 && rowsRead === 0) {
     addError({ line: 2, column: '', value: '', message: 'The file has a header but no samples' });
   }
-  if (errorCount === 0) {
+  if (problems.errorCount === 0) {
     decoder.finish();
     flush();
   }

@@ -4,7 +4,7 @@ import type { Api } from '../../http/api';
 import type { Deps } from '../../deps';
 import { idParamsSchema } from '@shared/schemas/common';
 import { sendReportBodySchema, sendReportResponseSchema } from '@shared/schemas/reports';
-import { readingsCsv, reportPdfFor, sendReport, zonesCsv, type FileAnswer } from './reports-service';
+import { readingsCsv, registerReportAttachment, reportPdfFor, sendReport, zonesCsv, type FileAnswer } from './reports-service';
 
 const reportQuerySchema = z.object({ unit: z.enum(['lx', 'fc']).default('lx') });
 
@@ -17,6 +17,8 @@ export function sendFile(res: Response, file: FileAnswer) {
 }
 
 export function registerReportRoutes(api: Api, deps: Deps) {
+  registerReportAttachment(deps);
+
   api.route({ method: 'get', path: '/surveys/:id/report.pdf', access: 'surveys.read', tag: 'reports', summary: 'The survey report as PDF (unit=lx|fc)', params: idParamsSchema, query: reportQuerySchema, produces: 'application/pdf' },
     async ({ user, params, query, res }) => { sendFile(res, await reportPdfFor(deps, user, params.id, query.unit)); });
 
@@ -26,6 +28,6 @@ export function registerReportRoutes(api: Api, deps: Deps) {
   api.route({ method: 'get', path: '/surveys/:id/compliance/readings.csv', access: 'surveys.read', tag: 'reports', summary: 'The readings the verdicts used, with their zones, as CSV (unit=lx|fc)', params: idParamsSchema, query: reportQuerySchema, produces: 'text/csv' },
     ({ user, params, query, res }) => { sendFile(res, readingsCsv(deps.db, user, params.id, query.unit)); });
 
-  api.route({ method: 'post', path: '/surveys/:id/report/send', access: 'reports.send', tag: 'reports', summary: 'E-mail the PDF report to chosen recipients', params: idParamsSchema, body: sendReportBodySchema, status: 202, response: sendReportResponseSchema },
+  api.route({ method: 'post', path: '/surveys/:id/report/send', access: 'reports.send', tag: 'reports', summary: 'E-mail the PDF report to chosen recipients (queued: the PDF is built and sent in the background)', params: idParamsSchema, body: sendReportBodySchema, status: 202, response: sendReportResponseSchema },
     ({ user, params, body }) => sendReport(deps, user, params.id, body));
 }

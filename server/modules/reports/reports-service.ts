@@ -10,7 +10,7 @@ import { VERDICT_LABELS } from '@shared/schemas/compliance';
 import { labelOfUseType } from '@shared/schemas/zones';
 import type { SessionUser } from '@shared/schemas/auth';
 import type { SendReportBody, SendReportResponse } from '@shared/schemas/reports';
-import { currentReadingConditions, getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
+import { currentReadingConditions, findSurveyInOrganization, getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
 import { exportColumns } from '../readings/readings-service';
 import { recordAudit } from '../audit/audit-service';
 import { frozenOf, surveyVerdicts, complianceOf } from '../compliance/compliance-service';
@@ -80,22 +80,44 @@ export function readingsCsv(db: Db, user: SessionUser, surveyId: number, unit: E
   return { filename: reportFilename(survey, 'csv', `readings-${unit}`), contentType: 'text/csv; charset=utf-8', content: Buffer.from(toSafeCsv(readingColumns(unit, true), data), 'utf8') };
 }
 
-/** E-mails the PDF report to the chosen recipients through the mailer (the local outbox by default). */
-export async function sendReport(deps: Deps, user: SessionUser, surveyId: number, body: SendReportBody): Promise<SendReportResponse> {
+/** The attachment kind a queued message names to have the report PDF built at delivery. */
+export const REPORT_ATTACHMENT = 'survey_report';
+
+/** A pending attachment: the survey's report PDF, built when the message is delivered. */
+export function reportAttachment(survey: Pick<SurveyRow, 'id' | 'name' | 'organizationId'>, unit: ReportUnit = 'lx') {
+  return { kind: REPORT_ATTACHMENT, filename: reportFilename(survey, 'pdf'), params: { surveyId: survey.id, organizationId: survey.organizationId, unit } };
+}
+
+/** Builds a queued message's report PDF from the survey as it is then (the frozen record once signed off). */
+export function registerReportAttachment(deps: Deps) {
+  deps.mailer.attachmentBuilder(REPORT_ATTACHMENT, async (params) => {
+    const { surveyId, organizationId, unit } = params as { surveyId: number; organizationId: number; unit: ReportUnit };
+    const survey = findSurveyInOrganization(deps.db, organizationId, surveyId);
+    if (!survey) throw new Error(`Survey ${surveyId} no longer exists; its report cannot be attached`);
+    return surveyReportPdf(deps, survey, unit);
+  });
+}
+
+/**
+ * Queues the report for the chosen recipients with the audit entry, in one transaction; the PDF is
+ * built when the message is delivered, so the request does not wait for it (or for the mail server).
+ */
+export function sendReport(deps: Deps, user: SessionUser, surveyId: number, body: SendReportBody): SendReportResponse {
   const survey = getSurveyRow(deps.db, user, surveyId);
-  const pdf = await surveyReportPdf(deps, survey);
   const recipients = [...new Set(body.recipients)];
   const status = survey.status === 'signed_off' ? 'signed off' : `${survey.status.replace('_', ' ')} (not yet signed off: verdicts are provisional)`;
-  await deps.mailer.send({
-    to: recipients,
-    organizationId: user.organizationId,
-    subject: `Lighting survey report: ${survey.site.name}, ${survey.name}`,
-    text: `${user.name} (${user.organizationName}) sent you the Luxtrail report for "${survey.name}" at ${survey.site.name}, ${status}.\n`
-      + `${body.message ? `\nTheir message:\n${body.message}\n` : ''}\nThe report is attached as a PDF. It supports decisions about lighting; it does not certify emergency lighting, and local codes and qualified lighting professionals take precedence.\n`,
-    attachments: [pdf],
+  const attachment = reportAttachment(survey);
+  const messageId = deps.db.transaction((tx) => {
+    const id = deps.mailer.queue(tx, {
+      to: recipients,
+      organizationId: user.organizationId,
+      subject: `Lighting survey report: ${survey.site.name}, ${survey.name}`,
+      text: `${user.name} (${user.organizationName}) sent you the Luxtrail report for "${survey.name}" at ${survey.site.name}, ${status}.\n`
+        + `${body.message ? `\nTheir message:\n${body.message}\n` : ''}\nThe report is attached as a PDF. It supports decisions about lighting; it does not certify emergency lighting, and local codes and qualified lighting professionals take precedence.\n`,
+      pendingAttachments: [attachment],
+    });
+    recordAudit(tx, { organizationId: user.organizationId, actorId: user.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'report_sent', after: { recipients, filename: attachment.filename, messageId: id }, at: deps.clock.now() });
+    return id;
   });
-  deps.db.transaction((tx) => {
-    recordAudit(tx, { organizationId: user.organizationId, actorId: user.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'report_sent', after: { recipients, filename: pdf.filename, size: pdf.content.length }, at: deps.clock.now() });
-  });
-  return { sentTo: recipients, filename: pdf.filename, size: pdf.content.length };
+  return { sentTo: recipients, filename: attachment.filename, messageId };
 }

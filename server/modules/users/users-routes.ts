@@ -12,7 +12,7 @@ export function registerUserRoutes(api: Api, deps: Deps) {
     ({ user, body }) => inviteUser(deps, user, body));
 
   api.route({ method: 'post', path: '/users/:id/invitation', access: 'users.manage', tag: 'users', summary: 'Send a fresh invitation link', params: idParamsSchema, status: 202, response: invitationSentSchema },
-    async ({ user, params }) => { await sendInvitation(deps, user, params.id); return { ok: true }; });
+    ({ user, params }) => { sendInvitation(deps, user, params.id); return { ok: true as const }; });
 
   api.route({ method: 'patch', path: '/users/:id', access: 'users.manage', tag: 'users', summary: 'Change a user\'s name, role, status or sites', params: idParamsSchema, body: updateUserBodySchema, response: userSchema },
     ({ user, params, body }) => updateUser(deps, user, params.id, body));

@@ -8,6 +8,7 @@ import type { SessionUser } from '@shared/schemas/auth';
 import { badRequest, conflict, notFound } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
 import { issueToken } from '../auth/auth-service';
+import { endSessionsOf } from '../../http/session-store';
 
 export function listUsers(db: Deps['db'], organizationId: number): User[] {
   const rows = db.select().from(users).where(eq(users.organizationId, organizationId)).orderBy(users.name).all();
@@ -26,8 +27,8 @@ function assertSitesInOrganization(db: Deps['db'], organizationId: number, siteI
   if (missing.length) throw badRequest(`Unknown site ${missing.join(', ')} for this organisation`, { siteIds: missing });
 }
 
-/** Creates an invited user and e-mails a single-use link to set a password. */
-export async function inviteUser(deps: Deps, actor: SessionUser, body: InviteBody): Promise<User> {
+/** Creates an invited user and queues a single-use link to set a password, in one transaction. */
+export function inviteUser(deps: Deps, actor: SessionUser, body: InviteBody): User {
   const existing = deps.db.select({ id: users.id }).from(users).where(eq(users.email, body.email)).get();
   if (existing) throw conflict(`${body.email} already has a Luxtrail account`);
   const siteIds = body.role === 'facility_manager' ? (body.siteIds ?? []) : [];
@@ -37,18 +38,23 @@ export async function inviteUser(deps: Deps, actor: SessionUser, body: InviteBod
     const row = tx.insert(users).values({ organizationId: actor.organizationId, email: body.email, name: body.name, role: body.role, status: 'invited', createdAt: now }).returning({ id: users.id }).get();
     for (const siteId of siteIds) tx.insert(userSites).values({ userId: row.id, siteId }).run();
     recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'user', entityId: row.id, action: 'invited', after: { email: body.email, role: body.role, siteIds }, at: now });
+    queueInvitation(tx, deps, actor, { id: row.id, email: body.email, name: body.name, role: body.role });
     return row.id;
   });
-  await sendInvitation(deps, actor, id);
   return listUsers(deps.db, actor.organizationId).find((u) => u.id === id)!;
 }
 
-export async function sendInvitation(deps: Deps, actor: SessionUser, userId: number) {
+/** Sends an invited user a fresh link (the earlier one stops working). */
+export function sendInvitation(deps: Deps, actor: SessionUser, userId: number): void {
   const user = deps.db.select().from(users).where(and(eq(users.id, userId), eq(users.organizationId, actor.organizationId))).get();
   if (!user) throw notFound('User');
   if (user.status !== 'invited') throw conflict('This user has already accepted their invitation');
-  const link = issueToken(deps, user.id, 'invite');
-  await deps.mailer.send({
+  deps.db.transaction((tx) => queueInvitation(tx, deps, actor, user));
+}
+
+function queueInvitation(tx: Parameters<Parameters<Deps['db']['transaction']>[0]>[0], deps: Deps, actor: SessionUser, user: Pick<typeof users.$inferSelect, 'id' | 'email' | 'name' | 'role'>) {
+  const link = issueToken(tx, deps, user.id, 'invite');
+  deps.mailer.queue(tx, {
     to: user.email,
     organizationId: actor.organizationId,
     subject: `${actor.name} invited you to Luxtrail`,
@@ -70,6 +76,8 @@ export function updateUser(deps: Deps, actor: SessionUser, userId: number, body:
       tx.delete(userSites).where(eq(userSites.userId, userId)).run();
       for (const siteId of body.siteIds) tx.insert(userSites).values({ userId, siteId }).run();
     }
+    // Disabled, or given another role: signed out everywhere, so no open page keeps the old access.
+    if (body.status === 'disabled' || (body.role && body.role !== before.role)) endSessionsOf(tx, userId);
     recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'user', entityId: userId, action: 'updated', before, after: body, at: deps.clock.now() });
   });
   return listUsers(deps.db, actor.organizationId).find((u) => u.id === userId)!;

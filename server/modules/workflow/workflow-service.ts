@@ -11,7 +11,7 @@ import { recordAudit } from '../audit/audit-service';
 import { assertSurveyAbility, getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
 import { WORKED_ON_STATUSES } from '@shared/survey-abilities';
 import { buildFrozen, countVerdicts } from '../compliance/compliance-service';
-import { surveyReportPdf } from '../reports/reports-service';
+import { reportAttachment } from '../reports/reports-service';
 import { absoluteUrl, paths } from '@shared/paths';
 
 function userById(db: Db, id: number | null) {
@@ -45,40 +45,42 @@ function surveyorOf(db: Db, survey: SurveyRow) {
   return userById(db, survey.submittedBy ?? survey.createdBy);
 }
 
-export async function submitSurvey(deps: Deps, actor: SessionUser, surveyId: number, body: SubmitSurveyBody): Promise<WorkflowState> {
+export function submitSurvey(deps: Deps, actor: SessionUser, surveyId: number, body: SubmitSurveyBody): WorkflowState {
   const survey = getSurveyRow(deps.db, actor, surveyId);
   assertSurveyAbility(actor, survey, 'submit');
   if (survey.activeDecodeId === null) throw conflict(`Survey "${survey.name}" has no decoded readings yet: upload a log before submitting`);
   const now = deps.clock.now();
+  const reviewers = reviewersOf(deps.db, actor.organizationId, survey.siteId);
   deps.db.transaction((tx) => {
     const changed = tx.update(surveys).set({ status: 'submitted', submittedBy: actor.id, submittedAt: now, reviewComment: null })
       .where(and(eq(surveys.id, survey.id), inArray(surveys.status, [...WORKED_ON_STATUSES]))).run();
     if (changed.changes !== 1) throw conflict('Someone changed this survey at the same moment; reload it and try again');
     recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'submitted', before: { status: survey.status }, after: { status: 'submitted', note: body.note ?? null }, at: now });
+    if (reviewers.length) {
+      deps.mailer.queue(tx, {
+        to: reviewers.map((r) => r.email), organizationId: actor.organizationId,
+        subject: `Survey submitted for review: ${survey.site.name}, ${survey.name}`,
+        text: `${actor.name} submitted "${survey.name}" at ${survey.site.name} for review.\n${body.note ? `\nTheir note:\n${body.note}\n` : ''}\nOpen it in Luxtrail to sign it off or return it with a comment.\n${absoluteUrl(deps.config.publicUrl, paths.surveyCompliance.to(survey.id))}\n`,
+      });
+    }
   });
-  const reviewers = reviewersOf(deps.db, actor.organizationId, survey.siteId);
-  if (reviewers.length) {
-    await deps.mailer.send({
-      to: reviewers.map((r) => r.email), organizationId: actor.organizationId,
-      subject: `Survey submitted for review: ${survey.site.name}, ${survey.name}`,
-      text: `${actor.name} submitted "${survey.name}" at ${survey.site.name} for review.\n${body.note ? `\nTheir note:\n${body.note}\n` : ''}\nOpen it in Luxtrail to sign it off or return it with a comment.\n${absoluteUrl(deps.config.publicUrl, paths.surveyCompliance.to(survey.id))}\n`,
-    });
-  }
   return state(deps.db, survey.id, reviewers.map((r) => r.email));
 }
 
 /**
  * Signs a submitted survey off: freezes its verdicts, targets, coefficient sets and decision rule
- * into surveys.frozen, records it, and e-mails the surveyor (and the signer) the PDF report.
+ * into surveys.frozen, records it, and queues the mail to the surveyor (and the signer) in the same
+ * transaction. The PDF is built from the frozen record when the mail is delivered, so it shows
+ * exactly what was signed off and the request waits for neither the PDF nor the mail server.
  */
-export async function signOffSurvey(deps: Deps, actor: SessionUser, surveyId: number, body: SignOffBody): Promise<WorkflowState> {
+export function signOffSurvey(deps: Deps, actor: SessionUser, surveyId: number, body: SignOffBody): WorkflowState {
   const survey = getSurveyRow(deps.db, actor, surveyId);
   assertSurveyAbility(actor, survey, 'signOff');
   const now = deps.clock.now();
   const frozen = buildFrozen(deps.db, actor.organizationId, survey, now);
-  const signed: SurveyRow = { ...survey, status: 'signed_off', signedOffBy: actor.id, signedOffAt: now, reviewComment: body.comment ?? null, frozen };
-  // Render before committing, so the attached report is exactly what was frozen.
-  const pdf = await surveyReportPdf(deps, signed);
+  const surveyor = surveyorOf(deps.db, survey);
+  const to = [...new Set([surveyor?.email, actor.email].filter((e): e is string => !!e))];
+  const counts = countVerdicts(frozen.zones);
   deps.db.transaction((tx) => {
     const changed = tx.update(surveys).set({ status: 'signed_off', signedOffBy: actor.id, signedOffAt: now, reviewComment: body.comment ?? null, frozen })
       .where(and(eq(surveys.id, survey.id), eq(surveys.status, 'submitted'))).run();
@@ -86,41 +88,38 @@ export async function signOffSurvey(deps: Deps, actor: SessionUser, surveyId: nu
     recordAudit(tx, {
       organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'signed_off',
       before: { status: survey.status },
-      after: { status: 'signed_off', comment: body.comment ?? null, rule: frozen.rule, counts: countVerdicts(frozen.zones), decodeId: frozen.decodeId, targetIds: frozen.targets.map((t) => t.id), coefficientSetIds: frozen.coefficientSets.map((s) => s.id) },
+      after: { status: 'signed_off', comment: body.comment ?? null, rule: frozen.rule, counts, decodeId: frozen.decodeId, targetIds: frozen.targets.map((t) => t.id), coefficientSetIds: frozen.coefficientSets.map((s) => s.id) },
       at: now,
     });
-  });
-  const surveyor = surveyorOf(deps.db, survey);
-  const to = [...new Set([surveyor?.email, actor.email].filter((e): e is string => !!e))];
-  const counts = countVerdicts(frozen.zones);
-  await deps.mailer.send({
-    to, organizationId: actor.organizationId,
-    subject: `Survey signed off: ${survey.site.name}, ${survey.name}`,
-    text: `${actor.name} signed off "${survey.name}" at ${survey.site.name}.\n${body.comment ? `\nComment:\n${body.comment}\n` : ''}\n`
-      + `${counts.meets} zone(s) ${VERDICT_LABELS.meets.toLowerCase()}, ${counts.falls_short} ${VERDICT_LABELS.falls_short.toLowerCase()}, ${counts.inconclusive} inconclusive, ${counts.not_assessed} not assessed (decision rule: ${frozen.rule}).\n`
-      + '\nThe signed-off report is attached. The survey is now read-only.\n',
-    attachments: [pdf],
+    deps.mailer.queue(tx, {
+      to, organizationId: actor.organizationId,
+      subject: `Survey signed off: ${survey.site.name}, ${survey.name}`,
+      text: `${actor.name} signed off "${survey.name}" at ${survey.site.name}.\n${body.comment ? `\nComment:\n${body.comment}\n` : ''}\n`
+        + `${counts.meets} zone(s) ${VERDICT_LABELS.meets.toLowerCase()}, ${counts.falls_short} ${VERDICT_LABELS.falls_short.toLowerCase()}, ${counts.inconclusive} inconclusive, ${counts.not_assessed} not assessed (decision rule: ${frozen.rule}).\n`
+        + '\nThe signed-off report is attached. The survey is now read-only.\n',
+      pendingAttachments: [reportAttachment(survey)],
+    });
   });
   return state(deps.db, survey.id, to);
 }
 
 /** Returns a submitted survey to the surveyor with a comment saying what to change. */
-export async function returnSurvey(deps: Deps, actor: SessionUser, surveyId: number, body: ReturnSurveyBody): Promise<WorkflowState> {
+export function returnSurvey(deps: Deps, actor: SessionUser, surveyId: number, body: ReturnSurveyBody): WorkflowState {
   const survey = getSurveyRow(deps.db, actor, surveyId);
   assertSurveyAbility(actor, survey, 'return');
   const now = deps.clock.now();
+  const surveyor = surveyorOf(deps.db, survey);
   deps.db.transaction((tx) => {
     const changed = tx.update(surveys).set({ status: 'returned', reviewComment: body.comment }).where(and(eq(surveys.id, survey.id), eq(surveys.status, 'submitted'))).run();
     if (changed.changes !== 1) throw conflict('Someone changed this survey at the same moment; reload it and try again');
     recordAudit(tx, { organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'returned', before: { status: survey.status }, after: { status: 'returned', comment: body.comment }, at: now });
+    if (surveyor) {
+      deps.mailer.queue(tx, {
+        to: surveyor.email, organizationId: actor.organizationId,
+        subject: `Survey returned for changes: ${survey.site.name}, ${survey.name}`,
+        text: `${actor.name} returned "${survey.name}" at ${survey.site.name} for changes.\n\nComment:\n${body.comment}\n\nYou can add logs and submit it again.\n${absoluteUrl(deps.config.publicUrl, paths.surveyCompliance.to(survey.id))}\n`,
+      });
+    }
   });
-  const surveyor = surveyorOf(deps.db, survey);
-  if (surveyor) {
-    await deps.mailer.send({
-      to: surveyor.email, organizationId: actor.organizationId,
-      subject: `Survey returned for changes: ${survey.site.name}, ${survey.name}`,
-      text: `${actor.name} returned "${survey.name}" at ${survey.site.name} for changes.\n\nComment:\n${body.comment}\n\nYou can add logs and submit it again.\n${absoluteUrl(deps.config.publicUrl, paths.surveyCompliance.to(survey.id))}\n`,
-    });
-  }
   return state(deps.db, survey.id, surveyor ? [surveyor.email] : []);
 }

@@ -42,7 +42,7 @@ export const foundationExamples: RouteExamples = {
   },
   'GET /outbox': () => ({ path: '/api/outbox' }),
   'GET /outbox/attachments/:id': async (t) => {
-    await t.deps.mailer.send({ to: 'x@luxtrail.test', subject: 'with attachment', text: 'see attached', organizationId: 1, attachments: [{ filename: 'a.txt', contentType: 'text/plain', content: Buffer.from('hello') }] });
+    t.deps.mailer.send({ to: 'x@luxtrail.test', subject: 'with attachment', text: 'see attached', organizationId: 1, attachments: [{ filename: 'a.txt', contentType: 'text/plain', content: Buffer.from('hello') }] });
     const admin = await t.signIn(DEMO.admin);
     const list = await admin.get('/api/outbox');
     return { path: `/api/outbox/attachments/${list.body.items[0].attachments[0].id}` };

@@ -31,7 +31,7 @@ export function SendReportForm({ surveyId }: { surveyId: number }) {
       <TextField label="Recipients" placeholder="estates@example.test, board@example.test" value={recipients} onChange={(e) => setRecipients(e.target.value)} error={problem ?? undefined} />
       <TextAreaField label="Message (optional)" rows={2} value={message} onChange={(e) => setMessage(e.target.value)} />
       <FormError error={send.error} />
-      {send.isSuccess && <p role="status" className="text-sm text-meets-700">Sent {send.data.filename} to {send.data.sentTo.join(', ')}.</p>}
+      {send.isSuccess && <p role="status" className="text-sm text-meets-700">Queued {send.data.filename} for {send.data.sentTo.join(', ')}: the report is built and sent in the background.</p>}
       <Button type="submit" variant="secondary" busy={send.isPending}><Mail className="h-4 w-4" aria-hidden />Send report</Button>
     </form>
   );
