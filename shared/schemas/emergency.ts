@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { multiLineText, singleLineText } from './text';
 import {
   EMERGENCY_ELEMENT_KINDS, EMERGENCY_PASSES, EMERGENCY_POINT_ROLES, EMERGENCY_SCOPES,
   type EmergencyCheck, type EmergencyCriteriaSet,
@@ -28,7 +29,7 @@ export const SYSTEM_TYPE_LABELS: Record<(typeof SYSTEM_TYPES)[number], string> =
 
 const planPoint = z.tuple([z.number().finite(), z.number().finite()]);
 const code = z.string().trim().min(1, 'Give the element a short code such as R1').max(12).regex(/^[A-Za-z0-9_.]+$/, 'Use letters, digits, dot or underscore in a code (it starts each point label)');
-const name = z.string().trim().min(1, 'Enter a name').max(120);
+const name = singleLineText(z.string().trim().min(1, 'Enter a name').max(120));
 const spacing = z.number().min(0.2, 'Spacing at least 0.2 m').max(20, 'Spacing at most 20 m');
 
 export const emergencyElementBodySchema = z.discriminatedUnion('kind', [
@@ -83,10 +84,10 @@ export const emergencyElementListSchema = z.object({ items: z.array(emergencyEle
 
 const limitSchema = z.object({ value: z.number().positive(), unit: z.enum(['lx', 'fc']) });
 const checkBase = {
-  id: z.string().trim().min(1).max(40),
+  id: singleLineText(z.string().trim().min(1).max(40)),
   appliesTo: z.array(z.enum(EMERGENCY_ELEMENT_KINDS)).min(1),
   pass: z.enum([...EMERGENCY_PASSES, 'each']),
-  source: z.string().trim().min(1, 'Name the source of each check').max(300),
+  source: singleLineText(z.string().trim().min(1, 'Name the source of each check').max(300)),
 };
 export const emergencyCheckSchema = z.discriminatedUnion('kind', [
   z.object({ ...checkBase, kind: z.literal('min'), scope: z.enum(EMERGENCY_SCOPES), limit: limitSchema }),
@@ -99,11 +100,11 @@ export const emergencyCheckSchema = z.discriminatedUnion('kind', [
 ]);
 
 export const criteriaSetBodySchema = z.object({
-  name: z.string().trim().min(1).max(120),
-  source: z.string().trim().min(1, 'Say what the set stands on').max(300),
+  name: singleLineText(z.string().trim().min(1).max(120)),
+  source: singleLineText(z.string().trim().min(1, 'Say what the set stands on').max(300)),
   requiredPasses: z.array(z.enum(EMERGENCY_PASSES)),
   checks: z.array(emergencyCheckSchema).min(1).max(60).refine((cs) => new Set(cs.map((c) => c.id)).size === cs.length, 'Each check needs its own id'),
-  notes: z.array(z.string().max(500)).max(20).default([]),
+  notes: z.array(multiLineText(z.string().max(500))).max(20).default([]),
 });
 export type CriteriaSetBody = z.input<typeof criteriaSetBodySchema>;
 
@@ -125,13 +126,13 @@ export const emergencyConditionsSchema = z.object({
   mainsOffAt: z.iso.datetime({ offset: true, message: 'Use a time such as 2026-11-20T20:00:00+00:00' }),
   normalLightingOff: z.boolean(),
   daylightExcluded: z.boolean(),
-  notes: z.string().trim().max(1000).optional(),
+  notes: multiLineText(z.string().trim().max(1000)).optional(),
 });
 export type EmergencyConditions = z.infer<typeof emergencyConditionsSchema>;
 
 export const createEmergencySurveyBodySchema = z.object({
   siteId: z.number().int().positive(),
-  name: z.string().trim().min(1, 'Enter a survey name').max(160),
+  name: singleLineText(z.string().trim().min(1, 'Enter a survey name').max(160)),
   startedOn: z.iso.date({ message: 'Use a date such as 2026-11-20' }).optional(),
   criteriaSetKey: z.string().min(1),
   conditions: emergencyConditionsSchema,
@@ -219,11 +220,11 @@ export const emergencySurveyListQuerySchema = z.object({ siteId: z.coerce.number
 export const logbookEntryBodySchema = z.object({
   kind: z.enum(EMERGENCY_TEST_KINDS),
   testedOn: z.iso.date({ message: 'Use a date such as 2026-11-20' }),
-  testedBy: z.string().trim().min(1, 'Say who tested').max(120),
+  testedBy: singleLineText(z.string().trim().min(1, 'Say who tested').max(120)),
   result: z.enum(['pass', 'fail']),
   /** Fittings that failed (codes or locations), one per entry. */
-  failedFittings: z.array(z.string().trim().min(1).max(120)).max(500).default([]),
-  remarks: z.string().trim().max(2000).default(''),
+  failedFittings: z.array(singleLineText(z.string().trim().min(1).max(120))).max(500).default([]),
+  remarks: multiLineText(z.string().trim().max(2000)).default(''),
 }).refine((b) => b.result === 'fail' || b.failedFittings.length === 0, { message: 'A passed test lists no failed fittings', path: ['failedFittings'] })
   .refine((b) => b.result === 'pass' || b.failedFittings.length > 0 || b.remarks.length > 0, { message: 'Say which fittings failed or what went wrong', path: ['failedFittings'] });
 export type LogbookEntryBody = z.input<typeof logbookEntryBodySchema>;
