@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { CONTEXT_MODIFIER_IDS } from '../core/illuminance-scale';
-import { singleLineText } from './text';
+import { multiLineText, singleLineText } from './text';
 
 export const TARGET_CONFIDENCE = ['published', 'secondary', 'memory'] as const;
 export type TargetConfidence = (typeof TARGET_CONFIDENCE)[number];
@@ -114,7 +114,7 @@ export const setZoneTargetBodySchema = z.object({
   chosenEmLux: z.number({ message: 'Enter the chosen value as a number of lux' }).positive('The chosen value must be above 0 lx').nullable().default(null),
   contextModifiers: z.array(z.enum(CONTEXT_MODIFIER_IDS, { message: `A context modifier is one of ${CONTEXT_MODIFIER_IDS.join(', ')}` })).max(CONTEXT_MODIFIER_IDS.length).default([])
     .refine((a) => new Set(a).size === a.length, 'Name each context modifier once'),
-  contextNote: z.string().trim().max(1000).nullable().default(null),
+  contextNote: multiLineText(z.string().trim().max(1000)).nullable().default(null),
 });
 export type SetZoneTargetBody = z.infer<typeof setZoneTargetBodySchema>;
 export type SetZoneTargetInput = z.input<typeof setZoneTargetBodySchema>;
