@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { GRID_ROUNDINGS, GRID_LAYOUTS } from '../spatial/measurement-grid';
 import { mapReadingSchema } from './plans';
+import { multiLineText } from './text';
 
 export { GRID_ROUNDINGS, GRID_LAYOUTS };
 
@@ -14,7 +15,7 @@ export const GRID_LAYOUT_LABELS: Record<(typeof GRID_LAYOUTS)[number], string> =
   centreline: 'Centreline row (narrow zones)',
 };
 
-const reasonSchema = z.string().trim().min(3, 'Write a reason of at least 3 characters').max(1000, 'Use at most 1,000 characters');
+const reasonSchema = multiLineText(z.string().trim().min(3, 'Write a reason of at least 3 characters').max(1000, 'Use at most 1,000 characters'));
 const metres = (what: string) => z.number({ message: `${what} must be a number of metres` }).finite();
 
 /** A planned point label: letters, digits, dot, dash, underscore; compared trimmed and case-insensitively. */
