@@ -22,10 +22,19 @@ export class SqliteRateLimitStore implements Store {
     return `${this.prefix}:${key}`;
   }
 
+  /**
+   * The window's end as express-rate-limit reads it: in wall-clock time, since it compares it with
+   * Date.now() (a successful sign-in is not taken back once the window has ended). Our windows run
+   * on the injected clock, so the time left is carried over.
+   */
+  private wallTime(resetAt: number) {
+    return new Date(Date.now() + (resetAt - this.clock.now()));
+  }
+
   get(key: string): ClientRateLimitInfo | undefined {
     const row = this.db.select().from(rateLimitHits).where(eq(rateLimitHits.key, this.key(key))).get();
     if (!row || row.resetAt <= this.clock.now()) return undefined;
-    return { totalHits: row.hits, resetTime: new Date(row.resetAt) };
+    return { totalHits: row.hits, resetTime: this.wallTime(row.resetAt) };
   }
 
   increment(key: string): IncrementResponse {
@@ -39,7 +48,7 @@ export class SqliteRateLimitStore implements Store {
           resetAt: sql`case when ${expired} then ${now + this.windowMs} else ${rateLimitHits.resetAt} end`,
         },
       }).returning({ hits: rateLimitHits.hits, resetAt: rateLimitHits.resetAt }).get();
-    return { totalHits: row.hits, resetTime: new Date(row.resetAt) };
+    return { totalHits: row.hits, resetTime: this.wallTime(row.resetAt) };
   }
 
   decrement(key: string) {
