@@ -1,13 +1,25 @@
 import { z } from 'zod';
-import { GRID_ROUNDINGS, GRID_LAYOUTS } from '../spatial/measurement-grid';
+import { GRID_ROUNDINGS, GRID_LAYOUTS, GRID_SURFACES, PLANNED_PLANES, WALL_HEIGHT_RANGE_M } from '../spatial/measurement-grid';
 import { mapReadingSchema } from './plans';
 import { multiLineText } from './text';
 
-export { GRID_ROUNDINGS, GRID_LAYOUTS };
+export { GRID_ROUNDINGS, GRID_LAYOUTS, GRID_SURFACES };
 
 export const GRID_ROUNDING_LABELS: Record<(typeof GRID_ROUNDINGS)[number], string> = {
   next_higher: 'Next higher integer (EN 12464-1:2011 text)',
   nearest: 'Nearest integer (EN 12464-1:2021 as reported, secondary)',
+};
+
+export const GRID_SURFACE_LABELS: Record<(typeof GRID_SURFACES)[number], string> = {
+  working_plane: 'Working plane',
+  walls: 'Walls',
+  ceiling: 'Ceiling',
+};
+
+export const PLANNED_PLANE_LABELS: Record<(typeof PLANNED_PLANES)[number], string> = {
+  horizontal: 'Working plane',
+  wall: 'Wall',
+  ceiling: 'Ceiling',
 };
 
 export const GRID_LAYOUT_LABELS: Record<(typeof GRID_LAYOUTS)[number], string> = {
@@ -29,7 +41,13 @@ export const generateGridBodySchema = z.object({
   rounding: z.enum(GRID_ROUNDINGS, { message: 'Rounding must be next_higher or nearest' }).optional(),
   /** 'auto': the full grid (a narrow zone may ask for 'centreline'). */
   layout: z.enum(GRID_LAYOUTS, { message: 'Layout must be full or centreline' }).default('full'),
-}).refine((b) => (b.zoneId === undefined) !== (b.planId === undefined), { message: 'Name either a zoneId or a planId', path: ['zoneId'] });
+  /** The surface to grid: the working plane (default), or a room's walls or ceiling (planned on request, EN 12464-1:2021). */
+  surface: z.enum(GRID_SURFACES, { message: 'Surface must be working_plane, walls or ceiling' }).default('working_plane'),
+  /** The room's height, metres: needed for walls. */
+  wallHeightM: z.number({ message: 'wallHeightM must be a number of metres' }).min(WALL_HEIGHT_RANGE_M.min, `The room height must be at least ${WALL_HEIGHT_RANGE_M.min} m`).max(WALL_HEIGHT_RANGE_M.max, `The room height must be at most ${WALL_HEIGHT_RANGE_M.max} m`).optional(),
+}).refine((b) => (b.zoneId === undefined) !== (b.planId === undefined), { message: 'Name either a zoneId or a planId', path: ['zoneId'] })
+  .refine((b) => b.surface !== 'walls' || b.wallHeightM !== undefined, { message: 'Give the room height (wallHeightM, metres) to plan wall grids', path: ['wallHeightM'] })
+  .refine((b) => b.surface === 'working_plane' || b.layout === 'full', { message: 'A centreline row is for the working plane of a narrow zone', path: ['layout'] });
 export type GenerateGridBody = z.input<typeof generateGridBodySchema>;
 
 export const createPlannedPointBodySchema = z.object({
@@ -64,6 +82,11 @@ export const plannedPointSchema = z.object({
   label: z.string(),
   xM: z.number(),
   yM: z.number(),
+  plane: z.enum(PLANNED_PLANES),
+  /** A wall point's height above the floor, metres. */
+  heightM: z.number().nullable(),
+  /** A wall point's facing, degrees clockwise from the plan's up. */
+  azimuthDeg: z.number().nullable(),
   origin: z.enum(['generated', 'added']),
   /** Readings of the current decode that name this point (label) or were placed on it. */
   readingCount: z.number().int(),
@@ -76,6 +99,9 @@ export const surveyGridSchema = z.object({
   zoneName: z.string(),
   planId: z.number().int(),
   code: z.string(),
+  surface: z.enum(GRID_SURFACES),
+  /** The room height of a wall grid, metres. */
+  wallHeightM: z.number().nullable(),
   rounding: z.enum(GRID_ROUNDINGS),
   layout: z.enum(GRID_LAYOUTS),
   spacingM: z.number(),

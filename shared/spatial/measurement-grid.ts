@@ -229,3 +229,131 @@ export function gridDiffersFromGenerated(generated: readonly LabelledPoint[], po
     return !p || Math.abs(p.xM - g.xM) > 1e-6 || Math.abs(p.yM - g.yM) > 1e-6;
   });
 }
+
+/**
+ * Grids on surfaces other than the working plane, planned on request for rooms (EN 12464-1:2021 asks
+ * for the mean illuminance of walls and ceilings, each with U0 ≥ 0.10; secondary sources).
+ *
+ * Luxtrail's own rules, the standard's text not being at hand (from memory: the same grid formula
+ * serves walls and ceilings):
+ * - Ceiling: the working-plane grid of the room projected up (the same outline, wall band and
+ *   rounding), each point a ceiling reading at the plan position below it.
+ * - Walls: every edge of the room's outline is a wall of the edge's length and the room's height
+ *   (given when asked). Each wall gets its own grid from the same formula with d taken from its two
+ *   sides, no band, cell aspect 0.5..2; a point's plan position is on the edge, WALL_POINT_INSET_M
+ *   inside the room (so it falls in the zone), with its height above the floor and the direction its
+ *   sensor faces (into the room, clockwise from the plan's up), as a log's azimuth_deg.
+ */
+export const GRID_SURFACES = ['working_plane', 'walls', 'ceiling'] as const;
+export type GridSurface = (typeof GRID_SURFACES)[number];
+
+export const GRID_SURFACE_TEXT: Record<GridSurface, string> = {
+  working_plane: 'Working plane: the EN 12464-1 grid over the area at the working-plane height',
+  walls: 'Walls: each wall of the room its own grid over its length and the room height (Luxtrail\'s rule: d from the wall\'s two sides, no band), read facing into the room',
+  ceiling: 'Ceiling: the working-plane grid of the room projected up to the ceiling (Luxtrail\'s rule), read facing down',
+};
+
+/** Planes a planned point is measured on (a subset of a log's `plane` values). */
+export const PLANNED_PLANES = ['horizontal', 'wall', 'ceiling'] as const;
+export type PlannedPlane = (typeof PLANNED_PLANES)[number];
+
+/** The reading plane a surface's points are measured on. */
+export const SURFACE_PLANE: Record<GridSurface, PlannedPlane> = { working_plane: 'horizontal', walls: 'wall', ceiling: 'ceiling' };
+
+/** How far inside the room a wall point's plan position is put, metres (Luxtrail's choice: on the wall, yet inside the zone). */
+export const WALL_POINT_INSET_M = 0.05;
+/** Walls shorter than this are not gridded (a jog in the outline, not a wall one can measure). */
+export const MIN_WALL_LENGTH_M = 0.3;
+/** Room heights Luxtrail accepts for a wall grid, metres. */
+export const WALL_HEIGHT_RANGE_M = { min: 1, max: 30 } as const;
+
+export type WallGridPoint = GridPoint & { heightM: number };
+
+export type WallGrid = {
+  /** 1-based, in the outline's order of edges. */
+  wall: number;
+  from: PlanPoint;
+  to: PlanPoint;
+  lengthM: number;
+  heightM: number;
+  dM: number;
+  spacingM: number;
+  columns: number;
+  rows: number;
+  /** Direction the sensor faces (the wall's normal into the room), degrees clockwise from the plan's up (+y). */
+  azimuthDeg: number;
+  dropped: number;
+  points: WallGridPoint[];
+};
+
+/** Signed area by the shoelace formula: positive when the corners run anticlockwise (y up). */
+function signedArea(poly: readonly PlanPoint[]): number {
+  let s = 0;
+  for (let i = 0; i < poly.length; i++) {
+    const [x0, y0] = poly[i];
+    const [x1, y1] = poly[(i + 1) % poly.length];
+    s += x0 * y1 - x1 * y0;
+  }
+  return s / 2;
+}
+
+/** The ceiling grid of a room: its working-plane grid, read facing down at the same plan positions. */
+export function ceilingGrid(zone: GridZone, options: { rounding: GridRounding }): MeasurementGrid {
+  if (zone.kind !== 'room') throw new GridError('Ceiling grids are planned for rooms; a task area or an outdoor area has no ceiling of its own');
+  return measurementGrid(zone, { rounding: options.rounding, layout: 'full' });
+}
+
+/** One grid per wall of a room of the given height (see GRID_SURFACES for the rule). */
+export function wallGrids(zone: GridZone, options: { rounding: GridRounding; wallHeightM: number }): WallGrid[] {
+  if (zone.kind !== 'room') throw new GridError('Wall grids are planned for rooms; a task area or an outdoor area has no walls of its own');
+  const h = options.wallHeightM;
+  if (!(h >= WALL_HEIGHT_RANGE_M.min && h <= WALL_HEIGHT_RANGE_M.max)) {
+    throw new GridError(`The room height must be ${WALL_HEIGHT_RANGE_M.min} m to ${WALL_HEIGHT_RANGE_M.max} m to plan wall grids`);
+  }
+  if (zone.polygon.length < 3) throw new GridError('The zone has no outline to lay a grid over');
+  const turf = toTurfPolygon(zone.polygon as PlanPoint[]);
+  // Interior on the left of each edge for anticlockwise corners, on the right for clockwise ones.
+  const side = signedArea(zone.polygon) >= 0 ? 1 : -1;
+  const walls: WallGrid[] = [];
+  for (let i = 0; i < zone.polygon.length; i++) {
+    const from = zone.polygon[i];
+    const to = zone.polygon[(i + 1) % zone.polygon.length];
+    const dx = to[0] - from[0];
+    const dy = to[1] - from[1];
+    const lengthM = Math.hypot(dx, dy);
+    if (lengthM < MIN_WALL_LENGTH_M) continue;
+    const nx = (-dy / lengthM) * side;
+    const ny = (dx / lengthM) * side;
+    const long = Math.max(lengthM, h);
+    const short = Math.min(lengthM, h);
+    const dM = long / short >= 2 ? short : long;
+    const spacingM = gridSpacing(dM);
+    const { cols, rows } = cellCounts(lengthM, h, spacingM, options.rounding);
+    const points: WallGridPoint[] = [];
+    let dropped = 0;
+    for (let r = 0; r < rows; r++) {
+      const heightM = h - (r + 0.5) * (h / rows); // row A nearest the ceiling, like row A at the top of a plan
+      for (let c = 0; c < cols; c++) {
+        const t = (c + 0.5) / cols;
+        const x = from[0] + dx * t + nx * WALL_POINT_INSET_M;
+        const y = from[1] + dy * t + ny * WALL_POINT_INSET_M;
+        if (!booleanPointInPolygon(turfPoint([x, y]), turf, { ignoreBoundary: true })) { dropped++; continue; }
+        points.push({ row: r, col: c, cell: `${rowLetters(r)}${c + 1}`, xM: x, yM: y, heightM });
+      }
+    }
+    const azimuthDeg = ((Math.atan2(nx, ny) * 180) / Math.PI + 360) % 360;
+    walls.push({ wall: walls.length + 1, from, to, lengthM, heightM: h, dM, spacingM, columns: cols, rows, azimuthDeg: Math.abs(azimuthDeg - 360) < 1e-9 ? 0 : azimuthDeg, dropped, points });
+  }
+  if (walls.length === 0) throw new GridError(`No wall of the outline is at least ${MIN_WALL_LENGTH_M} m long`);
+  return walls;
+}
+
+/** A wall point's label: the zone code, W and the wall's number, then row letters and column ("O1-W2-B3"). */
+export function wallLabel(zoneCodeText: string, wall: number, row: number, col: number): string {
+  return gridLabel(`${zoneCodeText}-W${wall}`, row, col);
+}
+
+/** A ceiling point's label: the zone code, C, then row letters and column ("O1-C-B3"). */
+export function ceilingLabel(zoneCodeText: string, row: number, col: number): string {
+  return gridLabel(`${zoneCodeText}-C`, row, col);
+}

@@ -3,6 +3,7 @@ import { users } from './organizations';
 import { surveys } from './surveys';
 import { plans, zones } from './plans';
 import { probes } from './calibration';
+import { GRID_LAYOUTS, GRID_ROUNDINGS, GRID_SURFACES, PLANNED_PLANES } from '@shared/spatial/measurement-grid';
 
 export type GeneratedPoint = { label: string; xM: number; yM: number };
 
@@ -17,8 +18,12 @@ export const surveyGrids = sqliteTable('survey_grids', {
   planId: integer('plan_id').notNull().references(() => plans.id),
   /** Short zone code, the first part of every label of this grid (e.g. OF1). */
   code: text('code').notNull(),
-  rounding: text('rounding', { enum: ['next_higher', 'nearest'] }).notNull(),
-  layout: text('layout', { enum: ['full', 'centreline'] }).notNull(),
+  /** The surface gridded: the working plane, the room's walls or its ceiling (GRID_SURFACES). */
+  surface: text('surface', { enum: GRID_SURFACES }).notNull().default('working_plane'),
+  rounding: text('rounding', { enum: GRID_ROUNDINGS }).notNull(),
+  layout: text('layout', { enum: GRID_LAYOUTS }).notNull(),
+  /** The room height a wall grid was planned for, metres (walls only). */
+  wallHeightM: real('wall_height_m'),
   spacingM: real('spacing_m').notNull(),
   dM: real('d_m').notNull(),
   generated: text('generated', { mode: 'json' }).$type<GeneratedPoint[]>().notNull(),
@@ -27,7 +32,7 @@ export const surveyGrids = sqliteTable('survey_grids', {
   createdBy: integer('created_by').references(() => users.id),
   createdAt: integer('created_at').notNull(),
   updatedAt: integer('updated_at').notNull(),
-}, (t) => [uniqueIndex('survey_grids_zone_uq').on(t.surveyId, t.zoneId), uniqueIndex('survey_grids_code_uq').on(t.surveyId, t.code)]);
+}, (t) => [uniqueIndex('survey_grids_zone_surface_uq').on(t.surveyId, t.zoneId, t.surface), uniqueIndex('survey_grids_code_surface_uq').on(t.surveyId, t.code, t.surface)]);
 
 /** A point the surveyor plans to measure; its label is unique within the survey (compared trimmed and case-insensitively). */
 export const plannedPoints = sqliteTable('planned_points', {
@@ -40,6 +45,12 @@ export const plannedPoints = sqliteTable('planned_points', {
   labelKey: text('label_key').notNull(),
   xM: real('x_m').notNull(),
   yM: real('y_m').notNull(),
+  /** The plane a reading here is taken on: horizontal (working plane), wall or ceiling. */
+  plane: text('plane', { enum: PLANNED_PLANES }).notNull().default('horizontal'),
+  /** Height above the floor of a wall point, metres; null elsewhere. */
+  heightM: real('height_m'),
+  /** Direction a wall point's sensor faces, degrees clockwise from the plan's up; null elsewhere. */
+  azimuthDeg: real('azimuth_deg'),
   origin: text('origin', { enum: ['generated', 'added'] }).notNull(),
   createdAt: integer('created_at').notNull(),
 }, (t) => [uniqueIndex('planned_points_label_uq').on(t.surveyId, t.labelKey), index('planned_points_plan_idx').on(t.surveyId, t.planId)]);

@@ -6,7 +6,7 @@ import { coefficientSets, probes } from '../../db/schema/calibration';
 import type { SurveyRow } from '../surveys/surveys-service';
 import { currentReadingConditions } from '../surveys/surveys-service';
 import { resolveZoneTarget } from '../targets/targets-service';
-import type { JudgePlannedGrid, JudgeReading, JudgeZone } from './judge-zones';
+import type { JudgePlannedGrid, JudgeReading, JudgeSurfacePoint, JudgeZone } from './judge-zones';
 import { plannedPoints, readingPlacements, surveyGrids } from '../../db/schema/grids';
 import { gridDiffersFromGenerated } from '@shared/spatial/measurement-grid';
 
@@ -83,15 +83,27 @@ export function loadUsedCoefficientSets(db: Db, readingsUsed: JudgeReading[]): U
     }));
 }
 
-/** The survey's planned grids by zone, as the verdicts use them (changed: differs from the generated grid). */
-export function loadPlannedGrids(db: Db, surveyId: number): Map<number, JudgePlannedGrid> {
+/**
+ * The survey's planned grids by zone, as the verdicts use them: the working plane's grid (changed:
+ * differs from the generated grid) and the planned points on walls and ceilings.
+ */
+export function loadPlannedGrids(db: Db, surveyId: number): { workingPlane: Map<number, JudgePlannedGrid>; surfacePoints: Map<number, JudgeSurfacePoint[]> } {
   const grids = db.select().from(surveyGrids).where(eq(surveyGrids.surveyId, surveyId)).all();
-  if (grids.length === 0) return new Map();
+  const workingPlane = new Map<number, JudgePlannedGrid>();
+  const surfacePoints = new Map<number, JudgeSurfacePoint[]>();
+  if (grids.length === 0) return { workingPlane, surfacePoints };
   const points = db.select().from(plannedPoints).where(eq(plannedPoints.surveyId, surveyId)).orderBy(asc(plannedPoints.id)).all();
-  return new Map(grids.map((g) => {
+  for (const g of grids) {
     const own = points.filter((p) => p.gridId === g.id);
-    return [g.zoneId, { layout: g.layout, changed: gridDiffersFromGenerated(g.generated, own), reason: g.reason, points: own.map((p) => ({ id: p.id, label: p.label })) }];
-  }));
+    if (g.surface === 'working_plane') {
+      workingPlane.set(g.zoneId, { layout: g.layout, changed: gridDiffersFromGenerated(g.generated, own), reason: g.reason, points: own.map((p) => ({ id: p.id, label: p.label })) });
+    } else {
+      const list = surfacePoints.get(g.zoneId) ?? [];
+      for (const p of own) if (p.plane === 'wall' || p.plane === 'ceiling') list.push({ id: p.id, label: p.label, plane: p.plane });
+      surfacePoints.set(g.zoneId, list);
+    }
+  }
+  return { workingPlane, surfacePoints };
 }
 
 export const placementKey = (point: string, probeId: number, timeMs: number) => `${probeId}\u0000${timeMs}\u0000${point}`;

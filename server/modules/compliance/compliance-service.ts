@@ -64,7 +64,7 @@ export function liveCompliance(db: Db, organizationId: number, survey: SurveyRow
   const plannedGrids = loadPlannedGrids(db, survey.id);
   const onPlanned = loadPlacementsOnPlannedPoints(db, survey.id);
   if (onPlanned.size > 0) for (const r of allReadings) r.plannedPointId = onPlanned.get(placementKey(r.point, r.probeId, r.timeMs)) ?? null;
-  const perPlan = plans.map((p) => judgeZones({ zones: p.zones, readings: [...byPlan.get(p.planId)!, ...reference], rule, daylightExcluded, installation, gridRounding: survey.gridRounding, plannedGrids }));
+  const perPlan = plans.map((p) => judgeZones({ zones: p.zones, readings: [...byPlan.get(p.planId)!, ...reference], rule, daylightExcluded, installation, gridRounding: survey.gridRounding, plannedGrids: plannedGrids.workingPlane, plannedSurfacePoints: plannedGrids.surfacePoints }));
   const unplaced = plans.length === 0 ? allReadings.filter((r) => r.role === 'task').length : withoutPlan;
   const result: JudgeResult = {
     zones: worstFirst(perPlan.flatMap((r) => r.zones)),

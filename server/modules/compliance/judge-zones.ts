@@ -59,6 +59,9 @@ export type JudgeReading = {
   plannedPointId?: number | null;
 };
 
+/** A planned point on a room's wall or ceiling (a grid planned on request). */
+export type JudgeSurfacePoint = { id: number; label: string; plane: 'wall' | 'ceiling' };
+
 /** The survey's planned grid of a zone: its points, and whether it was changed (with its reason) or is a centreline row. */
 export type JudgePlannedGrid = {
   layout: 'full' | 'centreline';
@@ -192,6 +195,8 @@ export function judgeZones(input: {
   gridRounding?: GridRounding;
   /** The survey's planned grids by zone id. */
   plannedGrids?: ReadonlyMap<number, JudgePlannedGrid>;
+  /** The survey's planned wall and ceiling points by zone id. */
+  plannedSurfacePoints?: ReadonlyMap<number, readonly JudgeSurfacePoint[]>;
 }): JudgeResult {
   const installation: Installation = input.installation ?? { state: 'in_service' };
   const rounding = input.gridRounding ?? 'next_higher';
@@ -311,6 +316,11 @@ export function judgeZones(input: {
           source: `${t.source}; U0 ≥ ${SURFACE_U0_MIN} for walls and ceilings (EN 12464-1:2021, secondary)`, confidence: t.confidence, installation, rule: input.rule,
           none: `No ${plane} readings in this zone (log rows with plane = ${plane}).`,
         }));
+        const planned = (input.plannedSurfacePoints?.get(z.id) ?? []).filter((p) => p.plane === plane);
+        const missing = planned.filter((p) => !visited.has(labelKey(p.label)) && !visitedIds.has(p.id));
+        if (missing.length > 0) {
+          checks.at(-1)!.reasons.push(`${missing.length} of ${planned.length} planned ${plane} point(s) have no reading: ${missing.slice(0, 30).map((p) => p.label).join(', ')}${missing.length > 30 ? ` and ${missing.length - 30} more` : ''}.`);
+        }
       };
       // Walls and ceilings belong to rooms: a task area or an outdoor zone gets these checks only from readings taken in it.
       const room = z.kind === 'room';

@@ -183,7 +183,7 @@ async function runImport(deps: Deps, job: ImportJob): Promise<ImportOutcome> {
     w.on('error', onError);
     w.on('exit', onExit);
     // The survey's planned points as they are now: rows naming one by label take its plan and position.
-    const planned = deps.db.select({ label: plannedPoints.label, planId: plannedPoints.planId, xM: plannedPoints.xM, yM: plannedPoints.yM }).from(plannedPoints).where(eq(plannedPoints.surveyId, job.surveyId)).all();
+    const planned = deps.db.select({ label: plannedPoints.label, planId: plannedPoints.planId, xM: plannedPoints.xM, yM: plannedPoints.yM, plane: plannedPoints.plane, azimuthDeg: plannedPoints.azimuthDeg }).from(plannedPoints).where(eq(plannedPoints.surveyId, job.surveyId)).all();
     const input = { filePath: job.filePath, timeZone: job.timeZone, calibration, plans: job.plans, defaultPlanId: job.defaultPlanId, plannedPoints: planned };
     if (writer) {
       writer.on('error', onWriterGone);

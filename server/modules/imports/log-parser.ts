@@ -19,7 +19,7 @@ export type { ImportProblem, ImportWarning };
 /** How the import's readings got their place: the row's own x_m, y_m; a planned point named by the row's point label; none. */
 export type PlacementSummary = { byCoordinates: number; byLabel: number; none: number };
 /** A planned point of the survey, for the label join (label compared trimmed and case-insensitively). */
-export type PlannedPosition = { label: string; planId: number; xM: number; yM: number };
+export type PlannedPosition = { label: string; planId: number; xM: number; yM: number; plane?: ReadingPlane; azimuthDeg?: number | null };
 
 /** Lines listed per unknown label, and unknown labels named, before the warning just counts the rest. */
 const MAX_LINES_PER_LABEL = 20;
@@ -261,9 +261,9 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     const roleText = text(row, at.role).toLowerCase();
     if (roleText !== '' && roleText !== 'task' && roleText !== 'reference') addError({ line, column: 'role', value: text(row, at.role), message: 'role must be task or reference' });
     const planeText = text(row, at.plane).toLowerCase();
-    const plane = (planeText === '' ? 'horizontal' : planeText) as ReadingPlane;
+    let plane = (planeText === '' ? 'horizontal' : planeText) as ReadingPlane;
     if (!(READING_PLANES as readonly string[]).includes(plane)) addError({ line, column: 'plane', value: text(row, at.plane), message: `plane must be one of ${READING_PLANES.join(', ')} (empty: horizontal)` });
-    const azimuthDeg = num(row, at.azimuth_deg, 'azimuth_deg', line);
+    let azimuthDeg = num(row, at.azimuth_deg, 'azimuth_deg', line);
     if (azimuthDeg !== undefined && azimuthDeg !== null && !(azimuthDeg >= 0 && azimuthDeg < 360)) {
       addError({ line, column: 'azimuth_deg', value: text(row, at.azimuth_deg), message: 'azimuth_deg is a direction from 0 up to (not including) 360 degrees, clockwise from the plan\'s up (+y)' });
     } else if (plane === 'vertical' && azimuthDeg === undefined) {
@@ -282,6 +282,11 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
         placedX = p.xM;
         placedY = p.yM;
         planId = p.planId;
+        // A wall or ceiling point gives its plane (and a wall's facing) unless the row states its own.
+        if (planeText === '' && p.plane && p.plane !== 'horizontal') {
+          plane = p.plane;
+          if (azimuthDeg === undefined && p.plane === 'wall' && p.azimuthDeg != null) azimuthDeg = p.azimuthDeg;
+        }
         placedByLabel.add(key);
       } else {
         const u = unknownLabels.get(key);

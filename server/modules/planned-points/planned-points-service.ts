@@ -10,8 +10,9 @@ import type {
   CreatePlannedPointBody, GenerateGridBody, MovePlannedPointBody, PlannedPoint, PlannedPointsResponse, SurveyGrid,
 } from '@shared/schemas/planned-points';
 import {
-  gridCountsByRounding, gridDiffersFromGenerated, gridLabel, GridError, isNarrowZone, labelKey, measurementGrid, zoneCode,
-  GRID_ROUNDING_TEXT, GRID_LAYOUT_TEXT, type GridRounding,
+  ceilingGrid, ceilingLabel, gridCountsByRounding, gridDiffersFromGenerated, gridLabel, GridError, isNarrowZone, labelKey, measurementGrid,
+  wallGrids, wallLabel, zoneCode, GRID_ROUNDINGS, GRID_SURFACES, GRID_ROUNDING_TEXT, GRID_LAYOUT_TEXT, GRID_SURFACE_TEXT, SURFACE_PLANE,
+  type GridLayout, type GridRounding, type GridSurface, type GridZone, type PlannedPlane,
 } from '@shared/spatial/measurement-grid';
 import { createZoneAssigner } from '@shared/spatial/zone-assignment';
 import { conflict, notFound, unprocessable } from '../../http/errors';
@@ -88,12 +89,49 @@ export function readingCountsByPoint(db: Db, survey: SurveyRow, points: PointRow
   return out;
 }
 
+/** A surface grid as computed from the zone's outline, before its labels take the zone's code. */
+type SurfaceGrid = {
+  layout: GridLayout;
+  spacingM: number;
+  dM: number;
+  /** One line per wall for wall grids (their d and spacing differ), empty otherwise. */
+  notes: string[];
+  points: { label: (code: string) => string; xM: number; yM: number; plane: PlannedPlane; heightM: number | null; azimuthDeg: number | null }[];
+};
+
+const m2 = (v: number) => v.toFixed(2);
+
+/** The grid of one surface of a zone (shared/spatial/measurement-grid); throws GridError. */
+function surfaceGrid(zone: GridZone, surface: GridSurface, rounding: GridRounding, layout: GridLayout, wallHeightM: number | null): SurfaceGrid {
+  const plane = SURFACE_PLANE[surface];
+  if (surface === 'walls') {
+    const walls = wallGrids(zone, { rounding, wallHeightM: wallHeightM ?? 0 });
+    const longest = walls.reduce((a, b) => (b.lengthM > a.lengthM ? b : a));
+    return {
+      layout: 'full', spacingM: longest.spacingM, dM: longest.dM,
+      notes: walls.map((w) => `Wall ${w.wall} (${m2(w.lengthM)} m × ${m2(w.heightM)} m, facing ${Math.round(w.azimuthDeg)}°): d ${m2(w.dM)} m, p ${m2(w.spacingM)} m, ${w.columns} × ${w.rows} points${w.dropped > 0 ? `, ${w.dropped} outside the outline dropped` : ''}.`),
+      points: walls.flatMap((w) => w.points.map((p) => ({ label: (code: string) => wallLabel(code, w.wall, p.row, p.col), xM: p.xM, yM: p.yM, plane, heightM: p.heightM, azimuthDeg: w.azimuthDeg }))),
+    };
+  }
+  const grid = surface === 'ceiling' ? ceilingGrid(zone, { rounding }) : measurementGrid(zone, { rounding, layout });
+  const label = surface === 'ceiling' ? ceilingLabel : gridLabel;
+  return {
+    layout: grid.layout, spacingM: grid.spacingM, dM: grid.dM, notes: [],
+    points: grid.points.map((p) => ({ label: (code: string) => label(code, p.row, p.col), xM: p.xM, yM: p.yM, plane, heightM: null, azimuthDeg: null })),
+  };
+}
+
 function presentGrid(grid: GridRow, zone: ZoneRow, points: PointRow[]): SurveyGrid {
   const shape = { kind: zone.kind, wallBandM: zone.wallBandM, polygon: zone.polygon };
   let counts = { next_higher: 0, nearest: 0 };
-  const notes: string[] = [GRID_ROUNDING_TEXT[grid.rounding], GRID_LAYOUT_TEXT[grid.layout]];
+  const notes: string[] = [GRID_SURFACE_TEXT[grid.surface], GRID_ROUNDING_TEXT[grid.rounding]];
+  if (grid.surface === 'working_plane') notes.push(GRID_LAYOUT_TEXT[grid.layout]);
   try {
-    counts = gridCountsByRounding(shape);
+    if (grid.surface === 'working_plane') counts = gridCountsByRounding(shape);
+    else {
+      for (const r of GRID_ROUNDINGS) counts[r] = surfaceGrid(shape, grid.surface, r, 'full', grid.wallHeightM).points.length;
+      notes.push(...surfaceGrid(shape, grid.surface, grid.rounding, 'full', grid.wallHeightM).notes);
+    }
   } catch (e) {
     if (!(e instanceof GridError)) throw e;
     notes.push(e.message);
@@ -102,7 +140,8 @@ function presentGrid(grid: GridRow, zone: ZoneRow, points: PointRow[]): SurveyGr
   if (counts.next_higher !== counts.nearest) notes.push(`The two readings of the rounding differ here: ${counts.next_higher} points (next higher) against ${counts.nearest} (nearest).`);
   if (changed && !grid.reason) notes.push('Changed grid without a written reason.');
   return {
-    id: grid.id, zoneId: zone.id, zoneName: zone.name, planId: grid.planId, code: grid.code, rounding: grid.rounding, layout: grid.layout,
+    id: grid.id, zoneId: zone.id, zoneName: zone.name, planId: grid.planId, code: grid.code, surface: grid.surface, wallHeightM: grid.wallHeightM,
+    rounding: grid.rounding, layout: grid.layout,
     spacingM: grid.spacingM, dM: grid.dM, generatedCount: grid.generated.length, pointCount: points.length,
     countsByRounding: counts, roundingsDiffer: counts.next_higher !== counts.nearest, changed, reason: grid.reason,
     narrow: isNarrowZone(zone.polygon), notes,
@@ -118,7 +157,8 @@ export function listPlannedPoints(db: Db, user: SessionUser, surveyId: number, p
 
 export function plannedPointsOf(db: Db, survey: SurveyRow, planId?: number): PlannedPointsResponse {
   const gridRows = db.select({ grid: surveyGrids, zone: zones }).from(surveyGrids).innerJoin(zones, eq(zones.id, surveyGrids.zoneId))
-    .where(and(eq(surveyGrids.surveyId, survey.id), ...(planId !== undefined ? [eq(surveyGrids.planId, planId)] : []))).orderBy(asc(surveyGrids.code)).all();
+    .where(and(eq(surveyGrids.surveyId, survey.id), ...(planId !== undefined ? [eq(surveyGrids.planId, planId)] : []))).orderBy(asc(surveyGrids.code)).all()
+    .sort((a, b) => a.grid.code.localeCompare(b.grid.code) || GRID_SURFACES.indexOf(a.grid.surface) - GRID_SURFACES.indexOf(b.grid.surface));
   const points = db.select().from(plannedPoints)
     .where(and(eq(plannedPoints.surveyId, survey.id), ...(planId !== undefined ? [eq(plannedPoints.planId, planId)] : []))).orderBy(asc(plannedPoints.id)).all();
   const counts = readingCountsByPoint(db, survey, points);
@@ -132,7 +172,10 @@ export function plannedPointsOf(db: Db, survey: SurveyRow, planId?: number): Pla
 }
 
 function presentPoint(p: PointRow, readingCount: number): PlannedPoint {
-  return { id: p.id, gridId: p.gridId, planId: p.planId, zoneId: p.zoneId, label: p.label, xM: p.xM, yM: p.yM, origin: p.origin, readingCount };
+  return {
+    id: p.id, gridId: p.gridId, planId: p.planId, zoneId: p.zoneId, label: p.label, xM: p.xM, yM: p.yM,
+    plane: p.plane, heightM: p.heightM, azimuthDeg: p.azimuthDeg, origin: p.origin, readingCount,
+  };
 }
 
 /** Label keys already used in the survey, except those of the given grid (it is being replaced). */
@@ -159,12 +202,20 @@ export function generateGrids(deps: Deps, user: SessionUser, surveyId: number, b
   }
   const rounding: GridRounding = body.rounding ?? survey.gridRounding;
   const layout = body.layout ?? 'full';
+  const surface: GridSurface = body.surface ?? 'working_plane';
+  const wallHeightM = surface === 'walls' ? body.wallHeightM ?? null : null;
+  if (surface !== 'working_plane') {
+    // Walls and ceilings are gridded for rooms; across a plan the other zones are left as they are.
+    if (body.zoneId !== undefined && targets[0].zone.kind !== 'room') throw unprocessable(`Zone "${targets[0].zone.name}" is ${targets[0].zone.kind === 'outdoor' ? 'an outdoor area' : 'a task area'}: ${surface} grids are planned for rooms`);
+    targets = targets.filter((t) => t.zone.kind === 'room');
+    if (targets.length === 0) throw unprocessable(`The plan has no rooms: ${surface} grids are planned for rooms`);
+  }
   // Compute every grid before writing anything, so one bad zone refuses the whole request.
   const computed = targets.map(({ zone, plan }) => {
     requireScale(plan);
     const zoneLayout = layout === 'centreline' && body.planId !== undefined && !isNarrowZone(zone.polygon) ? 'full' : layout;
     try {
-      return { zone, plan, grid: measurementGrid({ kind: zone.kind, wallBandM: zone.wallBandM, polygon: zone.polygon }, { rounding, layout: zoneLayout }) };
+      return { zone, plan, grid: surfaceGrid({ kind: zone.kind, wallBandM: zone.wallBandM, polygon: zone.polygon }, surface, rounding, zoneLayout, wallHeightM) };
     } catch (e) {
       if (e instanceof GridError) throw unprocessable(`Zone "${zone.name}": ${e.message}`);
       throw e;
@@ -177,37 +228,39 @@ export function generateGrids(deps: Deps, user: SessionUser, surveyId: number, b
       recordAudit(tx, { organizationId: user.organizationId, actorId: user.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'grid_rule_changed', before: { gridRounding: survey.gridRounding }, after: { gridRounding: rounding }, at: now });
     }
     for (const { zone, plan, grid } of computed) {
-      const existing = tx.select().from(surveyGrids).where(and(eq(surveyGrids.surveyId, survey.id), eq(surveyGrids.zoneId, zone.id))).get();
+      const zoneGrids = tx.select().from(surveyGrids).where(and(eq(surveyGrids.surveyId, survey.id), eq(surveyGrids.zoneId, zone.id))).all();
+      const existing = zoneGrids.find((g) => g.surface === surface);
       const codes = tx.select({ code: surveyGrids.code, zoneId: surveyGrids.zoneId }).from(surveyGrids).where(eq(surveyGrids.surveyId, survey.id)).all()
         .filter((c) => c.zoneId !== zone.id).map((c) => c.code);
-      const code = existing?.code ?? zoneCode(zone.name, codes);
-      const generated: GeneratedPoint[] = grid.points.map((p) => ({ label: gridLabel(code, p.row, p.col), xM: p.xM, yM: p.yM }));
+      // One code per zone across its surfaces, so O1-B3, O1-W2-B3 and O1-C-B3 read as one room's.
+      const code = zoneGrids[0]?.code ?? zoneCode(zone.name, codes);
+      const points = grid.points.map((p) => ({ ...p, label: p.label(code) }));
+      const generated: GeneratedPoint[] = points.map((p) => ({ label: p.label, xM: p.xM, yM: p.yM }));
       const taken = takenLabels(tx, survey.id, existing?.id ?? null);
       const clash = generated.find((g) => taken.has(labelKey(g.label)));
       if (clash) throw conflict(`Label ${clash.label} of zone "${zone.name}" is already used by another planned point of this survey (${taken.get(labelKey(clash.label))}): rename that point first`);
       let gridId: number;
-      const before = existing ? { rounding: existing.rounding, layout: existing.layout, points: tx.select({ n: sql<number>`count(*)` }).from(plannedPoints).where(eq(plannedPoints.gridId, existing.id)).get()!.n, reason: existing.reason } : null;
+      const before = existing ? { surface, rounding: existing.rounding, layout: existing.layout, points: tx.select({ n: sql<number>`count(*)` }).from(plannedPoints).where(eq(plannedPoints.gridId, existing.id)).get()!.n, reason: existing.reason } : null;
       if (existing) {
         tx.delete(plannedPoints).where(eq(plannedPoints.gridId, existing.id)).run();
-        tx.update(surveyGrids).set({ rounding, layout: grid.layout, spacingM: grid.spacingM, dM: grid.dM, generated, reason: null, updatedAt: now }).where(eq(surveyGrids.id, existing.id)).run();
+        tx.update(surveyGrids).set({ rounding, layout: grid.layout, spacingM: grid.spacingM, dM: grid.dM, wallHeightM, generated, reason: null, updatedAt: now }).where(eq(surveyGrids.id, existing.id)).run();
         gridId = existing.id;
       } else {
         gridId = tx.insert(surveyGrids).values({
-          surveyId: survey.id, zoneId: zone.id, planId: plan.id, code, rounding, layout: grid.layout, spacingM: grid.spacingM, dM: grid.dM,
+          surveyId: survey.id, zoneId: zone.id, planId: plan.id, code, surface, rounding, layout: grid.layout, spacingM: grid.spacingM, dM: grid.dM, wallHeightM,
           generated, reason: null, createdBy: user.id, createdAt: now, updatedAt: now,
         }).returning({ id: surveyGrids.id }).get().id;
       }
-      if (generated.length > 0) {
-        // Chunks keep each INSERT under SQLite's bound-parameter limit.
-        for (let i = 0; i < generated.length; i += 500) {
-          tx.insert(plannedPoints).values(generated.slice(i, i + 500).map((g) => ({
-            surveyId: survey.id, gridId, planId: plan.id, zoneId: zone.id, label: g.label, labelKey: labelKey(g.label), xM: g.xM, yM: g.yM, origin: 'generated' as const, createdAt: now,
-          }))).run();
-        }
+      // Chunks keep each INSERT under SQLite's bound-parameter limit.
+      for (let i = 0; i < points.length; i += 500) {
+        tx.insert(plannedPoints).values(points.slice(i, i + 500).map((g) => ({
+          surveyId: survey.id, gridId, planId: plan.id, zoneId: zone.id, label: g.label, labelKey: labelKey(g.label), xM: g.xM, yM: g.yM,
+          plane: g.plane, heightM: g.heightM, azimuthDeg: g.azimuthDeg, origin: 'generated' as const, createdAt: now,
+        }))).run();
       }
       recordAudit(tx, {
         organizationId: user.organizationId, actorId: user.id, entityType: 'survey_grid', entityId: gridId, surveyId: survey.id, action: existing ? 'regenerated' : 'generated',
-        before, after: { zone: zone.name, code, rounding, layout: grid.layout, dM: grid.dM, spacingM: grid.spacingM, columns: grid.columns, rows: grid.rows, points: generated.length },
+        before, after: { zone: zone.name, code, surface, rounding, layout: grid.layout, dM: grid.dM, spacingM: grid.spacingM, wallHeightM, points: generated.length },
         at: now,
       });
     }
@@ -254,8 +307,9 @@ export function createPlannedPoint(deps: Deps, user: SessionUser, surveyId: numb
   const { zone, plan } = zoneOfSurvey(deps.db, survey, body.zoneId);
   insidePlan(plan, body.xM, body.yM, 'The point');
   insideZone(zone, body.xM, body.yM, 'The point');
-  const grid = deps.db.select().from(surveyGrids).where(and(eq(surveyGrids.surveyId, survey.id), eq(surveyGrids.zoneId, zone.id))).get();
-  if (!grid) throw conflict(`Zone "${zone.name}" has no planned grid in this survey yet: generate its grid first`);
+  // A point added by hand is a working-plane point; wall and ceiling grids are regenerated, not edited point by point.
+  const grid = deps.db.select().from(surveyGrids).where(and(eq(surveyGrids.surveyId, survey.id), eq(surveyGrids.zoneId, zone.id), eq(surveyGrids.surface, 'working_plane'))).get();
+  if (!grid) throw conflict(`Zone "${zone.name}" has no planned working-plane grid in this survey yet: generate its grid first`);
   const now = deps.clock.now();
   const row = deps.db.transaction((tx) => {
     const taken = takenLabels(tx, survey.id, null);

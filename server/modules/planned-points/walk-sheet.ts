@@ -9,7 +9,7 @@ import { plannedPoints, surveyGrids } from '../../db/schema/grids';
 import type { SessionUser } from '@shared/schemas/auth';
 import { toSafeCsv } from '@shared/csv-safe';
 import { isSafetyRelevant } from '@shared/schemas/zones';
-import { GRID_LAYOUT_TEXT, GRID_ROUNDING_TEXT } from '@shared/spatial/measurement-grid';
+import { GRID_LAYOUT_TEXT, GRID_SURFACE_TEXT, GRID_ROUNDING_TEXT } from '@shared/spatial/measurement-grid';
 import { gridRuleText } from '@shared/core/zone-stats';
 import { storedPath } from '../../lib/file-store';
 import { conflict } from '../../http/errors';
@@ -52,12 +52,23 @@ function walkPlans(deps: Deps, survey: SurveyRow): WalkPlan[] {
 /** Coordinates on the sheet with the full precision the database holds (metres). */
 const metres = (v: number) => String(Number(v.toPrecision(12)));
 
-/** The planned points as CSV: label, plan, zone, x_m, y_m (metres from the plan's lower-left corner, y up), full precision. */
+/**
+ * The planned points as CSV: label, plan, zone, x_m, y_m (metres from the plan's lower-left corner,
+ * y up), full precision; then the plane (horizontal, wall, ceiling) with a wall point's height above
+ * the floor and facing (degrees clockwise from the plan's up), empty where they do not apply.
+ */
 export function plannedPointsCsv(deps: Deps, user: SessionUser, surveyId: number): FileAnswer {
   const survey = getSurveyRow(deps.db, user, surveyId);
-  const rows = walkPlans(deps, survey).flatMap((wp) => wp.points.map((p) => [p.label, wp.plan.name, p.zoneName, p.xM, p.yM]));
-  return { filename: reportFilename(survey, 'csv', 'planned-points'), contentType: 'text/csv; charset=utf-8', content: Buffer.from(toSafeCsv(['label', 'plan', 'zone', 'x_m', 'y_m'], rows), 'utf8') };
+  const rows = walkPlans(deps, survey).flatMap((wp) => wp.points.map((p) => [p.label, wp.plan.name, p.zoneName, p.xM, p.yM, p.plane, p.heightM ?? '', p.azimuthDeg ?? '']));
+  return {
+    filename: reportFilename(survey, 'csv', 'planned-points'), contentType: 'text/csv; charset=utf-8',
+    content: Buffer.from(toSafeCsv(['label', 'plan', 'zone', 'x_m', 'y_m', 'plane', 'height_m', 'azimuth_deg'], rows), 'utf8'),
+  };
 }
+
+/** Where a planned point is read, in words for the sheet. */
+const surfaceText = (p: Pick<typeof plannedPoints.$inferSelect, 'plane' | 'heightM' | 'azimuthDeg'>) =>
+  p.plane === 'wall' ? `wall, ${metres(p.heightM ?? 0)} m up, facing ${Math.round(p.azimuthDeg ?? 0)}°` : p.plane === 'ceiling' ? 'ceiling, facing down' : 'working plane';
 
 function drawPlan(doc: PDFKit.PDFDocument, wp: WalkPlan) {
   const boxW = CONTENT_W;
@@ -128,11 +139,14 @@ function renderWalkSheet(d: { db: Db; survey: SurveyRow; siteName: string; timeZ
     ['Grid rule', `${gridRuleText(d.survey.gridRounding)}. ${GRID_ROUNDING_TEXT[d.survey.gridRounding]}.`],
     ['Printed', formatDateTime(d.now, d.timeZone)],
   ]);
-  const changed = d.grids.filter((g) => g.reason || g.layout === 'centreline');
-  if (changed.length > 0) {
+  const noted = d.grids.filter((g) => g.reason || g.layout === 'centreline' || g.surface !== 'working_plane');
+  if (noted.length > 0) {
     const zoneNames = new Map(d.plans.flatMap((p) => p.zones.map((z) => [z.id, z.name] as const)));
     doc.moveDown(0.3);
-    keyValues(doc, changed.map((g) => [zoneNames.get(g.zoneId) ?? g.code, [g.layout === 'centreline' ? GRID_LAYOUT_TEXT.centreline : null, g.reason ? `Changed grid: ${g.reason}` : null].filter(Boolean).join('. ')]));
+    keyValues(doc, noted.map((g) => [`${zoneNames.get(g.zoneId) ?? g.code}${g.surface === 'working_plane' ? '' : `, ${g.surface === 'walls' ? 'walls' : 'ceiling'}`}`, [
+      g.surface !== 'working_plane' ? GRID_SURFACE_TEXT[g.surface] + (g.wallHeightM !== null ? ` (room height ${metres(g.wallHeightM)} m)` : '') : null,
+      g.layout === 'centreline' ? GRID_LAYOUT_TEXT.centreline : null, g.reason ? `Changed grid: ${g.reason}` : null,
+    ].filter(Boolean).join('. ')]));
   }
 
   section(doc, 'Conditions (fill in on site)');
@@ -154,9 +168,9 @@ function renderWalkSheet(d: { db: Db; survey: SurveyRow; siteName: string; timeZ
     drawPlan(doc, wp);
     section(doc, `Points on ${wp.plan.name}`);
     table(doc, [
-      { title: 'Label', width: 64 }, { title: 'Zone', width: 96 }, { title: 'x (m)', width: 44 }, { title: 'y (m)', width: 44 },
-      { title: 'Reading (lx)', width: 70 }, { title: 'Time', width: 56 }, { title: 'Note', width: CONTENT_W - 374 },
-    ], wp.points.map((p) => [p.label, p.zoneName, metres(p.xM), metres(p.yM), '', '', '']));
+      { title: 'Label', width: 64 }, { title: 'Zone', width: 80 }, { title: 'x (m)', width: 40 }, { title: 'y (m)', width: 40 },
+      { title: 'Read on', width: 84 }, { title: 'Reading (lx)', width: 62 }, { title: 'Time', width: 44 }, { title: 'Note', width: CONTENT_W - 414 },
+    ], wp.points.map((p) => [p.label, p.zoneName, metres(p.xM), metres(p.yM), surfaceText(p), '', '', '']));
   }
   doc.end();
   return done;

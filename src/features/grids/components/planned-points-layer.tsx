@@ -1,7 +1,7 @@
 import { useEffect, useRef } from 'react';
 import L from 'leaflet';
 import { useMap } from 'react-leaflet';
-import type { PlannedPoint } from '@shared/schemas/planned-points';
+import { PLANNED_PLANE_LABELS, type PlannedPoint } from '@shared/schemas/planned-points';
 import type { PlanPoint } from '@shared/spatial/polygon';
 
 export type PlannedPointsLayerProps = {
@@ -14,11 +14,17 @@ export type PlannedPointsLayerProps = {
   onMove?: (p: PlannedPoint, to: PlanPoint) => void;
 };
 
+/** Where a planned point is read, in words: the working plane, a wall at a height and facing, or the ceiling. */
+export function plannedPlaceText(p: Pick<PlannedPoint, 'plane' | 'heightM' | 'azimuthDeg'>): string {
+  if (p.plane === 'wall') return `${PLANNED_PLANE_LABELS.wall}, ${(p.heightM ?? 0).toFixed(2)} m up, facing ${Math.round(p.azimuthDeg ?? 0)}°`;
+  return PLANNED_PLANE_LABELS[p.plane];
+}
+
 const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 
 /**
  * Planned points as small focusable markers with their labels: filled when a reading names the
- * point (visited), a ring when not yet. Markers are DOM elements (Leaflet divIcons) so they can be
+ * point (visited), a ring when not yet; round on the working plane, square on a wall, a diamond on the ceiling. Markers are DOM elements (Leaflet divIcons) so they can be
  * dragged, focused with Tab and chosen with Enter.
  */
 export function PlannedPointsLayer({ points, draggable = false, selectedId = null, showLabels = true, onSelect, onMove }: PlannedPointsLayerProps) {
@@ -30,11 +36,12 @@ export function PlannedPointsLayer({ points, draggable = false, selectedId = nul
     const group = L.layerGroup();
     for (const p of points) {
       const visited = p.readingCount > 0;
-      const html = `<span class="lt-pp-dot${visited ? ' is-visited' : ''}${p.id === selectedId ? ' is-selected' : ''}"></span>${showLabels ? `<span class="lt-pp-label">${escapeHtml(p.label)}</span>` : ''}`;
+      const surface = p.plane === 'horizontal' ? '' : ` is-${p.plane}`;
+      const html = `<span class="lt-pp-dot${surface}${visited ? ' is-visited' : ''}${p.id === selectedId ? ' is-selected' : ''}"></span>${showLabels ? `<span class="lt-pp-label">${escapeHtml(p.label)}</span>` : ''}`;
       const marker = L.marker([p.yM, p.xM], {
         icon: L.divIcon({ className: 'lt-pp', html, iconSize: [12, 12], iconAnchor: [6, 6] }),
         draggable, keyboard: true, autoPan: true,
-        title: `${p.label}: ${visited ? `${p.readingCount} reading(s)` : 'no reading yet'}`,
+        title: `${p.label} (${plannedPlaceText(p)}): ${visited ? `${p.readingCount} reading(s)` : 'no reading yet'}`,
         alt: p.label,
         riseOnHover: true,
       });
