@@ -110,6 +110,7 @@ export type CriteriaSetBody = z.input<typeof criteriaSetBodySchema>;
 
 export const criteriaSetSchema = criteriaSetBodySchema.extend({ key: z.string(), builtIn: z.boolean() });
 export type CriteriaSetDto = z.infer<typeof criteriaSetSchema>;
+export const criteriaSetKeyParamsSchema = z.object({ key: z.string().min(1).max(40) });
 export const criteriaSetListSchema = z.object({ items: z.array(criteriaSetSchema) });
 
 // The API's check shape and the core's must stay one: this fails to compile if they drift.
@@ -210,6 +211,8 @@ export const emergencySurveySchema = z.object({
   warnings: z.array(z.string()),
   cautions: z.array(z.string()),
   canEdit: z.boolean(),
+  /** Set once signed off: the verdicts, criteria and logbook shown are those frozen at that moment. */
+  frozenAt: z.string().nullable(),
 });
 export type EmergencySurvey = z.infer<typeof emergencySurveySchema>;
 

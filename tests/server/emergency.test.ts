@@ -4,6 +4,8 @@ import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
 import { conditions, emergencySite, EQUIPMENT, HIGH_RISK, insertTimedReadings, MAINS_OFF, OPEN, ROUTE } from './emergency-fixtures';
 import { insertSite, orgOf } from './plans-fixtures';
 import { EN_1838_2013 } from '@shared/core/emergency';
+import { eq } from 'drizzle-orm';
+import { outboxAttachments } from '@server/db/schema/organizations';
 
 let t: TestApp;
 let admin: TestClient;
@@ -332,4 +334,68 @@ it('the emergency survey is on the plain survey list too, so logs upload through
   expect(list.body.items.map((s: { id: number }) => s.id)).toContain(surveyId);
   expect((await fm.get(`/api/emergency/surveys?siteId=${siteId}`)).body.items[0]).toMatchObject({ surveyId, criteriaSetKey: 'en-1838-2013' });
   expect(MAINS_OFF).toBeLessThan(t.clock.now());
+});
+
+describe('sign-off freezes an emergency survey (the same surveys.frozen snapshot as every survey)', () => {
+  it('keeps its verdicts, criteria set, logbook and report when the set, the route, the readings, the rule and the logbook change later', async () => {
+    const own = await admin.post('/api/emergency/criteria-sets').send({ name: 'Own copy of EN 1838:2013', source: 'Organisation policy: EN 1838:2013 as built in', requiredPasses: ['end_of_duration'], checks: EN_1838_2013.checks, notes: [] });
+    expect(own.status).toBe(201);
+    const { surveyId, planId, siteId, ids } = await surveyed(own.body.key);
+    insertTimedReadings(t, surveyId, planId, routeReadings());
+    await surveyor.put(`/api/emergency/surveys/${surveyId}/responses/${ids.R1}`).send({ toHalfS: 1.5, toFullS: 12 });
+    await fm.post(`/api/sites/${siteId}/emergency-tests`).send({ kind: 'functional', testedOn: '2026-11-02', testedBy: 'R. Quill', result: 'pass' });
+    expect((await surveyor.post(`/api/surveys/${surveyId}/submit`).send({})).status).toBe(200);
+    const signed = await fm.post(`/api/surveys/${surveyId}/sign-off`).send({ comment: 'Far end relamping ordered' });
+    expect(signed.status, JSON.stringify(signed.body)).toBe(200);
+
+    // The e-mailed report is the emergency report of what was frozen.
+    const mail = t.lastMail()!;
+    expect(mail.text).toMatch(/4 route\(s\), area\(s\) and equipment point\(s\): 0 meet, 1 fall short/);
+    const [attached] = t.db.select().from(outboxAttachments).where(eq(outboxAttachments.messageId, mail.id)).all();
+    const mailed = await pdfText(attached.content);
+    expect(mailed).toContain('Emergency lighting survey report');
+    expect(mailed).toContain('R1-C05 (end): 0.6200 lx');
+
+    const before = (await fm.get(`/api/emergency/surveys/${surveyId}`)).body;
+    expect(before.frozenAt).toEqual(expect.any(String));
+    const route = (s: typeof before) => s.elements.find((e: { element: { code: string } }) => e.element.code === 'R1');
+    expect(route(before).verdict).toBe('falls_short');
+    const reportBefore = await pdfText((await fm.get(`/api/emergency/surveys/${surveyId}/report.pdf`).buffer(true).parse(binary)).body);
+    expect(reportBefore).toContain('Signed off');
+
+    // Everything the verdicts stood on changes.
+    const relaxed = EN_1838_2013.checks.map((c) => (c.id === 'route-centre-min' && c.kind === 'min' ? { ...c, limit: { value: 0.5, unit: 'lx' } } : c));
+    expect((await admin.put(`/api/emergency/criteria-sets/${own.body.key}`).send({ name: 'Own set, relaxed', source: 'Changed after sign-off', requiredPasses: ['end_of_duration'], checks: relaxed, notes: [] })).status).toBe(200);
+    expect((await admin.put(`/api/emergency-elements/${ids.R1}`).send({ ...ROUTE, widthM: 1.2, spacingM: 2 })).status).toBe(200);
+    insertTimedReadings(t, surveyId, planId, routeReadings(1.3));
+    const rule = (await admin.get('/api/organization')).body.decisionRule;
+    expect((await admin.patch('/api/organization').send({ decisionRule: rule === 'guarded' ? 'simple' : 'guarded' })).status).toBe(200);
+    expect((await fm.post(`/api/sites/${siteId}/emergency-tests`).send({ kind: 'full_duration', testedOn: '2026-11-10', testedBy: 'R. Quill', result: 'pass' })).status).toBe(201);
+    try {
+      const after = (await fm.get(`/api/emergency/surveys/${surveyId}`)).body;
+      expect(after).toEqual(before);
+      const reportAfter = await pdfText((await fm.get(`/api/emergency/surveys/${surveyId}/report.pdf`).buffer(true).parse(binary)).body);
+      const stable = (text: string) => text.replace(/Report generated .*? Values in/, 'Values in');
+      expect(stable(reportAfter)).toBe(stable(reportBefore));
+      expect(reportAfter).not.toContain('Own set, relaxed');
+
+      // The same changes do reach a survey that is not signed off (so the comparison above can fail).
+      const live = await surveyor.post('/api/emergency/surveys').send({ siteId, name: 'Live twin', criteriaSetKey: own.body.key, conditions: conditions() });
+      insertTimedReadings(t, live.body.surveyId, planId, routeReadings());
+      const liveRoute = route((await fm.get(`/api/emergency/surveys/${live.body.surveyId}`)).body);
+      expect(liveRoute.element.widthM).toBe(1.2);
+      expect(liveRoute.checks.find((c: { checkId: string }) => c.checkId === 'route-centre-min').limit).toBe(0.5);
+      expect((await fm.get(`/api/emergency/surveys/${live.body.surveyId}`)).body.frozenAt).toBeNull();
+    } finally {
+      await admin.patch('/api/organization').send({ decisionRule: rule });
+    }
+  });
+
+  it('refuses to change an own set that is built in (404), of another organisation (404), or with a bad body (400)', async () => {
+    expect((await admin.put(`/api/emergency/criteria-sets/${EN_1838_2013.key}`).send({ name: 'x', source: 'y', requiredPasses: [], checks: EN_1838_2013.checks })).status).toBe(404);
+    const mine = await admin.post('/api/emergency/criteria-sets').send({ name: 'Mine', source: 'Policy', requiredPasses: [], checks: EN_1838_2013.checks.slice(0, 1) });
+    const other = await t.signIn(DEMO.otherAdmin);
+    expect((await other.put(`/api/emergency/criteria-sets/${mine.body.key}`).send({ name: 'x', source: 'y', requiredPasses: [], checks: EN_1838_2013.checks })).status).toBe(404);
+    expect((await admin.put(`/api/emergency/criteria-sets/${mine.body.key}`).send({ name: 'x', source: 'y', requiredPasses: [], checks: [] })).status).toBe(400);
+  });
 });

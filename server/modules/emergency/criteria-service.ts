@@ -25,13 +25,19 @@ export function listCriteriaSets(db: Db, organizationId: number): EmergencyCrite
   return [...BUILT_IN_CRITERIA_SETS, ...own.map(fromRow)];
 }
 
+/** The row id an organisation's key ("org-12") names, or null. */
+function ownSetId(key: string): number | null {
+  const m = new RegExp(`^${ORG_KEY_PREFIX}(\\d+)$`).exec(key);
+  return m ? Number(m[1]) : null;
+}
+
 /** A built-in set or one of the organisation's own; null if the key names neither. */
 export function findCriteriaSet(db: Db, organizationId: number, key: string): EmergencyCriteriaSet | null {
   const builtIn = BUILT_IN_CRITERIA_SETS.find((s) => s.key === key);
   if (builtIn) return builtIn;
-  const m = new RegExp(`^${ORG_KEY_PREFIX}(\\d+)$`).exec(key);
-  if (!m) return null;
-  const row = db.select().from(emergencyCriteriaSets).where(and(eq(emergencyCriteriaSets.id, Number(m[1])), eq(emergencyCriteriaSets.organizationId, organizationId))).get();
+  const id = ownSetId(key);
+  if (id === null) return null;
+  const row = db.select().from(emergencyCriteriaSets).where(and(eq(emergencyCriteriaSets.id, id), eq(emergencyCriteriaSets.organizationId, organizationId))).get();
   return row ? fromRow(row) : null;
 }
 
@@ -51,6 +57,24 @@ export function createCriteriaSet(deps: Deps, user: SessionUser, input: Criteria
     return r;
   });
   return presentCriteriaSet(fromRow(row));
+}
+
+/**
+ * Replaces one of the organisation's own sets (built-in sets answer 404 here: they are not the
+ * organisation's to change; base a set of your own on one instead). Surveys judged live follow
+ * the new values; signed-off surveys keep the set as frozen at sign-off.
+ */
+export function updateCriteriaSet(deps: Deps, user: SessionUser, key: string, input: CriteriaSetBody): CriteriaSetDto {
+  const body = criteriaSetBodySchema.parse(input);
+  const id = ownSetId(key);
+  const prev = id === null ? undefined : deps.db.select().from(emergencyCriteriaSets).where(and(eq(emergencyCriteriaSets.id, id), eq(emergencyCriteriaSets.organizationId, user.organizationId))).get();
+  if (!prev) throw notFound('Criteria set of your organisation');
+  const now = deps.clock.now();
+  deps.db.transaction((tx) => {
+    tx.update(emergencyCriteriaSets).set(body).where(eq(emergencyCriteriaSets.id, prev.id)).run();
+    recordAudit(tx, { organizationId: user.organizationId, actorId: user.id, entityType: 'emergency_criteria_set', entityId: prev.id, action: 'updated', before: { name: prev.name, source: prev.source, requiredPasses: prev.requiredPasses, checks: prev.checks, notes: prev.notes }, after: body, at: now });
+  });
+  return presentCriteriaSet(fromRow(deps.db.select().from(emergencyCriteriaSets).where(eq(emergencyCriteriaSets.id, prev.id)).get()!));
 }
 
 export function getCriteriaSetOrNotFound(db: Db, organizationId: number, key: string): EmergencyCriteriaSet {

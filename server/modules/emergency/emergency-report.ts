@@ -12,7 +12,8 @@ import {
   UNCERTAINTY_STATEMENT, VERDICT_COLOURS, type ReportUnit,
 } from '../reports/report-pdf';
 import { reportFilename } from '../reports/reports-service';
-import { judgeEmergencySurvey } from './emergency-surveys-service';
+import { frozenEmergencyOf, getEmergencySurveyRow, judgeEmergencySurvey, presentJudged } from './emergency-surveys-service';
+import { findSurveyInOrganization, type SurveyRow } from '../surveys/surveys-service';
 import { siteLogbook } from './logbook-service';
 
 const VERDICT_WORDS = { meets: 'Meets', falls_short: 'Falls short', inconclusive: 'Inconclusive', not_judged: 'Not judged' } as const;
@@ -32,11 +33,40 @@ const boundWord = (b: string | null) => (b === 'lower' ? ' (lower bound)' : b ==
 /** The emergency survey report (the same pdfkit pipeline and fonts as the survey report). */
 export async function emergencyReportPdf(deps: Deps, user: SessionUser, surveyId: number, unit: ReportUnit) {
   const s = judgeEmergencySurvey(deps.db, user, surveyId);
-  const logbook = siteLogbook(deps, user, s.siteId, REPORT_LOGBOOK_ENTRIES);
-  const org = deps.db.select().from(organizations).where(eq(organizations.id, user.organizationId)).get()!;
+  // A signed-off survey reports the logbook as it stood at sign-off.
+  const frozen = frozenEmergencyOf(getEmergencySurveyRow(deps.db, user, surveyId).survey);
+  return renderEmergencyReportFile(deps, user.organizationId, s, frozen?.logbook ?? reportLogbook(deps, user, s.siteId), unit);
+}
+
+/** The attachment kind a queued message names to have a signed-off emergency survey's report built at delivery. */
+export const EMERGENCY_REPORT_ATTACHMENT = 'emergency_report';
+
+/** A pending attachment: the signed-off emergency survey's report, built from its frozen record when the mail is delivered. */
+export function emergencyReportAttachment(survey: Pick<SurveyRow, 'id' | 'name' | 'organizationId'>, unit: ReportUnit = 'lx') {
+  return { kind: EMERGENCY_REPORT_ATTACHMENT, filename: reportFilename(survey, 'pdf', 'emergency-report'), params: { surveyId: survey.id, organizationId: survey.organizationId, unit } };
+}
+
+export function registerEmergencyReportAttachment(deps: Deps) {
+  deps.mailer.attachmentBuilder(EMERGENCY_REPORT_ATTACHMENT, async (params) => {
+    const { surveyId, organizationId, unit } = params as { surveyId: number; organizationId: number; unit: ReportUnit };
+    const row = findSurveyInOrganization(deps.db, organizationId, surveyId);
+    const frozen = row ? frozenEmergencyOf(row) : null;
+    if (!row || !frozen) throw new Error(`Survey ${surveyId} is not a signed-off emergency survey; its report cannot be attached`);
+    return renderEmergencyReportFile(deps, organizationId, presentJudged(row, frozen.judged, false), frozen.logbook, unit);
+  });
+}
+
+/** The logbook part a report shows (its latest entries). */
+export function reportLogbook(deps: Deps, user: SessionUser, siteId: number): SiteLogbook {
+  return siteLogbook(deps, user, siteId, REPORT_LOGBOOK_ENTRIES);
+}
+
+/** The report of an emergency survey answer as given (live, or a signed-off survey's frozen one). */
+export async function renderEmergencyReportFile(deps: Deps, organizationId: number, s: EmergencySurvey, logbook: SiteLogbook, unit: ReportUnit) {
+  const org = deps.db.select().from(organizations).where(eq(organizations.id, organizationId)).get()!;
   const sitePlans = deps.db.select().from(plans).where(eq(plans.siteId, s.siteId)).orderBy(asc(plans.id)).all();
   const content = await renderEmergencyReport(s, logbook, sitePlans.map((p) => ({ id: p.id, name: p.name, extent: planExtent(p) })), org.name, deps.clock.now(), unit);
-  return { filename: reportFilename({ id: s.surveyId, name: s.name }, 'pdf', 'emergency-report'), content };
+  return { filename: reportFilename({ id: s.surveyId, name: s.name }, 'pdf', 'emergency-report'), contentType: 'application/pdf', content };
 }
 
 type PlanInfo = { id: number; name: string; extent: { widthM: number; heightM: number } | null };
@@ -54,6 +84,7 @@ export function renderEmergencyReport(s: EmergencySurvey, logbook: SiteLogbook, 
   keyValues(doc, [
     ['Site', s.siteName],
     ['Survey', `${s.name} (${s.status.replace('_', ' ')})`],
+    ...(s.frozenAt ? [['Signed off', `${formatDateTime(Date.parse(s.frozenAt), s.siteTimeZone)}: verdicts, criteria and logbook as they stood then`] as [string, string]] : []),
     ['Surveyed on', s.startedOn ?? 'not stated'],
     ['Overall', VERDICT_WORDS[s.verdict]],
     ['Report generated', formatDateTime(generatedAt, s.siteTimeZone)],

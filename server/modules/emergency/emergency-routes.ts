@@ -3,22 +3,23 @@ import type { Api } from '../../http/api';
 import type { Deps } from '../../deps';
 import { idParamsSchema } from '@shared/schemas/common';
 import {
-  createEmergencySurveyBodySchema, criteriaSetBodySchema, criteriaSetListSchema, criteriaSetSchema, elementResponseParamsSchema,
+  createEmergencySurveyBodySchema, criteriaSetBodySchema, criteriaSetKeyParamsSchema, criteriaSetListSchema, criteriaSetSchema, elementResponseParamsSchema,
   emergencyElementBodySchema, emergencyElementListSchema, emergencyElementSchema, emergencySurveyListQuerySchema, emergencySurveyListSchema,
   emergencySurveySchema, logbookEntryBodySchema, logbookEntrySchema, logbookQuerySchema, responseTimesBodySchema, siteLogbookSchema,
   testScheduleSchema, testsDueOverviewSchema, updateEmergencySurveyBodySchema,
 } from '@shared/schemas/emergency';
 import { createElement, deleteElement, listElements, updateElement } from './elements-service';
-import { createCriteriaSet, listCriteriaSets, presentCriteriaSet } from './criteria-service';
+import { createCriteriaSet, listCriteriaSets, presentCriteriaSet, updateCriteriaSet } from './criteria-service';
 import { createEmergencySurvey, judgeEmergencySurvey, listEmergencySurveys, setResponseTimes, updateEmergencySurvey } from './emergency-surveys-service';
 import { addLogbookEntry, scheduleOf, setSchedule, siteLogbook, testsDueOverview } from './logbook-service';
 import { runEmergencyTestReminders } from './test-reminders-service';
-import { emergencyReportPdf } from './emergency-report';
+import { emergencyReportPdf, registerEmergencyReportAttachment } from './emergency-report';
 
 const reminderRunSchema = z.object({ messagesSent: z.number().int(), reminded: z.array(z.object({ siteId: z.number().int(), kind: z.enum(['functional', 'full_duration']), state: z.enum(['due_soon', 'overdue']), dueOn: z.string() })) });
 
 /** Emergency lighting: elements on plans, criteria sets, emergency surveys and verdicts, the test logbook, the report. */
 export function registerEmergencyRoutes(api: Api, deps: Deps) {
+  registerEmergencyReportAttachment(deps);
   api.route({ method: 'get', path: '/plans/:id/emergency-elements', access: 'sites.read', tag: 'emergency', summary: 'Escape routes, open and high-risk areas and safety equipment drawn on a plan, with their planned points', params: idParamsSchema, response: emergencyElementListSchema },
     ({ user, params }) => ({ items: listElements(deps.db, user, params.id) }));
   api.route({ method: 'post', path: '/plans/:id/emergency-elements', access: 'plans.write', tag: 'emergency', summary: 'Draw an escape route (centre line, width, stair), an open or high-risk area (outline) or a safety-equipment point; 422 names each geometric problem, 409 a code in use', params: idParamsSchema, body: emergencyElementBodySchema, status: 201, response: emergencyElementSchema },
@@ -32,6 +33,8 @@ export function registerEmergencyRoutes(api: Api, deps: Deps) {
     ({ user }) => ({ items: listCriteriaSets(deps.db, user.organizationId).map(presentCriteriaSet) }));
   api.route({ method: 'post', path: '/emergency/criteria-sets', access: 'organization.settings', tag: 'emergency', summary: 'Add an organisation\'s own criteria set (checks as data, each naming its source)', body: criteriaSetBodySchema, status: 201, response: criteriaSetSchema },
     ({ user, body }) => createCriteriaSet(deps, user, body));
+  api.route({ method: 'put', path: '/emergency/criteria-sets/:key', access: 'organization.settings', tag: 'emergency', summary: 'Replace one of the organisation\'s own criteria sets (built-in sets answer 404: base a set of your own on one); signed-off surveys keep the set they were frozen with', params: criteriaSetKeyParamsSchema, body: criteriaSetBodySchema, response: criteriaSetSchema },
+    ({ user, params, body }) => updateCriteriaSet(deps, user, params.key, body));
 
   api.route({ method: 'get', path: '/emergency/surveys', access: 'surveys.read', tag: 'emergency', summary: 'Emergency surveys', query: emergencySurveyListQuerySchema, response: emergencySurveyListSchema },
     ({ user, query }) => ({ items: listEmergencySurveys(deps.db, user, query.siteId) }));

@@ -12,15 +12,16 @@ import { passOfReading, passTimingWarnings } from '@shared/core/emergency-schedu
 import { areaRoleAt, routeRoleAt } from '@shared/spatial/emergency-points';
 import {
   createEmergencySurveyBodySchema, EMERGENCY_CAUTIONS, updateEmergencySurveyBodySchema,
-  type CreateEmergencySurveyBody, type ElementVerdict, type EmergencyConditions, type EmergencySurvey, type ResponseTimesBody,
+  type CreateEmergencySurveyBody, type ElementVerdict, type EmergencyConditions, type EmergencySurvey, type ResponseTimesBody, type SiteLogbook,
 } from '@shared/schemas/emergency';
 import { notFound } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
 import { getSiteRow, siteConditions } from '../sites/sites-service';
-import { assertSurveyAbility, getSurveyRow } from '../surveys/surveys-service';
+import { assertSurveyAbility, getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
 import { surveyAbilities } from '@shared/survey-abilities';
 import { decisionRuleOf } from '../organization/organization-service';
 import { loadCurrentReadings } from '../compliance/compliance-repository';
+import { frozenOf, type FrozenCompliance } from '../compliance/compliance-service';
 import { toCoreReading, type JudgeReading } from '../compliance/judge-zones';
 import { elementsOfPlans, presentElement, plannedPointsOf, type ElementRow } from './elements-service';
 import { presentCriteriaSet, requireCriteriaSet } from './criteria-service';
@@ -69,13 +70,52 @@ function matcher(elements: ElementRow[]) {
   };
 }
 
+/** The judgement without what depends on the moment or the caller (status, abilities, frozen time). */
+type JudgedEmergency = Omit<EmergencySurvey, 'status' | 'canEdit' | 'frozenAt'>;
+
+/**
+ * What a sign-off keeps of an emergency survey, in surveys.frozen beside the zone snapshot the
+ * workflow freezes for every survey (compliance-service's FrozenCompliance): the verdicts as
+ * judged then, and the logbook as it stood, so later changes to criteria sets, elements,
+ * readings, the rule or the logbook never alter a signed-off survey or its report.
+ */
+export type FrozenEmergency = { version: 1; judged: JudgedEmergency; logbook: SiteLogbook };
+type FrozenWithEmergency = FrozenCompliance & { emergency?: FrozenEmergency };
+
+/** The emergency part of a signed-off survey's snapshot, or null (not signed off, or not an emergency survey). */
+export function frozenEmergencyOf(survey: SurveyRow): FrozenEmergency | null {
+  return (frozenOf(survey) as FrozenWithEmergency | null)?.emergency ?? null;
+}
+
+/**
+ * The emergency snapshot to add to surveys.frozen at sign-off, or null for a survey that is not
+ * an emergency survey. Called by the workflow's sign-off inside its one freezing step.
+ */
+export function freezeEmergency(db: Db, user: SessionUser, survey: SurveyRow, logbook: (siteId: number) => SiteLogbook): FrozenEmergency | null {
+  const em = db.select().from(emergencySurveys).where(eq(emergencySurveys.surveyId, survey.id)).get();
+  if (!em) return null;
+  const row = getSurveyRow(db, user, survey.id);
+  return { version: 1, judged: liveEmergencyJudgement(db, user, row, em), logbook: logbook(survey.siteId) };
+}
+
+/** An emergency survey's answer: the frozen judgement once signed off, else judged now. */
+export function judgeEmergencySurvey(db: Db, user: SessionUser, surveyId: number): EmergencySurvey {
+  const { survey, em } = getEmergencySurveyRow(db, user, surveyId);
+  return presentJudged(survey, frozenEmergencyOf(survey)?.judged ?? liveEmergencyJudgement(db, user, survey, em), surveyAbilities(user, survey).edit);
+}
+
+/** The answer for a survey row and its judgement (live, or frozen at sign-off). */
+export function presentJudged(survey: SurveyRow, judged: JudgedEmergency, canEdit: boolean): EmergencySurvey {
+  const frozen = survey.status === 'signed_off' ? (survey.frozen as FrozenWithEmergency | null) : null;
+  return { ...judged, status: survey.status, canEdit, frozenAt: frozen?.emergency ? new Date(frozen.frozenAt).toISOString() : null };
+}
+
 /**
  * Judges every element of the survey's site in each pass (shared/core/emergency) under the
  * organisation's decision rule. Readings are split into passes by time from the mains failing
  * (passOfReading); those before it belong to no pass and are counted.
  */
-export function judgeEmergencySurvey(db: Db, user: SessionUser, surveyId: number): EmergencySurvey {
-  const { survey, em } = getEmergencySurveyRow(db, user, surveyId);
+function liveEmergencyJudgement(db: Db, user: SessionUser, survey: SurveyRow & { site: { name: string; timeZone: string } }, em: EmergencyRow): JudgedEmergency {
   const set = requireCriteriaSet(db, user.organizationId, em.criteriaSetKey);
   const rule = decisionRuleOf(db, user.organizationId);
   const sitePlans = db.select().from(plans).where(eq(plans.siteId, survey.siteId)).orderBy(asc(plans.id)).all();
@@ -137,12 +177,11 @@ export function judgeEmergencySurvey(db: Db, user: SessionUser, surveyId: number
   });
 
   return {
-    surveyId: survey.id, name: survey.name, siteId: survey.siteId, siteName: survey.site.name, siteTimeZone: survey.site.timeZone, status: survey.status, startedOn: survey.startedOn,
+    surveyId: survey.id, name: survey.name, siteId: survey.siteId, siteName: survey.site.name, siteTimeZone: survey.site.timeZone, startedOn: survey.startedOn,
     criteriaSet: presentCriteriaSet(set), conditions: conditionsOf(em), rule, ruleText: RULE_TEXT[rule],
     verdict: combineElementVerdicts(elementVerdicts.map((v) => v.verdict)),
     passes, elements: elementVerdicts, readingsBeforeMainsOff: before, readingsUnmatched: unmatched, warnings,
     cautions: [...EMERGENCY_CAUTIONS, ...set.notes],
-    canEdit: surveyAbilities(user, survey).edit,
   };
 }
 

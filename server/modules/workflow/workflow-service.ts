@@ -12,6 +12,8 @@ import { assertSurveyAbility, getSurveyRow, type SurveyRow } from '../surveys/su
 import { WORKED_ON_STATUSES } from '@shared/survey-abilities';
 import { buildFrozen, countVerdicts } from '../compliance/compliance-service';
 import { reportAttachment } from '../reports/reports-service';
+import { freezeEmergency } from '../emergency/emergency-surveys-service';
+import { emergencyReportAttachment, reportLogbook } from '../emergency/emergency-report';
 import { absoluteUrl, paths } from '@shared/paths';
 
 function userById(db: Db, id: number | null) {
@@ -77,7 +79,9 @@ export function signOffSurvey(deps: Deps, actor: SessionUser, surveyId: number, 
   const survey = getSurveyRow(deps.db, actor, surveyId);
   assertSurveyAbility(actor, survey, 'signOff');
   const now = deps.clock.now();
-  const frozen = buildFrozen(deps.db, actor.organizationId, survey, now);
+  // An emergency survey's verdicts and logbook are frozen in the same snapshot (emergency-surveys-service).
+  const emergency = freezeEmergency(deps.db, actor, survey, (siteId) => reportLogbook(deps, actor, siteId));
+  const frozen = { ...buildFrozen(deps.db, actor.organizationId, survey, now), ...(emergency ? { emergency } : {}) };
   const surveyor = surveyorOf(deps.db, survey);
   const to = [...new Set([surveyor?.email, actor.email].filter((e): e is string => !!e))];
   const counts = countVerdicts(frozen.zones);
@@ -88,19 +92,27 @@ export function signOffSurvey(deps: Deps, actor: SessionUser, surveyId: number, 
     recordAudit(tx, {
       organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'signed_off',
       before: { status: survey.status },
-      after: { status: 'signed_off', comment: body.comment ?? null, rule: frozen.rule, counts, decodeId: frozen.decodeId, targetIds: frozen.targets.map((t) => t.id), coefficientSetIds: frozen.coefficientSets.map((s) => s.id) },
+      after: { status: 'signed_off', comment: body.comment ?? null, rule: frozen.rule, counts, decodeId: frozen.decodeId, targetIds: frozen.targets.map((t) => t.id), coefficientSetIds: frozen.coefficientSets.map((s) => s.id), ...(emergency ? { emergencyVerdict: emergency.judged.verdict, criteriaSetKey: emergency.judged.criteriaSet.key } : {}) },
       at: now,
     });
     deps.mailer.queue(tx, {
       to, organizationId: actor.organizationId,
       subject: `Survey signed off: ${survey.site.name}, ${survey.name}`,
       text: `${actor.name} signed off "${survey.name}" at ${survey.site.name}.\n${body.comment ? `\nComment:\n${body.comment}\n` : ''}\n`
-        + `${counts.meets} zone(s) ${VERDICT_LABELS.meets.toLowerCase()}, ${counts.falls_short} ${VERDICT_LABELS.falls_short.toLowerCase()}, ${counts.inconclusive} inconclusive, ${counts.not_assessed} not assessed (decision rule: ${frozen.rule}).\n`
+        + (emergency ? `${emergencyCounts(emergency.judged.elements)} (criteria: ${emergency.judged.criteriaSet.name}; decision rule: ${frozen.rule}).\n`
+          : `${counts.meets} zone(s) ${VERDICT_LABELS.meets.toLowerCase()}, ${counts.falls_short} ${VERDICT_LABELS.falls_short.toLowerCase()}, ${counts.inconclusive} inconclusive, ${counts.not_assessed} not assessed (decision rule: ${frozen.rule}).\n`)
         + '\nThe signed-off report is attached. The survey is now read-only.\n',
-      pendingAttachments: [reportAttachment(survey)],
+      // An emergency survey's report is the emergency report, built from the same frozen record.
+      pendingAttachments: [emergency ? emergencyReportAttachment(survey) : reportAttachment(survey)],
     });
   });
   return state(deps.db, survey.id, to);
+}
+
+/** "4 route(s), area(s) and equipment point(s): 2 meet, 1 fall short, ..." for the sign-off e-mail. */
+function emergencyCounts(elements: { verdict: string }[]): string {
+  const n = (v: string) => elements.filter((e) => e.verdict === v).length;
+  return `${elements.length} route(s), area(s) and equipment point(s): ${n('meets')} meet, ${n('falls_short')} fall short, ${n('inconclusive')} inconclusive, ${n('not_judged')} not judged`;
 }
 
 /** Returns a submitted survey to the surveyor with a comment saying what to change. */

@@ -37,6 +37,10 @@ export const emergencyExamples: RouteExamples = {
   'DELETE /emergency-elements/:id': async (t) => ({ path: `/api/emergency-elements/${(await withRoute(t)).elementId}`, okStatus: 204 }),
   'GET /emergency/criteria-sets': () => ({ path: '/api/emergency/criteria-sets' }),
   'POST /emergency/criteria-sets': () => ({ path: '/api/emergency/criteria-sets', body: ownSet, okStatus: 201 }),
+  'PUT /emergency/criteria-sets/:key': async (t) => {
+    const made = await (await adminOf(t)).post('/api/emergency/criteria-sets').send(ownSet);
+    return { path: `/api/emergency/criteria-sets/${made.body.key as string}`, body: { ...ownSet, name: 'Matrix set, revised' } };
+  },
   'GET /emergency/surveys': () => ({ path: '/api/emergency/surveys' }),
   'POST /emergency/surveys': (t) => ({ path: '/api/emergency/surveys', body: { siteId: insertSite(t, orgOf(t, DEMO.admin), `Matrix site ${n++}`), name: 'Matrix', criteriaSetKey: EN_1838_2013.key, conditions: conditions() }, okStatus: 201 }),
   'GET /emergency/surveys/:id': async (t) => ({ path: `/api/emergency/surveys/${(await withSurvey(t)).surveyId}` }),

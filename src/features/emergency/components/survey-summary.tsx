@@ -22,6 +22,11 @@ export function SurveySummary({ survey }: { survey: EmergencySurvey }) {
           <dt className="text-ink-500">Mains cut</dt><dd>{formatSiteTime(c.mainsOffAt, survey.siteTimeZone)} ({survey.siteTimeZone})</dd>
           <dt className="text-ink-500">Normal lighting</dt><dd>{c.normalLightingOff ? 'Off' : 'On: readings include it'}; daylight {c.daylightExcluded ? 'excluded' : 'present'}</dd>
         </dl>
+        {survey.frozenAt && (
+          <p className="rounded-lg bg-ink-50 px-3 py-2 text-ink-700 ring-1 ring-ink-100" data-testid="frozen-note">
+            Signed off {formatSiteTime(survey.frozenAt, survey.siteTimeZone)}: the verdicts, criteria set and logbook shown here and in the report are those frozen then; later changes do not alter them.
+          </p>
+        )}
         <ul className="grid gap-2 sm:grid-cols-2" aria-label="Passes">
           {survey.passes.map((p) => (
             <li key={p.pass} className="rounded-lg bg-ink-50 px-3 py-2 ring-1 ring-ink-100" data-testid={`pass-${p.pass}`}>
