@@ -58,4 +58,25 @@ describe('verdicts, sign-off and the report in a real browser', () => {
     expect(pdf.headers()['content-type']).toBe('application/pdf');
     expect((await pdf.body()).subarray(0, 5).toString()).toBe('%PDF-');
   });
+  it('the commissioned office shows its desk cluster\'s surrounding and background bands on the plan, each with its verdict in words, and they can be hidden', { timeout: 120_000 }, async () => {
+    const page = await app.newPage();
+    await signInAs(page, 'facilities@luxtrail.test');
+    await page.goto('/compliance');
+    await page.getByRole('heading', { name: 'Sites and verdicts' }).waitFor();
+    const site = page.getByRole('listitem').filter({ hasText: 'Fernmoor Trust office, Kiln Street' });
+    await site.getByRole('link').first().click();
+    await page.getByTestId('zone-table').waitFor();
+    const legend = page.getByTestId('task-bands-legend');
+    await legend.waitFor({ timeout: 60_000 });
+    await expect.poll(() => legend.innerText()).toMatch(/Desk cluster, immediate surrounding area \([\d.]+ m²\): /);
+    await expect.poll(() => legend.innerText()).toMatch(/Desk cluster, background area \([\d.]+ m²\): /);
+    // Drawn on the plan: one dash-dotted (surrounding) and one dotted (background) outline.
+    const dashed = page.locator('.leaflet-overlay-pane path[stroke-dasharray="10 3 2 3"]');
+    const dotted = page.locator('.leaflet-overlay-pane path[stroke-dasharray="1 5"]');
+    await expect.poll(() => dashed.count()).toBe(1);
+    await expect.poll(() => dotted.count()).toBe(1);
+    await page.getByLabel('Bands around task areas').uncheck();
+    await expect.poll(() => dashed.count()).toBe(0);
+    await expect.poll(() => legend.count()).toBe(0);
+  });
 });

@@ -14,6 +14,7 @@ import { ZoneTable } from '@/features/compliance/components/zone-table';
 import { RuleNote } from '@/features/compliance/components/rule-note';
 import { SafetyCaution } from '@/features/compliance/components/safety-caution';
 import { VerdictBadge, VERDICT_FILL } from '@/features/compliance/components/verdict-badge';
+import { TaskBandsLayer, TaskBandsLegend, taskBandsOf } from '@/features/compliance/components/task-bands-layer';
 import { WorkflowActions } from '@/features/compliance/components/workflow-actions';
 import { ReportDownloads } from '@/features/reports/components/report-downloads';
 import { SendReportForm } from '@/features/reports/components/send-report-form';
@@ -97,6 +98,8 @@ function VerdictMap({ compliance }: { compliance: ComplianceResponse }) {
     return v ? { colour: VERDICT_FILL[v], opacity: 0.35, label: VERDICT_LABELS[v] } : null;
   };
   const plan = plans.data?.items.find((p) => p.id === planId);
+  const bands = useMemo(() => (planId === undefined ? [] : taskBandsOf(compliance.zones, planId)), [compliance.zones, planId]);
+  const [showBands, setShowBands] = useState(true);
   return (
     <Card>
       <CardHeader title="On the plan" description="Zones shaded by verdict; points coloured by illuminance." actions={plans.data && plans.data.items.length > 1 ? (
@@ -112,7 +115,21 @@ function VerdictMap({ compliance }: { compliance: ComplianceResponse }) {
                 <QueryState query={map} loadingLabel="Placing the readings…">
                   {(m) => (
                     <SurveyMapView plan={plan} zones={z.items} map={m} zoneFill={(zone) => fill(zone)}
-                      zoneLegend={<ul className="flex flex-wrap gap-2 text-xs" aria-label="Zone shading">{VERDICTS.map((v) => <li key={v} className="inline-flex items-center gap-1"><span className="inline-block h-3 w-3 rounded-sm" style={{ background: VERDICT_FILL[v], opacity: 0.6 }} aria-hidden /><VerdictBadge verdict={v} /></li>)}</ul>} />
+                      extraLayers={showBands && bands.length > 0 ? <TaskBandsLayer bands={bands} /> : undefined}
+                      zoneLegend={(
+                        <div className="space-y-2">
+                          <ul className="flex flex-wrap gap-2 text-xs" aria-label="Zone shading">{VERDICTS.map((v) => <li key={v} className="inline-flex items-center gap-1"><span className="inline-block h-3 w-3 rounded-sm" style={{ background: VERDICT_FILL[v], opacity: 0.6 }} aria-hidden /><VerdictBadge verdict={v} /></li>)}</ul>
+                          {bands.length > 0 && (
+                            <>
+                              <label className="inline-flex min-h-11 items-center gap-2 text-sm sm:min-h-0">
+                                <input type="checkbox" checked={showBands} onChange={(e) => setShowBands(e.target.checked)} />
+                                Bands around task areas
+                              </label>
+                              {showBands && <TaskBandsLegend bands={bands} />}
+                            </>
+                          )}
+                        </div>
+                      )} />
                   )}
                 </QueryState>
               )}
