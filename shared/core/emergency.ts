@@ -51,7 +51,7 @@ export type EmergencyCheck =
   | (CheckBase & { kind: 'share_of_normal'; scope: EmergencyScope; share: number; floor: Limit })
   /** share (0.5 = half, 1 = all) of the required level reached within withinS seconds of the mains failing. */
   | (CheckBase & { kind: 'response'; share: number; withinS: number })
-  /** Routes wider than this are surveyed as strips or as an open area. */
+  /** Routes wider than this are judged strip by strip (strips of at most this width, each as a route). */
   | (CheckBase & { kind: 'route_width'; maxWidthM: number });
 
 export interface EmergencyCriteriaSet {
@@ -67,6 +67,17 @@ export interface EmergencyCriteriaSet {
 
 const EN1838 = 'EN 1838:2013 (secondary sources; check against the text)';
 
+/**
+ * Widest escape route judged as one route: wider ones are taken as several strips of at most
+ * this width (EN 1838:2013 via secondary sources: "wider routes as several 2 m strips").
+ */
+export const ROUTE_STRIP_MAX_M = 2;
+
+/** How many equal strips of at most maxStripM a route of widthM is taken as (1 up to maxStripM). */
+export function routeStripCount(widthM: number, maxStripM = ROUTE_STRIP_MAX_M): number {
+  return widthM > maxStripM + 1e-9 ? Math.ceil(widthM / maxStripM - 1e-9) : 1;
+}
+
 /** EN 1838:2013, as summarised in secondary sources (see DOMAIN.md section 11). */
 export const EN_1838_2013: EmergencyCriteriaSet = {
   key: 'en-1838-2013',
@@ -77,7 +88,7 @@ export const EN_1838_2013: EmergencyCriteriaSet = {
     { id: 'route-centre-min', kind: 'min', appliesTo: ['escape_route'], scope: 'centre_line', pass: 'each', limit: { value: 1, unit: 'lx' }, source: `${EN1838}: at least 1 lx horizontal at floor level along the centre line (routes up to 2 m wide)` },
     { id: 'route-band-min', kind: 'min', appliesTo: ['escape_route'], scope: 'central_band', pass: 'each', limit: { value: 0.5, unit: 'lx' }, source: `${EN1838}: the central band, at least half the route's width, at least 50 % of the centre line's 1 lx` },
     { id: 'route-ratio', kind: 'max_min_ratio', appliesTo: ['escape_route'], scope: 'centre_line', pass: 'each', maxRatio: 40, source: `${EN1838}: Emax:Emin along the centre line at most 40:1` },
-    { id: 'route-width', kind: 'route_width', appliesTo: ['escape_route'], pass: 'each', maxWidthM: 2, source: `${EN1838}: wider routes are taken as several 2 m strips or as open areas` },
+    { id: 'route-width', kind: 'route_width', appliesTo: ['escape_route'], pass: 'each', maxWidthM: ROUTE_STRIP_MAX_M, source: `${EN1838}: wider routes are taken as several 2 m strips or as open areas (Luxtrail judges each strip as a route)` },
     { id: 'open-min', kind: 'min', appliesTo: ['open_area'], scope: 'area', pass: 'each', limit: { value: 0.5, unit: 'lx' }, source: `${EN1838}: at least 0.5 lx at the floor over the area less a 0.5 m border` },
     { id: 'open-ratio', kind: 'max_min_ratio', appliesTo: ['open_area'], scope: 'area', pass: 'each', maxRatio: 40, source: `${EN1838}: Emax:Emin at most 40:1` },
     { id: 'high-risk-min', kind: 'share_of_normal', appliesTo: ['high_risk_area'], scope: 'area', pass: 'each', share: 0.1, floor: { value: 15, unit: 'lx' }, source: `${EN1838}: at least 10 % of the normal lighting's maintained illuminance and never below 15 lx (judged at every point: the stricter reading, project's choice)` },
@@ -144,6 +155,8 @@ export interface EmergencyPoint {
   role: EmergencyPointRole;
   pass: EmergencyPass;
   reading: Reading;
+  /** A wide route's strip (1 = leftmost looking along the route), or null/absent. */
+  strip?: number | null;
 }
 
 export interface EmergencyElementInput {
@@ -250,6 +263,10 @@ function minOverMax(points: readonly EmergencyPoint[]) {
  */
 export function judgeEmergencyElement(element: EmergencyElementInput, set: EmergencyCriteriaSet, rule: AcceptanceRule): ElementResult {
   const checks = set.checks.filter((c) => c.appliesTo.includes(element.kind));
+  const widthCheck = checks.find((c): c is Extract<EmergencyCheck, { kind: 'route_width' }> => c.kind === 'route_width');
+  if (element.kind === 'escape_route' && widthCheck && element.widthM != null && routeStripCount(element.widthM, widthCheck.maxWidthM) > 1) {
+    return judgeRouteStrips(element, set, rule, widthCheck);
+  }
   const reasons: string[] = [];
   const results: CheckResult[] = [];
   const measuredPasses = EMERGENCY_PASSES.filter((p) => element.points.some((pt) => pt.pass === p));
@@ -365,6 +382,45 @@ export function judgeEmergencyElement(element: EmergencyElementInput, set: Emerg
     return pointResult(p, l?.limit ?? null, l?.verdict ?? 'not_judged');
   });
   return { verdict, checks: results, points, worstPoint: worstOf(element.points), reasons };
+}
+
+/**
+ * A route wider than the set's route width, judged as routeStripCount equal strips side by side,
+ * each as a route of its own (centre line, central band, ratio; points by their strip); the
+ * response times once for the whole route. It meets only if every strip does.
+ */
+function judgeRouteStrips(element: EmergencyElementInput, set: EmergencyCriteriaSet, rule: AcceptanceRule, widthCheck: Extract<EmergencyCheck, { kind: 'route_width' }>): ElementResult {
+  const width = element.widthM as number;
+  const n = routeStripCount(width, widthCheck.maxWidthM);
+  const stripWidth = width / n;
+  const stripSet: EmergencyCriteriaSet = { ...set, checks: set.checks.filter((c) => c.kind !== 'response' && c.kind !== 'route_width') };
+  const responseSet: EmergencyCriteriaSet = { ...set, requiredPasses: [], checks: set.checks.filter((c) => c.kind === 'response') };
+  const checks: CheckResult[] = [{
+    checkId: widthCheck.id, kind: 'route_width', pass: null, verdict: 'meets', value: width, valueBound: null, uncertainty: null, limit: widthCheck.maxWidthM, worstPoint: null, source: widthCheck.source, roundingNote: null,
+    text: `Route width ${width} m is over ${widthCheck.maxWidthM} m: judged as ${n} strips of ${Number(stripWidth.toFixed(3))} m side by side, each as a route (strip 1 on the left looking along the route).`,
+  }];
+  const reasons: string[] = [];
+  // Point results in the element's own order (callers pair them with their readings by index).
+  const pointOf = new Map<EmergencyPoint, PointResult>();
+  const verdicts: VerdictKind[] = [];
+  for (let k = 1; k <= n; k++) {
+    const mine = element.points.filter((p) => p.strip === k);
+    const sub = judgeEmergencyElement({ ...element, widthM: stripWidth, response: null, points: mine }, stripSet, rule);
+    checks.push(...sub.checks.map((c) => ({ ...c, checkId: `${c.checkId}/S${k}`, text: `Strip ${k} of ${n}: ${c.text}` })));
+    reasons.push(...sub.reasons.map((r) => `Strip ${k} of ${n}: ${r}`));
+    mine.forEach((p, i) => pointOf.set(p, sub.points[i]));
+    verdicts.push(sub.verdict === 'not_judged' ? 'inconclusive' : sub.verdict);
+  }
+  const response = judgeEmergencyElement({ ...element, widthM: stripWidth, points: [] }, responseSet, rule);
+  if (response.verdict !== 'not_judged') {
+    checks.push(...response.checks);
+    verdicts.push(response.verdict);
+    reasons.push(...response.reasons);
+  }
+  const outside = element.points.filter((p) => !(typeof p.strip === 'number' && p.strip >= 1 && p.strip <= n));
+  if (outside.length > 0) reasons.push(`${outside.length} reading(s) name no strip of this route, so they are shown but not judged: take wide routes' points from their strip labels or positions.`);
+  for (const p of outside) pointOf.set(p, pointResult(p, null, 'not_judged'));
+  return { verdict: combine(verdicts), checks, points: element.points.map((p) => pointOf.get(p) as PointResult), worstPoint: worstOf(element.points), reasons };
 }
 
 function pointResult(p: EmergencyPoint, limit: number | null, verdict: VerdictKind | 'not_judged'): PointResult {

@@ -54,7 +54,11 @@ export const emergencyElementBodySchema = z.discriminatedUnion('kind', [
 export type EmergencyElementBody = z.input<typeof emergencyElementBodySchema>;
 export type ParsedElementBody = z.output<typeof emergencyElementBodySchema>;
 
-export const plannedPointSchema = z.object({ label: z.string(), role: z.enum(EMERGENCY_POINT_ROLES), xM: z.number(), yM: z.number() });
+export const plannedPointSchema = z.object({
+  label: z.string(), role: z.enum(EMERGENCY_POINT_ROLES), xM: z.number(), yM: z.number(),
+  /** A route wider than 2 m: the strip the point belongs to (1 = leftmost looking along the route). */
+  strip: z.number().int().optional(),
+});
 export type PlannedPointDto = z.infer<typeof plannedPointSchema>;
 
 export const emergencyElementSchema = z.object({

@@ -4,9 +4,65 @@ import { booleanPointInPolygon } from '@turf/boolean-point-in-polygon';
 import { point as turfPoint } from '@turf/helpers';
 import { distanceToOutline, distanceToPolyline, toTurfPolygon, type PlanPoint } from './polygon';
 
-import type { EmergencyPointRole } from '../core/emergency';
+import { ROUTE_STRIP_MAX_M, routeStripCount, type EmergencyPointRole } from '../core/emergency';
 
-export interface PlannedPoint { label: string; role: EmergencyPointRole; xM: number; yM: number }
+export { ROUTE_STRIP_MAX_M, routeStripCount };
+
+export interface PlannedPoint {
+  label: string;
+  role: EmergencyPointRole;
+  xM: number;
+  yM: number;
+  /** The 2 m strip of a wider escape route the point belongs to (1 = leftmost looking along the route); absent otherwise. */
+  strip?: number;
+}
+
+/**
+ * The polyline offset sideways by d metres (positive: to the left looking along it), with mitred
+ * corners: each inner vertex moves along the bisector of its two segments' normals by
+ * d / cos(half the turn), so both offset segments stay exactly d from their originals. Very sharp
+ * turns (over about 160 degrees) are capped at 6 d to keep the corner on the plan.
+ */
+export function offsetPolyline(line: readonly PlanPoint[], d: number): PlanPoint[] {
+  const pts = line.filter((p, i) => i === 0 || p[0] !== line[i - 1][0] || p[1] !== line[i - 1][1]);
+  if (pts.length < 2 || d === 0) return pts.map((p) => [p[0], p[1]]);
+  const normals: PlanPoint[] = [];
+  for (let i = 1; i < pts.length; i++) {
+    const dx = pts[i][0] - pts[i - 1][0], dy = pts[i][1] - pts[i - 1][1];
+    const len = Math.hypot(dx, dy);
+    normals.push([-dy / len, dx / len]);
+  }
+  return pts.map((p, i) => {
+    if (i === 0) return [p[0] + normals[0][0] * d, p[1] + normals[0][1] * d];
+    if (i === pts.length - 1) return [p[0] + normals[i - 1][0] * d, p[1] + normals[i - 1][1] * d];
+    const a = normals[i - 1], b = normals[i];
+    const bx = a[0] + b[0], by = a[1] + b[1];
+    const bl = Math.hypot(bx, by);
+    if (bl < 1e-9) return [p[0] + a[0] * d, p[1] + a[1] * d];
+    const m: PlanPoint = [bx / bl, by / bl];
+    const stretch = Math.min(1 / (m[0] * a[0] + m[1] * a[1]), 6);
+    return [p[0] + m[0] * d * stretch, p[1] + m[1] * d * stretch];
+  });
+}
+
+export interface RouteStrip {
+  /** 1 = leftmost looking along the route. */
+  index: number;
+  /** The strip's own centre line. */
+  line: PlanPoint[];
+  widthM: number;
+}
+
+/**
+ * A route of widthM as n equal strips of at most maxStripM side by side, each with its centre
+ * line offset from the route's: strip k (1..n) lies widthM/2 - (k - 0.5) * widthM/n to the left.
+ * A route up to maxStripM is one strip on its own centre line.
+ */
+export function routeStrips(line: readonly PlanPoint[], widthM: number, maxStripM = ROUTE_STRIP_MAX_M): RouteStrip[] {
+  const n = routeStripCount(widthM, maxStripM);
+  const w = widthM / n;
+  return Array.from({ length: n }, (_, i) => ({ index: i + 1, widthM: w, line: n === 1 ? line.map((p): PlanPoint => [p[0], p[1]]) : offsetPolyline(line, widthM / 2 - (i + 0.5) * w) }));
+}
 
 /** Length of a polyline, metres. */
 export function polylineLength(line: readonly PlanPoint[]): number {
@@ -40,8 +96,16 @@ const round3 = (v: number) => Math.round(v * 1000) / 1000;
  * spacingM apart (both ends included, evenly spread), and at each, two points across the
  * central band at ±width/4 from the centre line (the band is half the route's width,
  * EN 1838:2013 via secondary sources). Labels `<code>-C01`, `<code>-L01`, `<code>-R01` (left and right looking along the route).
+ * A route wider than ROUTE_STRIP_MAX_M is planned strip by strip (routeStrips), each strip as a
+ * route of its own: labels `<code>-S1-C01`, `<code>-S1-L01`, … and each point names its strip.
  */
 export function plannedRoutePoints(code: string, line: readonly PlanPoint[], widthM: number, spacingM: number): PlannedPoint[] {
+  const strips = routeStrips(line, widthM);
+  if (strips.length === 1) return plannedStripPoints(code, line, widthM, spacingM);
+  return strips.flatMap((s) => plannedStripPoints(`${code}-S${s.index}`, s.line, s.widthM, spacingM).map((p) => ({ ...p, strip: s.index })));
+}
+
+function plannedStripPoints(code: string, line: readonly PlanPoint[], widthM: number, spacingM: number): PlannedPoint[] {
   const length = polylineLength(line);
   if (!(length > 0) || !(spacingM > 0)) return [];
   const n = Math.max(1, Math.ceil(length / spacingM - 1e-9));
@@ -102,6 +166,22 @@ export function routeRoleAt(p: PlanPoint, line: readonly PlanPoint[], widthM: nu
   if (d <= Math.min(CENTRE_LINE_TOLERANCE_M, widthM / 4)) return 'centre_line';
   if (d <= widthM / 4 + 1e-9) return 'central_band';
   return 'border';
+}
+
+/**
+ * Role and strip of a positioned reading in a route of any width: a route up to ROUTE_STRIP_MAX_M
+ * as routeRoleAt (strip null); a wider one by the strip whose centre line is nearest, with the
+ * roles taken within that strip.
+ */
+export function routeStripRoleAt(p: PlanPoint, line: readonly PlanPoint[], widthM: number): { role: EmergencyPointRole; strip: number | null } | null {
+  if (distanceToPolyline(p, line) > widthM / 2 + 1e-9) return null;
+  const strips = routeStrips(line, widthM);
+  if (strips.length === 1) {
+    const role = routeRoleAt(p, line, widthM);
+    return role ? { role, strip: null } : null;
+  }
+  const nearest = strips.map((s) => ({ s, d: distanceToPolyline(p, s.line) })).reduce((a, b) => (b.d < a.d ? b : a));
+  return { role: routeRoleAt(p, nearest.s.line, nearest.s.widthM) ?? 'border', strip: nearest.s.index };
 }
 
 /** Role of a positioned reading in an area: inside less the border ('area'), in the border, or outside (null). */

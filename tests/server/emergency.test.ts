@@ -401,3 +401,27 @@ describe('sign-off freezes an emergency survey (the same surveys.frozen snapshot
     expect((await admin.put(`/api/emergency/criteria-sets/${mine.body.key}`).send({ name: 'x', source: 'y', requiredPasses: [], checks: [] })).status).toBe(400);
   });
 });
+
+describe('a route wider than 2 m (EN 1838:2013 via secondary sources: several 2 m strips)', () => {
+  it('is planned and judged strip by strip: labels name the strip, a positioned reading joins the nearest strip, one dark strip fails the route', async () => {
+    const { siteId, planId } = await emergencySite(t, admin);
+    const wide = await surveyor.post(`/api/plans/${planId}/emergency-elements`).send({ ...ROUTE, code: 'W1', name: 'Main hall route', line: [[2, 4], [18, 4]], widthM: 4, spacingM: 8 });
+    expect(wide.status).toBe(201);
+    const labels = wide.body.plannedPoints.map((p: { label: string }) => p.label);
+    expect(labels).toEqual(expect.arrayContaining(['W1-S1-C01', 'W1-S1-L03', 'W1-S2-C02', 'W1-S2-R03']));
+    expect(wide.body.plannedPoints.find((p: { label: string }) => p.label === 'W1-S2-C02')).toMatchObject({ xM: 10, yM: 3, strip: 2 });
+    const s = await surveyor.post('/api/emergency/surveys').send({ siteId, name: 'Hall night test', criteriaSetKey: EN_1838_2013.key, conditions: conditions() });
+    const rows = wide.body.plannedPoints.map((p: { label: string }, i: number) => ({ point: p.label, lux: p.label === 'W1-S2-C03' ? 0.8 : 1.5, atMin: 170 + i * 0.2 }));
+    // A reading by position only, on strip 1's centre line (y = 5).
+    rows.push({ point: 'walk-1', lux: 1.6, atMin: 175, x: 6, y: 5 });
+    insertTimedReadings(t, s.body.surveyId, planId, rows);
+    const judged = (await fm.get(`/api/emergency/surveys/${s.body.surveyId}`)).body;
+    const w = judged.elements.find((e: { element: { code: string } }) => e.element.code === 'W1');
+    const checkOf = (id: string) => w.checks.find((c: { checkId: string }) => c.checkId === id);
+    expect(checkOf('route-width').text).toMatch(/2 strips of 2 m/);
+    expect(checkOf('route-centre-min/S1').verdict).toBe('meets');
+    expect(checkOf('route-centre-min/S2')).toMatchObject({ verdict: 'falls_short', worstPoint: 'W1-S2-C03', value: 0.8 });
+    expect(w.verdict).toBe('falls_short');
+    expect(w.points.find((p: { label: string }) => p.label === 'walk-1')).toMatchObject({ role: 'centre_line', verdict: 'meets', xM: 6, yM: 5 });
+  });
+});

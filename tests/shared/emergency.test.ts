@@ -8,7 +8,8 @@ import { addDays, addMonths, DEFAULT_TEST_SCHEDULE, passOfReading, passTimingWar
 import { LUX_PER_FOOTCANDLE } from '@shared/core/units';
 import { combineBudget } from '@shared/core/uncertainty';
 import type { LuxBound, Reading } from '@shared/core/types';
-import { areaRoleAt, plannedAreaPoints, plannedRoutePoints, polylineLength, routeRoleAt } from '@shared/spatial/emergency-points';
+import { areaRoleAt, offsetPolyline, plannedAreaPoints, plannedRoutePoints, polylineLength, routeRoleAt, routeStripCount, routeStripRoleAt, routeStrips } from '@shared/spatial/emergency-points';
+import { distanceToPolyline, type PlanPoint } from '@shared/spatial/polygon';
 
 /** A reading with a 2 % calibration and 1 % random part (k = 1), so U = 2 * 2.24 % of the value. */
 function reading(lux: number | null, luxBound: LuxBound = 'exact', uRelCal = 0.02): Reading {
@@ -69,10 +70,41 @@ describe('EN 1838:2013 escape routes (external checks from the issue; EN 1838:20
     expect(check(r, 'route-ratio')?.uncertainty).toBeGreaterThan(0);
   });
 
-  it('a route wider than 2 m is not judged as one route (EN 1838:2013: 2 m strips or an open area)', () => {
+  it('a route wider than 2 m is judged as 2 m strips (EN 1838:2013: "several 2 m strips"); readings that name no strip are not judged', () => {
     const r = judgeEmergencyElement({ ...route([2, 2, 2]), widthM: 3 }, EN_1838_2013, 'simple');
-    expect(check(r, 'route-width')?.verdict).toBe('inconclusive');
+    expect(check(r, 'route-width')?.verdict).toBe('meets');
+    expect(check(r, 'route-width')?.text).toMatch(/2 strips of 1\.5 m/);
+    expect(r.points.every((p) => p.verdict === 'not_judged')).toBe(true);
+    expect(r.reasons.join(' ')).toMatch(/3 reading\(s\) name no strip/);
     expect(r.verdict).toBe('inconclusive');
+  });
+
+  it('a 4 m route as two 2 m strips: a 0.9 lx centre-line point in strip 2 fails that strip and the route; strip 1 meets on its own', () => {
+    const strip = (k: number, centre: number[], band: number[]) => [...centre.map((l) => pt(l, 'centre_line')), ...band.map((l) => pt(l, 'central_band'))].map((p) => ({ ...p, strip: k }));
+    const points = [...strip(1, [1.4, 1.2, 1.3], [0.8, 0.7]), ...strip(2, [1.5, 0.9, 1.1], [0.8, 0.6])];
+    const r = judgeEmergencyElement({ kind: 'escape_route', widthM: 4, response: { toHalfS: 2, toFullS: 20 }, points }, EN_1838_2013, 'simple');
+    expect(check(r, 'route-width')?.text).toMatch(/2 strips of 2 m/);
+    expect(check(r, 'route-centre-min/S1')?.verdict).toBe('meets');
+    expect(check(r, 'route-centre-min/S2')).toMatchObject({ verdict: 'falls_short', value: 0.9 });
+    expect(check(r, 'route-band-min/S2')?.verdict).toBe('meets');
+    expect(check(r, 'route-ratio/S1')?.verdict).toBe('meets');
+    // Response times are judged once for the whole route.
+    expect(r.checks.filter((c) => c.checkId.startsWith('response-')).map((c) => c.checkId)).toEqual(['response-half', 'response-full']);
+    expect(r.verdict).toBe('falls_short');
+    expect(r.reasons.some((x) => x.startsWith('Strip 2 of 2: Centre line minimum 0.90 lx'))).toBe(true);
+    // Point results keep the element's order, each with its strip's limit.
+    expect(r.points.map((p) => p.label)).toEqual(points.map((p) => p.label));
+    expect(r.points.find((p) => p.lux === 0.9)?.verdict).toBe('falls_short');
+    // The same points with every strip lit pass, so the strip split above is what failed it.
+    const lit = points.map((p) => (p.reading.lux === 0.9 ? { ...p, reading: reading(1.2) } : p));
+    expect(judgeEmergencyElement({ kind: 'escape_route', widthM: 4, response: { toHalfS: 2, toFullS: 20 }, points: lit }, EN_1838_2013, 'simple').verdict).toBe('meets');
+  });
+
+  it('NFPA 101 has no strip rule: a wide path is judged as one (average and minimum over all its points)', () => {
+    const points = [1.5, 1.2, 1.4].map((l, i) => ({ ...pt(l, 'centre_line', 'initial'), strip: i + 1 }));
+    const r = judgeEmergencyElement({ kind: 'escape_route', widthM: 5, response: null, points }, NFPA_101_7_9_2, 'simple');
+    expect(r.checks.some((c) => c.checkId.includes('/S'))).toBe(false);
+    expect(check(r, 'initial-min')?.value).toBe(1.2);
   });
 
   it('response times: 50 % within 5 s and all within 60 s; a missing time shows no compliance', () => {
@@ -282,5 +314,52 @@ describe('planned points (plan metres)', () => {
     expect(routeRoleAt([5, 0.4], line, 2)).toBe('central_band');
     expect(routeRoleAt([5, 0.8], line, 2)).toBe('border');
     expect(routeRoleAt([5, 1.2], line, 2)).toBeNull();
+  });
+});
+
+describe('wide escape routes as 2 m strips (EN 1838:2013 via secondary sources: wider routes as several 2 m strips)', () => {
+  const close = (a: readonly PlanPoint[], b: readonly PlanPoint[]) => {
+    expect(a).toHaveLength(b.length);
+    a.forEach((p, i) => { expect(p[0]).toBeCloseTo(b[i][0], 9); expect(p[1]).toBeCloseTo(b[i][1], 9); });
+  };
+
+  it('counts strips of at most 2 m: 2 m is one route, 2.01 m two strips, 5 m three of 5/3 m', () => {
+    expect([1.2, 2, 2.01, 4, 4.2, 5, 6].map((w) => routeStripCount(w))).toEqual([1, 1, 2, 2, 3, 3, 3]);
+  });
+
+  it('offsets a polyline with mitred corners (worked by hand: an L turning left, 0.9 m to either side)', () => {
+    const l: PlanPoint[] = [[0, 0], [10, 0], [10, 10]];
+    close(offsetPolyline(l, 0.9), [[0, 0.9], [9.1, 0.9], [9.1, 10]]);
+    close(offsetPolyline(l, -0.9), [[0, -0.9], [10.9, -0.9], [10.9, 10]]);
+    // Each offset segment lies exactly |d| from the original (checked at its mid-point, away from the corners).
+    const zig: PlanPoint[] = [[0, 0], [4, 3], [9, 1], [12, 6]];
+    for (const d of [0.7, -1.3]) {
+      const o = offsetPolyline(zig, d);
+      for (let i = 1; i < o.length; i++) expect(distanceToPolyline([(o[i][0] + o[i - 1][0]) / 2, (o[i][1] + o[i - 1][1]) / 2], zig)).toBeCloseTo(Math.abs(d), 9);
+    }
+  });
+
+  it('splits a 3.6 m route into two 1.8 m strips 0.9 m either side of its centre line, strip 1 on the left', () => {
+    const s = routeStrips([[0, 5], [20, 5]], 3.6);
+    expect(s.map((x) => x.widthM)).toEqual([1.8, 1.8]);
+    close(s[0].line, [[0, 5.9], [20, 5.9]]);
+    close(s[1].line, [[0, 4.1], [20, 4.1]]);
+    const three = routeStrips([[0, 5], [20, 5]], 5);
+    expect(three.map((x) => x.line[0][1])).toEqual([5 + 5 / 3, 5, 5 - 5 / 3].map((v) => expect.closeTo(v, 9)));
+    expect(routeStrips([[0, 5], [20, 5]], 2)).toEqual([{ index: 1, widthM: 2, line: [[0, 5], [20, 5]] }]);
+  });
+
+  it('plans each strip as a route of its own (labels R1-S1-C01, band at ±width/8) and places a positioned reading in the nearest strip', () => {
+    const p = plannedRoutePoints('R1', [[0, 5], [8, 5]], 3.6, 4);
+    expect(p.filter((q) => q.strip === 1).map((q) => q.label)).toEqual(['R1-S1-C01', 'R1-S1-L01', 'R1-S1-R01', 'R1-S1-C02', 'R1-S1-L02', 'R1-S1-R02', 'R1-S1-C03', 'R1-S1-L03', 'R1-S1-R03']);
+    expect(p.find((q) => q.label === 'R1-S2-C02')).toMatchObject({ xM: 4, yM: 4.1, role: 'centre_line', strip: 2 });
+    expect(p.find((q) => q.label === 'R1-S1-L01')).toMatchObject({ yM: 6.35, role: 'central_band' });
+    expect(plannedRoutePoints('R1', [[0, 5], [8, 5]], 2, 4).every((q) => q.strip === undefined && /^R1-[CLR]\d\d$/.test(q.label))).toBe(true);
+    const line: PlanPoint[] = [[0, 5], [20, 5]];
+    expect(routeStripRoleAt([10, 5.9], line, 3.6)).toEqual({ role: 'centre_line', strip: 1 });
+    expect(routeStripRoleAt([10, 4.5], line, 3.6)).toEqual({ role: 'central_band', strip: 2 });
+    expect(routeStripRoleAt([10, 5.05], line, 3.6)).toEqual({ role: 'border', strip: 1 });
+    expect(routeStripRoleAt([10, 7], line, 3.6)).toBeNull();
+    expect(routeStripRoleAt([10, 5.05], line, 1.6)).toEqual({ role: 'centre_line', strip: null });
   });
 });

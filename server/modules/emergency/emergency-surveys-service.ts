@@ -9,7 +9,7 @@ import type { SessionUser } from '@shared/schemas/auth';
 import { RULE_TEXT } from '@shared/core/decision';
 import { combineElementVerdicts, EMERGENCY_PASSES, judgeEmergencyElement, type EmergencyPass, type EmergencyPoint, type EmergencyPointRole } from '@shared/core/emergency';
 import { passOfReading, passTimingWarnings } from '@shared/core/emergency-schedule';
-import { areaRoleAt, routeRoleAt } from '@shared/spatial/emergency-points';
+import { areaRoleAt, routeStripRoleAt } from '@shared/spatial/emergency-points';
 import {
   createEmergencySurveyBodySchema, EMERGENCY_CAUTIONS, updateEmergencySurveyBodySchema,
   type CreateEmergencySurveyBody, type ElementVerdict, type EmergencyConditions, type EmergencySurvey, type ResponseTimesBody, type SiteLogbook,
@@ -46,13 +46,14 @@ export function getEmergencySurveyRow(db: Db, user: SessionUser, surveyId: numbe
   return { survey, em };
 }
 
-type Matched = { element: ElementRow; role: EmergencyPointRole; label: string; reading: JudgeReading; pass: EmergencyPass };
+type Matched = { element: ElementRow; role: EmergencyPointRole; label: string; strip: number | null; reading: JudgeReading; pass: EmergencyPass };
+type Match = Omit<Matched, 'reading' | 'pass'>;
 
 /** Which element and role a reading belongs to: its label names a planned point, else its position lies on an element of its plan. */
 function matcher(elements: ElementRow[]) {
-  const byLabel = new Map<string, { element: ElementRow; role: EmergencyPointRole; label: string }>();
-  for (const e of elements) for (const p of plannedPointsOf(e)) byLabel.set(p.label.toLowerCase(), { element: e, role: p.role, label: p.label });
-  return (r: JudgeReading): { element: ElementRow; role: EmergencyPointRole; label: string } | null => {
+  const byLabel = new Map<string, Match>();
+  for (const e of elements) for (const p of plannedPointsOf(e)) byLabel.set(p.label.toLowerCase(), { element: e, role: p.role, label: p.label, strip: p.strip ?? null });
+  return (r: JudgeReading): Match | null => {
     const hit = byLabel.get(r.point.trim().toLowerCase());
     if (hit) return hit;
     if (r.xM === null || r.yM === null || r.planId === null) return null;
@@ -60,11 +61,12 @@ function matcher(elements: ElementRow[]) {
     for (const e of elements) {
       if (e.planId !== r.planId) continue;
       let role: EmergencyPointRole | null = null;
-      if (e.kind === 'escape_route') role = routeRoleAt(at, e.geometry, e.widthM ?? 0);
+      let strip: number | null = null;
+      if (e.kind === 'escape_route') ({ role, strip } = routeStripRoleAt(at, e.geometry, e.widthM ?? 0) ?? { role: null, strip: null });
       else if (e.kind === 'open_area') role = areaRoleAt(at, e.geometry, e.borderM ?? 0.5);
       else if (e.kind === 'high_risk_area') role = areaRoleAt(at, e.geometry, 0);
       else if (Math.hypot(at[0] - e.geometry[0][0], at[1] - e.geometry[0][1]) <= EQUIPMENT_RADIUS_M) role = 'equipment';
-      if (role) return { element: e, role, label: r.point };
+      if (role) return { element: e, role, label: r.point, strip };
     }
     return null;
   };
@@ -149,7 +151,7 @@ function liveEmergencyJudgement(db: Db, user: SessionUser, survey: SurveyRow & {
   const planName = new Map(sitePlans.map((p) => [p.id, p.name]));
   const elementVerdicts: ElementVerdict[] = elements.map((e) => {
     const mine = matched.filter((m) => m.element.id === e.id);
-    const points: EmergencyPoint[] = mine.map((m) => ({ label: m.label, role: m.role, pass: m.pass, reading: toCoreReading(m.reading) }));
+    const points: EmergencyPoint[] = mine.map((m) => ({ label: m.label, role: m.role, pass: m.pass, strip: m.strip, reading: toCoreReading(m.reading) }));
     const resp = responses.find((r) => r.elementId === e.id) ?? null;
     const presented = presentElement(db, user.organizationId, e);
     const result = judgeEmergencyElement({ kind: e.kind, widthM: e.widthM, normalEmLux: presented.effectiveNormalEmLux, response: resp, points }, set, rule);

@@ -83,7 +83,7 @@ export function ElementForm({ planId, zones, drawn, onDrawRequest, drawing, onSa
       </div>
       {kind === 'escape_route' && (
         <div className="grid gap-3 sm:grid-cols-3">
-          <TextField label="Width (m)" inputMode="decimal" value={width} onChange={(e) => setWidth(e.target.value)} hint="Up to 2 m is one route (EN 1838)" />
+          <TextField label="Width (m)" inputMode="decimal" value={width} onChange={(e) => setWidth(e.target.value)} hint="Over 2 m: planned and judged as 2 m strips (EN 1838)" />
           <TextField label="Point spacing (m)" inputMode="decimal" value={spacing} onChange={(e) => setSpacing(e.target.value)} />
           <label className="flex items-center gap-2 self-center text-sm text-ink-800"><input type="checkbox" checked={stair} onChange={(e) => setStair(e.target.checked)} className="h-4 w-4 rounded" />A stair</label>
         </div>
