@@ -32,6 +32,7 @@ import { seedPlans } from './db/seed-plans';
 import { seedCompliance } from './db/seed-compliance';
 import { seedEmergency } from './db/seed-emergency';
 import { seedCommissioning } from './db/seed-commissioning';
+import { seedLabelWalk } from './db/seed-grids';
 
 /** Background work a real server runs every `everyMs` (server/jobs.ts). */
 export type Job = { name: string; everyMs: number; run: (deps: Deps) => Promise<unknown> | unknown };
@@ -71,7 +72,8 @@ export const SERVER_MODULES: ServerModule[] = [
   { name: 'zones', routes: registerZoneRoutes },
   { name: 'imports', routes: registerImportRoutes, seed: seedSurveyLogs },
   { name: 'readings', routes: registerReadingRoutes },
-  { name: 'planned-points', routes: registerPlannedPointRoutes },
+  // A survey planned with measurement grids whose log names the planned points by label only.
+  { name: 'planned-points', routes: registerPlannedPointRoutes, seed: seedLabelWalk },
   { name: 'placements', routes: registerPlacementRoutes },
   { name: 'targets', routes: registerTargetRoutes },
   { name: 'organization', routes: registerOrganizationRoutes },

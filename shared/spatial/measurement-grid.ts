@@ -101,7 +101,7 @@ export function labelKey(label: string): string {
 /**
  * A short code for a zone, unique among `taken` (compared case-insensitively): the initials of its
  * words (first two letters of a one-word name), at most three letters, then any number in the name;
- * a digit is appended while the code is taken. "Office 1" → "O1", "Reading room" → "RR", "Stairs" → "ST".
+ * a digit is appended while the code is taken. "Office 1" → "OF1", "Reading room" → "RR", "Stairs" → "ST".
  */
 export function zoneCode(name: string, taken: Iterable<string> = []): string {
   const used = new Set([...taken].map((t) => t.toLowerCase()));
