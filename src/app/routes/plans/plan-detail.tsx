@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Link, useNavigate, useParams } from 'react-router';
+import { Link, useNavigate, useParams, useSearchParams } from 'react-router';
 import { PenLine, Plus, Trash2 } from 'lucide-react';
 import { can } from '@shared/policy';
 import type { Zone } from '@shared/schemas/zones';
@@ -20,8 +20,18 @@ import { Button } from '@/components/ui/button';
 import { EmptyState, QueryState } from '@/components/ui/states';
 import { FormError } from '@/components/ui/form-error';
 import { paths } from '@shared/paths';
+import { SelectField } from '@/components/ui/field';
+import { useSurvey } from '@/features/surveys/api/get-survey';
+import { usePlannedPoints } from '@/features/grids/api/get-planned-points';
+import { usePlaceReading } from '@/features/grids/api/place-reading';
+import { PlannedPointsLayer, ReadingDropTarget } from '@/features/grids/components/planned-points-layer';
+import { PlanVisits } from '@/features/grids/components/planned-points-card';
+import { UnplacedPanel } from '@/features/grids/components/unplaced-panel';
 
-/** One plan: set its scale, draw and edit its zones, open a survey on it. */
+/**
+ * One plan: set its scale, draw and edit its zones, open a survey on it, and see a survey's planned
+ * points on it (visited or not) with the readings that still have no place.
+ */
 export function PlanDetailRoute() {
   const planId = Number(useParams().planId);
   const user = useCurrentUser();
@@ -29,6 +39,14 @@ export function PlanDetailRoute() {
   const plan = usePlan(planId);
   const zones = useZones(planId);
   const surveys = useSurveys(plan.data?.siteId, { enabled: plan.data?.siteId !== undefined && can(user.role, 'surveys.read') });
+  // The survey whose planned points are shown: ?survey= or the site's newest survey.
+  const [params, setParams] = useSearchParams();
+  const shownSurveyId = Number(params.get('survey')) || surveys.data?.items[0]?.id;
+  const shownSurvey = useSurvey(shownSurveyId);
+  const planned = usePlannedPoints(shownSurveyId, planId);
+  const place = usePlaceReading();
+  const placeable = shownSurvey.data?.abilities.edit ?? false;
+  const chooseSurvey = (id: string) => { const next = new URLSearchParams(params); if (id) next.set('survey', id); else next.delete('survey'); setParams(next, { replace: true }); };
   const [mode, setMode] = useState<EditorMode>({ kind: 'view' });
   const [scalePick, setScalePick] = useState<ScalePick>({ active: false, points: [] });
   const [editing, setEditing] = useState<{ zone: Zone | null; corners: PlanPoint[] | null } | null>(null);
@@ -58,7 +76,12 @@ export function PlanDetailRoute() {
             <div className="grid gap-6 xl:grid-cols-[1fr_24rem]">
               <div className="min-w-0 space-y-2">
                 <PlanEditorMap plan={p} zones={zones.data?.items ?? []} mode={mode} scalePick={scalePick} onScalePick={onScalePick}
-                  onOutline={(corners) => setEditing((e) => ({ zone: e?.zone ?? null, corners }))} editingCorners={editing?.corners ?? null} />
+                  onOutline={(corners) => setEditing((e) => ({ zone: e?.zone ?? null, corners }))} editingCorners={editing?.corners ?? null}>
+                  {mode.kind === 'view' && planned.data && <PlannedPointsLayer points={planned.data.items} />}
+                  {mode.kind === 'view' && placeable && shownSurveyId !== undefined && (
+                    <ReadingDropTarget onDrop={(readingId, [x, y]) => place.mutate({ surveyId: shownSurveyId, readingId, body: { planId: p.id, xM: x, yM: y } })} />
+                  )}
+                </PlanEditorMap>
                 <p className="text-xs text-ink-600" aria-live="polite">
                   {mode.kind === 'draw' ? 'Click the corners of the zone on the plan; click the first corner again to close it. Or type the corners in the form.'
                     : mode.kind === 'edit' ? 'Drag the corners to move them; drag a middle handle to add a corner. Save in the form.'
@@ -90,6 +113,29 @@ export function PlanDetailRoute() {
                     <CardHeader title="Image" description="A revised drawing of the same floor replaces the image; zones and readings stay where they are in metres." />
                     <CardBody><PlanImageForm plan={p} /></CardBody>
                   </Card>
+                )}
+                {can(user.role, 'surveys.read') && shownSurveyId !== undefined && (
+                  <Card data-testid="plan-planned-points">
+                    <CardHeader title="Planned points" description="A survey's measurement grid on this plan: a filled dot has a reading, a ring has none yet." />
+                    <CardBody className="space-y-3">
+                      <SelectField label="Survey" value={shownSurveyId} onChange={(e) => chooseSurvey(e.target.value)}>
+                        {(surveys.data?.items ?? []).map((s) => <option key={s.id} value={s.id}>{s.name}</option>)}
+                      </SelectField>
+                      <QueryState query={planned} loadingLabel="Loading the planned points…" isEmpty={(d) => d.items.length === 0}
+                        empty={<p className="text-sm text-ink-600">No points planned on this plan for this survey. <Link className="font-medium underline" to={paths.surveyMap.to(shownSurveyId, p.id)}>Plan its grid on the survey map</Link>.</p>}>
+                        {(d) => (
+                          <div className="space-y-2 text-sm">
+                            <PlanVisits points={d.items} />
+                            <p><Link className="font-medium text-lamp-800 underline" to={paths.surveyMap.to(shownSurveyId, p.id)}>Edit the grid on the survey map</Link></p>
+                          </div>
+                        )}
+                      </QueryState>
+                    </CardBody>
+                  </Card>
+                )}
+                {can(user.role, 'surveys.read') && shownSurveyId !== undefined && shownSurvey.data && (
+                  <UnplacedPanel surveyId={shownSurveyId} plans={[p]} timeZone={shownSurvey.data.siteTimeZone} plannedPoints={planned.data?.items ?? []}
+                    editable={placeable} droppable={mode.kind === 'view'} placeError={place.error} />
                 )}
                 {can(user.role, 'surveys.read') && (
                   <Card>

@@ -89,7 +89,7 @@ export function SurveyMapRoute() {
                         selected={selected} onSelect={setSelected} reason={reason} onReason={setReason} />
                     )}
                   </QueryState>
-                  <UnplacedPanel surveyId={surveyId} planId={m.planId} timeZone={survey.data?.siteTimeZone ?? 'UTC'} plannedPoints={planned.data?.items ?? []} editable={editable}
+                  <UnplacedPanel surveyId={surveyId} plans={[plan]} timeZone={survey.data?.siteTimeZone ?? 'UTC'} plannedPoints={planned.data?.items ?? []} editable={editable}
                     placeError={place.error} />
                 </div>
               )}

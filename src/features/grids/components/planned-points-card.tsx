@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router';
 import { Download, FileText, MapPin } from 'lucide-react';
 import { paths } from '@shared/paths';
@@ -5,6 +6,7 @@ import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { QueryState } from '@/components/ui/states';
 import { usePlannedPoints } from '../api/get-planned-points';
 import { plannedPointsCsvUrl, walkSheetUrl } from '../api/walk-sheet-links';
+import type { PlannedPoint } from '@shared/schemas/planned-points';
 
 const LINK = 'inline-flex items-center gap-2 rounded-lg bg-white px-2.5 py-1.5 text-sm font-medium ring-1 ring-inset ring-ink-200 hover:bg-ink-50';
 
@@ -17,7 +19,7 @@ export function PlannedPointsCard({ surveyId, plans }: { surveyId: number; plans
         title="Planned points"
         description="The measurement grid of each zone (EN 12464-1), planned on the survey map."
         actions={<>
-          <a className={LINK} href={walkSheetUrl(surveyId)} download><FileText className="h-4 w-4" aria-hidden />Walk sheet (PDF)</a>
+          <a className={LINK} href={walkSheetUrl(surveyId)} download data-testid="walk-sheet-link"><FileText className="h-4 w-4" aria-hidden />Walk sheet (PDF)</a>
           <a className={LINK} href={plannedPointsCsvUrl(surveyId)} download><Download className="h-4 w-4" aria-hidden />CSV</a>
         </>}
       />
@@ -29,17 +31,9 @@ export function PlannedPointsCard({ surveyId, plans }: { surveyId: number; plans
               {plans.map((plan) => {
                 const pts = d.items.filter((p) => p.planId === plan.id);
                 if (pts.length === 0) return null;
-                const missing = pts.filter((p) => p.readingCount === 0);
                 return (
                   <li key={plan.id} className="text-sm">
-                    <div className="flex flex-wrap items-center gap-2">
-                      <MapPin className="h-4 w-4 text-ink-500" aria-hidden />
-                      <Link className="font-medium underline" to={paths.surveyMap.to(surveyId, plan.id)}>{plan.name}</Link>
-                      <span className="text-ink-700">{pts.length - missing.length} of {pts.length} planned point(s) have a reading</span>
-                    </div>
-                    {missing.length > 0 && (
-                      <p className="mt-1 text-ink-600">Not visited: {missing.slice(0, 40).map((p) => p.label).join(', ')}{missing.length > 40 ? ` and ${missing.length - 40} more` : ''}.</p>
-                    )}
+                    <PlanVisits points={pts} title={<Link className="font-medium underline" to={paths.surveyMap.to(surveyId, plan.id)}>{plan.name}</Link>} />
                   </li>
                 );
               })}
@@ -51,5 +45,22 @@ export function PlannedPointsCard({ surveyId, plans }: { surveyId: number; plans
         </QueryState>
       </CardBody>
     </Card>
+  );
+}
+
+/** One plan's planned points: how many have a reading, and the labels of those that have none. */
+export function PlanVisits({ points, title }: { points: readonly PlannedPoint[]; title?: ReactNode }) {
+  const missing = points.filter((p) => p.readingCount === 0);
+  return (
+    <div data-testid="plan-visits">
+      <div className="flex flex-wrap items-center gap-2">
+        <MapPin className="h-4 w-4 text-ink-500" aria-hidden />
+        {title}
+        <span className="text-ink-700">{points.length - missing.length} of {points.length} planned point(s) have a reading</span>
+      </div>
+      {missing.length > 0 && (
+        <p className="mt-1 break-words text-ink-600">Not visited: {missing.slice(0, 40).map((p) => p.label).join(', ')}{missing.length > 40 ? ` and ${missing.length - 40} more` : ''}.</p>
+      )}
+    </div>
   );
 }

@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useRef } from 'react';
+import { useEffect, useMemo, useRef, type ReactNode } from 'react';
 import L from 'leaflet';
 import { CircleMarker, Polyline, useMap } from 'react-leaflet';
 import '@geoman-io/leaflet-geoman-free';
@@ -22,10 +22,12 @@ type Props = {
   /** Corners drawn or edited on the map, in plan metres. */
   onOutline: (corners: PlanPoint[]) => void;
   editingCorners?: PlanPoint[] | null;
+  /** Further layers composed by the page (a survey's planned points, a drop target). */
+  children?: ReactNode;
 };
 
 /** The plan editor's map: zones, picking scale points, and drawing or editing outlines (leaflet-geoman). */
-export function PlanEditorMap({ plan, zones, mode, scalePick, onScalePick, onOutline, editingCorners }: Props) {
+export function PlanEditorMap({ plan, zones, mode, scalePick, onScalePick, onOutline, editingCorners, children }: Props) {
   const frame = useMemo(() => planFrame(plan), [plan]);
   const clamp = (c: PlanPoint): PlanPoint => [Math.min(frame.width, Math.max(0, c[0])), Math.min(frame.height, Math.max(0, c[1]))];
   const toMap = ([px, py]: [number, number]): L.LatLngTuple => [(plan.heightPx - py) * frame.unitsPerPx, px * frame.unitsPerPx];
@@ -39,6 +41,7 @@ export function PlanEditorMap({ plan, zones, mode, scalePick, onScalePick, onOut
       {scalePick.points.length === 2 && <Polyline positions={scalePick.points.map(toMap)} pathOptions={{ color: '#b45309', dashArray: '6 4' }} />}
       {mode.kind === 'draw' && <DrawOutline onDrawn={(c) => onOutline(c.map(clamp))} />}
       {mode.kind === 'edit' && editingCorners && <EditOutline corners={editingCorners} onChange={(c) => onOutline(c.map(clamp))} />}
+      {children}
     </PlanMap>
   );
 }
