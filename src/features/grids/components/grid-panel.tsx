@@ -46,14 +46,14 @@ export function GridPanel({ surveyId, planId, zones, data, editable, selected, o
     <Card>
       <CardHeader title="Planned points" description={`${pointsHere.length} planned on this plan, ${pointsHere.filter((p) => p.readingCount > 0).length} with a reading. ${data.roundingText}.`} />
       <CardBody className="space-y-4">
-        <div className="flex flex-wrap gap-2">
+        {data.items.length > 0 && <div className="flex flex-wrap gap-2">
           <a className="inline-flex items-center gap-2 rounded-lg bg-white px-2.5 py-1.5 text-sm font-medium ring-1 ring-inset ring-ink-200 hover:bg-ink-50" href={walkSheetUrl(surveyId)} download data-testid="walk-sheet-link">
             <FileText className="h-4 w-4" aria-hidden />Walk sheet (PDF)
           </a>
           <a className="inline-flex items-center gap-2 rounded-lg bg-white px-2.5 py-1.5 text-sm font-medium ring-1 ring-inset ring-ink-200 hover:bg-ink-50" href={plannedPointsCsvUrl(surveyId)} download>
             <Download className="h-4 w-4" aria-hidden />Planned points (CSV)
           </a>
-        </div>
+        </div>}
         {editable && (
           <form
             className="grid gap-3 sm:grid-cols-2"

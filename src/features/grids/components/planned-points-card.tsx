@@ -18,7 +18,8 @@ export function PlannedPointsCard({ surveyId, plans }: { surveyId: number; plans
       <CardHeader
         title="Planned points"
         description="The measurement grid of each zone (EN 12464-1), planned on the survey map."
-        actions={<>
+        // The walk sheet and CSV exist once points are planned (409 before).
+        actions={(query.data?.items.length ?? 0) > 0 && <>
           <a className={LINK} href={walkSheetUrl(surveyId)} download data-testid="walk-sheet-link"><FileText className="h-4 w-4" aria-hidden />Walk sheet (PDF)</a>
           <a className={LINK} href={plannedPointsCsvUrl(surveyId)} download><Download className="h-4 w-4" aria-hidden />CSV</a>
         </>}
