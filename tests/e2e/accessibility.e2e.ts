@@ -45,16 +45,28 @@ describe('accessibility of the main pages (axe-core, WCAG 2 A and AA)', () => {
     ['surveyor@luxtrail.test', '/surveys/3/map?planId=1', 'Layers'],
     ['facilities@luxtrail.test', '/compliance/surveys/3', 'Zones, worst first'],
     ['calibration@luxtrail.test', '/calibration/probes/1', 'Coefficient sets'],
-    // Survey 5 is the library's emergency night test.
     ['facilities@luxtrail.test', '/compliance/maintenance', 'Maintenance due'],
     ['facilities@luxtrail.test', '/emergency', 'Tests due'],
-    ['facilities@luxtrail.test', '/emergency/surveys/5', 'Criteria, conditions and passes'],
+    // Surveys found by name (their ids depend on the seed steps before them): the emergency night
+    // test, and the label walk's planned points on the survey map and on the ground-floor plan (plan 1).
+    ['facilities@luxtrail.test', '/emergency/surveys/{night}', 'Criteria, conditions and passes'],
+    ['surveyor@luxtrail.test', '/surveys/{labelWalk}/map?planId=1', 'Readings without a place'],
+    ['surveyor@luxtrail.test', '/plans/1?survey={labelWalk}', 'Readings without a place'],
   ];
+  const surveyNames: Record<string, string> = { night: 'Emergency lighting night test', labelWalk: 'Ground-floor offices, label walk 2026' };
+  async function resolvePath(page: Page, path: string): Promise<string> {
+    const found = /\{(\w+)\}/.exec(path);
+    if (!found) return path;
+    const items = (await (await page.request.get('/api/surveys')).json()).items as { id: number; name: string }[];
+    const survey = items.find((x) => x.name === surveyNames[found[1]]);
+    expect(survey, `demo survey "${surveyNames[found[1]]}"`).toBeDefined();
+    return path.replace(found[0], String(survey!.id));
+  }
   for (const [email, path, heading] of pages) {
     it(`has no serious or critical violations on ${path} for ${email}`, async () => {
       const page = await app.newPage();
       await signInAs(page, email);
-      await page.goto(path);
+      await page.goto(await resolvePath(page, path));
       await page.getByText(heading).first().waitFor();
       await page.waitForLoadState('networkidle');
       expect(describeViolations(await seriousViolations(page))).toEqual([]);
