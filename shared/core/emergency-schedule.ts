@@ -84,6 +84,16 @@ export function passOfReading(timeMs: number, mainsOffMs: number, ratedDurationM
   return timeMs < mainsOffMs + (ratedDurationMin * 60_000) / 2 ? 'initial' : 'end_of_duration';
 }
 
+/**
+ * The pass of a reading when its log may say which pass it belongs to: the log's pass if the
+ * surveyor gave one, else by time (passOfReading). A reading taken before the mains failed
+ * belongs to no pass either way: the normal lighting may have been on.
+ */
+export function passOfLoggedReading(timeMs: number, mainsOffMs: number, ratedDurationMin: number, logPass: EmergencyPass | null): EmergencyPass | null {
+  if (timeMs < mainsOffMs) return null;
+  return logPass ?? passOfReading(timeMs, mainsOffMs, ratedDurationMin);
+}
+
 /** Readings of the end pass taken this long before the rated duration ends are flagged (project's choice: 15 min). */
 export const END_PASS_EARLY_MIN = 15;
 

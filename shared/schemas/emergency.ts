@@ -149,6 +149,12 @@ export const updateEmergencySurveyBodySchema = z.object({
   conditions: emergencyConditionsSchema.optional(),
 });
 
+export const logPassBodySchema = z.object({
+  /** The pass the whole log holds; null: split its readings by time after the mains failed. */
+  pass: z.enum(EMERGENCY_PASSES).nullable(),
+});
+export const logPassParamsSchema = z.object({ id: z.coerce.number().int().positive(), importId: z.coerce.number().int().positive() });
+
 export const responseTimesBodySchema = z.object({
   toHalfS: z.number().min(0).max(3600).nullable(),
   toFullS: z.number().min(0).max(3600).nullable(),
@@ -208,6 +214,8 @@ export const emergencySurveySchema = z.object({
   ruleText: z.string(),
   verdict: verdictEnum,
   passes: z.array(passSummarySchema),
+  /** The survey's logs: the pass the surveyor said each holds (null: its readings are split by time), and its readings in the current decode. */
+  logs: z.array(z.object({ importId: z.number().int(), filename: z.string(), uploadedAt: z.string(), pass: z.enum(EMERGENCY_PASSES).nullable(), readings: z.number().int() })),
   elements: z.array(elementVerdictSchema),
   /** Readings before the mains failed, or whose label and position match no element. */
   readingsBeforeMainsOff: z.number().int(),

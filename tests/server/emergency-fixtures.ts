@@ -24,14 +24,17 @@ export async function emergencySite(t: TestApp, admin: TestClient, name = `Emerg
 
 export type TimedReading = { point: string; lux: number | null; atMin: number; x?: number | null; y?: number | null; luxBound?: 'exact' | 'lower' | 'upper'; flag?: typeof readings.$inferInsert['flag']; uLux?: number };
 
-/** Readings written straight into a survey's new decode (the import path has its own tests), minutes after MAINS_OFF. */
-export function insertTimedReadings(t: TestApp, surveyId: number, planId: number | null, rows: TimedReading[]) {
+/**
+ * Readings written straight into a survey's new decode (the import path has its own tests), minutes
+ * after MAINS_OFF, as one log; with `addLog` into the active decode as a further log. Returns the log's import id.
+ */
+export function insertTimedReadings(t: TestApp, surveyId: number, planId: number | null, rows: TimedReading[], opts: { addLog?: boolean } = {}) {
   const survey = t.db.select().from(surveys).where(eq(surveys.id, surveyId)).get()!;
   const now = t.clock.now();
   const probe = t.db.insert(probes).values({ organizationId: survey.organizationId, serial: `EM-${Math.random().toString(36).slice(2, 8)}`, kind: 'counts', createdAt: now, updatedAt: now }).returning().get();
   const file = t.db.insert(storedFiles).values({ organizationId: survey.organizationId, sha256: 'e'.repeat(64), filename: 'log.csv', contentType: 'text/csv', size: 1, createdAt: now }).returning().get();
   const imp = t.db.insert(logImports).values({ surveyId, fileId: file.id, status: 'done', createdAt: now }).returning().get();
-  const decode = t.db.insert(decodes).values({ surveyId, reason: 'import', createdAt: now }).returning().get();
+  const decode = opts.addLog && survey.activeDecodeId !== null ? { id: survey.activeDecodeId } : t.db.insert(decodes).values({ surveyId, reason: 'import', createdAt: now }).returning().get();
   for (const r of rows) {
     t.db.insert(readings).values({
       surveyId, decodeId: decode.id, importId: imp.id, point: r.point, xM: r.x ?? null, yM: r.y ?? null, planId: r.x === undefined || r.x === null ? null : planId, role: 'task',
@@ -40,6 +43,7 @@ export function insertTimedReadings(t: TestApp, surveyId: number, planId: number
     }).run();
   }
   t.db.update(surveys).set({ activeDecodeId: decode.id }).where(eq(surveys.id, surveyId)).run();
+  return imp.id;
 }
 
 export const conditions = (over: Record<string, unknown> = {}) => ({

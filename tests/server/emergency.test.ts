@@ -425,3 +425,47 @@ describe('a route wider than 2 m (EN 1838:2013 via secondary sources: several 2 
     expect(w.points.find((p: { label: string }) => p.label === 'walk-1')).toMatchObject({ role: 'centre_line', verdict: 'meets', xM: 6, yM: 5 });
   });
 });
+
+describe('which pass a log holds: said by the surveyor, else by time', () => {
+  it('splits by time when no pass is said; a log marked end-of-duration counts as that pass whatever its time; null goes back to time; readings before the mains failed stay out', async () => {
+    const { surveyId, planId } = await surveyed();
+    const centre = (atMin: number, lux: number) => [1, 2, 3, 4, 5].map((i) => ({ point: `R1-C0${i}`, lux, atMin: atMin + i * 0.2 }));
+    // Log 1 right after the mains failed; log 2 taken 80 min in: by time (first half of 180 min) it is initial too.
+    const first = insertTimedReadings(t, surveyId, planId, centre(3, 2.2));
+    const second = insertTimedReadings(t, surveyId, planId, [...centre(80, 1.3), { point: 'R1-C01', lux: 40, atMin: -5 }], { addLog: true });
+    const byTime = (await fm.get(`/api/emergency/surveys/${surveyId}`)).body;
+    expect(byTime.logs.map((l: { importId: number; pass: string | null; readings: number }) => [l.importId, l.pass, l.readings])).toEqual([[first, null, 5], [second, null, 6]]);
+    expect(byTime.passes.map((p: { pass: string; readings: number }) => [p.pass, p.readings])).toEqual([['initial', 10], ['end_of_duration', 0]]);
+    expect(byTime.readingsBeforeMainsOff).toBe(1);
+    const routeOf = (s: { elements: { element: { code: string }; verdict: string; checks: { checkId: string; pass: string | null; value: number | null }[] }[] }) => s.elements.find((e) => e.element.code === 'R1')!;
+    // EN 1838 needs the end-of-duration pass: with none, the route shows no compliance.
+    expect(routeOf(byTime).verdict).toBe('inconclusive');
+
+    const said = await surveyor.put(`/api/emergency/surveys/${surveyId}/logs/${second}/pass`).send({ pass: 'end_of_duration' });
+    expect(said.status, JSON.stringify(said.body)).toBe(200);
+    expect(said.body.logs.find((l: { importId: number }) => l.importId === second).pass).toBe('end_of_duration');
+    expect(said.body.passes.map((p: { pass: string; readings: number }) => [p.pass, p.readings])).toEqual([['initial', 5], ['end_of_duration', 5]]);
+    expect(said.body.readingsBeforeMainsOff).toBe(1);
+    const endMin = routeOf(said.body).checks.find((c) => c.checkId === 'route-centre-min' && c.pass === 'end_of_duration');
+    expect(endMin?.value).toBe(1.3);
+    // The 80-minute start is warned about: the end pass began long before the rated duration ended.
+    expect(said.body.warnings.join(' ')).toMatch(/end-of-duration pass began 100 min before/);
+
+    const back = await surveyor.put(`/api/emergency/surveys/${surveyId}/logs/${second}/pass`).send({ pass: null });
+    expect(back.body.passes.map((p: { readings: number }) => p.readings)).toEqual([10, 0]);
+    const audit = await admin.get(`/api/audit?surveyId=${surveyId}`);
+    expect(audit.body.items.filter((e: { action: string }) => e.action === 'emergency_log_pass_set')).toHaveLength(2);
+  });
+
+  it('refuses: 400 an unknown pass, 404 a log of another survey, 404 another organisation, 409 once submitted', async () => {
+    const a = await surveyed();
+    const b = await surveyed();
+    const logA = insertTimedReadings(t, a.surveyId, a.planId, [{ point: 'R1-C01', lux: 1.2, atMin: 170 }]);
+    expect((await surveyor.put(`/api/emergency/surveys/${a.surveyId}/logs/${logA}/pass`).send({ pass: 'halfway' })).status).toBe(400);
+    expect((await surveyor.put(`/api/emergency/surveys/${b.surveyId}/logs/${logA}/pass`).send({ pass: 'initial' })).status).toBe(404);
+    const other = await t.signIn(DEMO.otherAdmin);
+    expect((await other.put(`/api/emergency/surveys/${a.surveyId}/logs/${logA}/pass`).send({ pass: 'initial' })).status).toBe(404);
+    expect((await surveyor.post(`/api/surveys/${a.surveyId}/submit`).send({})).status).toBe(200);
+    expect((await surveyor.put(`/api/emergency/surveys/${a.surveyId}/logs/${logA}/pass`).send({ pass: 'initial' })).status).toBe(409);
+  });
+});

@@ -4,7 +4,7 @@ import {
   EN_1838_2013, NFPA_101_7_9_2, judgeEmergencyElement, limitLux, printedLux, combineElementVerdicts,
   type EmergencyCriteriaSet, type EmergencyPass, type EmergencyPoint, type EmergencyPointRole,
 } from '@shared/core/emergency';
-import { addDays, addMonths, DEFAULT_TEST_SCHEDULE, passOfReading, passTimingWarnings, testDueDates } from '@shared/core/emergency-schedule';
+import { addDays, addMonths, DEFAULT_TEST_SCHEDULE, passOfLoggedReading, passOfReading, passTimingWarnings, testDueDates } from '@shared/core/emergency-schedule';
 import { LUX_PER_FOOTCANDLE } from '@shared/core/units';
 import { combineBudget } from '@shared/core/uncertainty';
 import type { LuxBound, Reading } from '@shared/core/types';
@@ -361,5 +361,16 @@ describe('wide escape routes as 2 m strips (EN 1838:2013 via secondary sources: 
     expect(routeStripRoleAt([10, 5.05], line, 3.6)).toEqual({ role: 'border', strip: 1 });
     expect(routeStripRoleAt([10, 7], line, 3.6)).toBeNull();
     expect(routeStripRoleAt([10, 5.05], line, 1.6)).toEqual({ role: 'centre_line', strip: null });
+  });
+});
+
+describe('the pass a log says (project\'s rule: the surveyor\'s word first, time as the fallback)', () => {
+  const off = Date.parse('2026-11-18T19:00:00Z');
+  it('takes the log\'s pass when given, else splits by half the rated duration; before the mains failed it is no pass either way', () => {
+    expect(passOfLoggedReading(off + 80 * 60_000, off, 180, null)).toBe('initial');
+    expect(passOfLoggedReading(off + 80 * 60_000, off, 180, 'end_of_duration')).toBe('end_of_duration');
+    expect(passOfLoggedReading(off + 170 * 60_000, off, 180, 'initial')).toBe('initial');
+    expect(passOfLoggedReading(off + 170 * 60_000, off, 180, null)).toBe('end_of_duration');
+    expect(passOfLoggedReading(off - 60_000, off, 180, 'initial')).toBeNull();
   });
 });

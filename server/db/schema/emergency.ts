@@ -1,12 +1,12 @@
 import { sqliteTable, integer, text, real, index, uniqueIndex } from 'drizzle-orm/sqlite-core';
 import { organizations, users } from './organizations';
-import { surveys } from './surveys';
+import { logImports, surveys } from './surveys';
 import { sites } from './sites';
 import { plans } from './plans';
 import type { EmergencyCheck, EmergencyPass } from '@shared/core/emergency';
 import { EMERGENCY_TEST_KINDS } from '@shared/core/emergency-schedule';
 import { EQUIPMENT_KINDS, SYSTEM_TYPES } from '@shared/schemas/emergency';
-import { EMERGENCY_ELEMENT_KINDS } from '@shared/core/emergency';
+import { EMERGENCY_ELEMENT_KINDS, EMERGENCY_PASSES } from '@shared/core/emergency';
 
 /**
  * Escape routes (centre line + width), open and high-risk task areas (outlines) and
@@ -95,3 +95,14 @@ export const emergencyTestReminders = sqliteTable('emergency_test_reminders', {
   state: text('state', { enum: ['due_soon', 'overdue'] }).notNull(),
   sentAt: integer('sent_at').notNull(),
 }, (t) => [index('emergency_test_reminders_site_idx').on(t.siteId, t.sentAt)]);
+
+/**
+ * The pass a survey's log belongs to, as the surveyor says (one log taken right after the mains
+ * failed, another at the end of the rated duration). A log with no row here is split by time.
+ */
+export const emergencyLogPasses = sqliteTable('emergency_log_passes', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  surveyId: integer('survey_id').notNull().references(() => surveys.id),
+  importId: integer('import_id').notNull().references(() => logImports.id),
+  pass: text('pass', { enum: EMERGENCY_PASSES }).notNull(),
+}, (t) => [uniqueIndex('emergency_log_passes_idx').on(t.surveyId, t.importId)]);

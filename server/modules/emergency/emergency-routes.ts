@@ -5,12 +5,12 @@ import { idParamsSchema } from '@shared/schemas/common';
 import {
   createEmergencySurveyBodySchema, criteriaSetBodySchema, criteriaSetKeyParamsSchema, criteriaSetListSchema, criteriaSetSchema, elementResponseParamsSchema,
   emergencyElementBodySchema, emergencyElementListSchema, emergencyElementSchema, emergencySurveyListQuerySchema, emergencySurveyListSchema,
-  emergencySurveySchema, logbookEntryBodySchema, logbookEntrySchema, logbookQuerySchema, responseTimesBodySchema, siteLogbookSchema,
+  emergencySurveySchema, logPassBodySchema, logPassParamsSchema, logbookEntryBodySchema, logbookEntrySchema, logbookQuerySchema, responseTimesBodySchema, siteLogbookSchema,
   testScheduleSchema, testsDueOverviewSchema, updateEmergencySurveyBodySchema,
 } from '@shared/schemas/emergency';
 import { createElement, deleteElement, listElements, updateElement } from './elements-service';
 import { createCriteriaSet, listCriteriaSets, presentCriteriaSet, updateCriteriaSet } from './criteria-service';
-import { createEmergencySurvey, judgeEmergencySurvey, listEmergencySurveys, setResponseTimes, updateEmergencySurvey } from './emergency-surveys-service';
+import { createEmergencySurvey, judgeEmergencySurvey, listEmergencySurveys, setLogPass, setResponseTimes, updateEmergencySurvey } from './emergency-surveys-service';
 import { addLogbookEntry, scheduleOf, setSchedule, siteLogbook, testsDueOverview } from './logbook-service';
 import { runEmergencyTestReminders } from './test-reminders-service';
 import { emergencyReportPdf, registerEmergencyReportAttachment } from './emergency-report';
@@ -46,6 +46,8 @@ export function registerEmergencyRoutes(api: Api, deps: Deps) {
     ({ user, params, body }) => updateEmergencySurvey(deps, user, params.id, body));
   api.route({ method: 'put', path: '/emergency/surveys/:id/responses/:elementId', access: 'surveys.write', tag: 'emergency', summary: 'Record the response times measured for one element (seconds to half and to all of the required level)', params: elementResponseParamsSchema, body: responseTimesBodySchema, response: emergencySurveySchema },
     ({ user, params, body }) => setResponseTimes(deps, user, params.id, params.elementId, body));
+  api.route({ method: 'put', path: '/emergency/surveys/:id/logs/:importId/pass', access: 'surveys.write', tag: 'emergency', summary: 'Say which pass one of the survey\'s logs holds (initial or end_of_duration), or null to split it by time again (draft or returned only)', params: logPassParamsSchema, body: logPassBodySchema, response: emergencySurveySchema },
+    ({ user, params, body }) => setLogPass(deps, user, params.id, params.importId, body.pass));
   api.route({ method: 'get', path: '/emergency/surveys/:id/report.pdf', access: 'surveys.read', tag: 'emergency', summary: 'The emergency survey report as PDF (unit=lx|fc)', params: idParamsSchema, query: z.object({ unit: z.enum(['lx', 'fc']).default('lx') }), produces: 'application/pdf' },
     async ({ user, params, query, res }) => {
       const file = await emergencyReportPdf(deps, user, params.id, query.unit);

@@ -4,11 +4,13 @@ import type { Db } from '../../db/client';
 import { plans } from '../../db/schema/plans';
 import { surveys } from '../../db/schema/surveys';
 import { sites } from '../../db/schema/sites';
-import { emergencyResponses, emergencySurveys } from '../../db/schema/emergency';
+import { emergencyLogPasses, emergencyResponses, emergencySurveys } from '../../db/schema/emergency';
+import { logImports, readings as readingsTable } from '../../db/schema/surveys';
+import { storedFiles } from '../../db/schema/organizations';
 import type { SessionUser } from '@shared/schemas/auth';
 import { RULE_TEXT } from '@shared/core/decision';
 import { combineElementVerdicts, EMERGENCY_PASSES, judgeEmergencyElement, type EmergencyPass, type EmergencyPoint, type EmergencyPointRole } from '@shared/core/emergency';
-import { passOfReading, passTimingWarnings } from '@shared/core/emergency-schedule';
+import { passOfLoggedReading, passTimingWarnings } from '@shared/core/emergency-schedule';
 import { areaRoleAt, routeStripRoleAt } from '@shared/spatial/emergency-points';
 import {
   createEmergencySurveyBodySchema, EMERGENCY_CAUTIONS, updateEmergencySurveyBodySchema,
@@ -17,7 +19,7 @@ import {
 import { notFound } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
 import { getSiteRow, siteConditions } from '../sites/sites-service';
-import { assertSurveyAbility, getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
+import { assertSurveyAbility, currentReadingConditions, getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
 import { surveyAbilities } from '@shared/survey-abilities';
 import { decisionRuleOf } from '../organization/organization-service';
 import { loadCurrentReadings } from '../compliance/compliance-repository';
@@ -114,8 +116,9 @@ export function presentJudged(survey: SurveyRow, judged: JudgedEmergency, canEdi
 
 /**
  * Judges every element of the survey's site in each pass (shared/core/emergency) under the
- * organisation's decision rule. Readings are split into passes by time from the mains failing
- * (passOfReading); those before it belong to no pass and are counted.
+ * organisation's decision rule. A reading's pass is its log's, where the surveyor said which
+ * pass the log holds, else by time from the mains failing (passOfLoggedReading); readings before
+ * the mains failed belong to no pass and are counted.
  */
 function liveEmergencyJudgement(db: Db, user: SessionUser, survey: SurveyRow & { site: { name: string; timeZone: string } }, em: EmergencyRow): JudgedEmergency {
   const set = requireCriteriaSet(db, user.organizationId, em.criteriaSetKey);
@@ -125,13 +128,19 @@ function liveEmergencyJudgement(db: Db, user: SessionUser, survey: SurveyRow & {
   const responses = db.select().from(emergencyResponses).where(eq(emergencyResponses.surveyId, survey.id)).all();
   const readings = loadCurrentReadings(db, survey).filter((r) => r.role === 'task');
   const match = matcher(elements);
+  const logs = surveyLogs(db, survey);
+  const logPass = new Map(logs.filter((l) => l.pass !== null).map((l) => [l.importId, l.pass as EmergencyPass]));
+  const importOf = new Map(db.select({ id: readingsTable.id, importId: readingsTable.importId }).from(readingsTable).where(and(...currentReadingConditions(survey))).all().map((r) => [r.id, r.importId]));
+
+  const readingsPerLog = new Map<number, number>();
+  for (const id of importOf.values()) readingsPerLog.set(id, (readingsPerLog.get(id) ?? 0) + 1);
 
   let before = 0;
   let unmatched = 0;
   const matched: Matched[] = [];
   const passTimes: { pass: EmergencyPass; timeMs: number }[] = [];
   for (const r of readings) {
-    const pass = passOfReading(r.timeMs, em.mainsOffAt, em.ratedDurationMin);
+    const pass = passOfLoggedReading(r.timeMs, em.mainsOffAt, em.ratedDurationMin, logPass.get(importOf.get(r.id) ?? -1) ?? null);
     if (pass === null) { before++; continue; }
     passTimes.push({ pass, timeMs: r.timeMs });
     const m = match(r);
@@ -182,9 +191,35 @@ function liveEmergencyJudgement(db: Db, user: SessionUser, survey: SurveyRow & {
     surveyId: survey.id, name: survey.name, siteId: survey.siteId, siteName: survey.site.name, siteTimeZone: survey.site.timeZone, startedOn: survey.startedOn,
     criteriaSet: presentCriteriaSet(set), conditions: conditionsOf(em), rule, ruleText: RULE_TEXT[rule],
     verdict: combineElementVerdicts(elementVerdicts.map((v) => v.verdict)),
-    passes, elements: elementVerdicts, readingsBeforeMainsOff: before, readingsUnmatched: unmatched, warnings,
+    passes, logs: logs.map((l) => ({ ...l, readings: readingsPerLog.get(l.importId) ?? 0 })), elements: elementVerdicts, readingsBeforeMainsOff: before, readingsUnmatched: unmatched, warnings,
     cautions: [...EMERGENCY_CAUTIONS, ...set.notes],
   };
+}
+
+/** The survey's accepted logs, oldest first, with the pass the surveyor said each holds (null: by time). */
+function surveyLogs(db: Db, survey: Pick<SurveyRow, 'id'>) {
+  const said = new Map(db.select().from(emergencyLogPasses).where(eq(emergencyLogPasses.surveyId, survey.id)).all().map((r) => [r.importId, r.pass]));
+  return db.select({ importId: logImports.id, filename: storedFiles.filename, createdAt: logImports.createdAt }).from(logImports).innerJoin(storedFiles, eq(storedFiles.id, logImports.fileId))
+    .where(and(eq(logImports.surveyId, survey.id), eq(logImports.status, 'done'))).orderBy(asc(logImports.createdAt), asc(logImports.id)).all()
+    .map((l) => ({ importId: l.importId, filename: l.filename, uploadedAt: new Date(l.createdAt).toISOString(), pass: said.get(l.importId) ?? null }));
+}
+
+/**
+ * Says which pass one of the survey's logs holds (null: split it by time again). Draft or
+ * returned surveys only; a log of another survey answers 404.
+ */
+export function setLogPass(deps: Deps, user: SessionUser, surveyId: number, importId: number, pass: EmergencyPass | null): EmergencySurvey {
+  const { survey } = getEmergencySurveyRow(deps.db, user, surveyId);
+  const log = deps.db.select().from(logImports).where(and(eq(logImports.id, importId), eq(logImports.surveyId, survey.id), eq(logImports.status, 'done'))).get();
+  if (!log) throw notFound('Log of this survey');
+  assertSurveyAbility(user, survey, 'edit');
+  deps.db.transaction((tx) => {
+    const prev = tx.select().from(emergencyLogPasses).where(and(eq(emergencyLogPasses.surveyId, survey.id), eq(emergencyLogPasses.importId, importId))).get();
+    if (prev) tx.delete(emergencyLogPasses).where(eq(emergencyLogPasses.id, prev.id)).run();
+    if (pass !== null) tx.insert(emergencyLogPasses).values({ surveyId: survey.id, importId, pass }).run();
+    recordAudit(tx, { organizationId: user.organizationId, actorId: user.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'emergency_log_pass_set', before: { importId, pass: prev?.pass ?? null }, after: { importId, pass }, at: deps.clock.now() });
+  });
+  return judgeEmergencySurvey(deps.db, user, surveyId);
 }
 
 export function listEmergencySurveys(db: Db, user: SessionUser, siteId?: number) {

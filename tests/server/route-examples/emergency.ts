@@ -2,7 +2,7 @@ import type { RouteExamples } from './types';
 import type { TestApp } from '../helpers';
 import { DEMO } from '../helpers';
 import { insertSite, orgOf } from '../plans-fixtures';
-import { conditions, emergencySite, ROUTE } from '../emergency-fixtures';
+import { conditions, emergencySite, insertTimedReadings, ROUTE } from '../emergency-fixtures';
 import { EN_1838_2013 } from '@shared/core/emergency';
 
 let n = 0;
@@ -48,6 +48,11 @@ export const emergencyExamples: RouteExamples = {
   'PUT /emergency/surveys/:id/responses/:elementId': async (t) => {
     const f = await withSurvey(t);
     return { path: `/api/emergency/surveys/${f.surveyId}/responses/${f.elementId}`, body: { toHalfS: 1, toFullS: 10 } };
+  },
+  'PUT /emergency/surveys/:id/logs/:importId/pass': async (t) => {
+    const f = await withSurvey(t);
+    const importId = insertTimedReadings(t, f.surveyId, f.planId, [{ point: 'R1-C01', lux: 1.2, atMin: 170 }]);
+    return { path: `/api/emergency/surveys/${f.surveyId}/logs/${importId}/pass`, body: { pass: 'end_of_duration' } };
   },
   'GET /emergency/surveys/:id/report.pdf': async (t) => ({ path: `/api/emergency/surveys/${(await withSurvey(t)).surveyId}/report.pdf` }),
   'GET /sites/:id/emergency-tests': (t) => ({ path: `/api/sites/${insertSite(t, orgOf(t, DEMO.admin), `Matrix site ${n++}`)}/emergency-tests` }),

@@ -13,6 +13,7 @@ import { SurveySummary } from '@/features/emergency/components/survey-summary';
 import { ElementVerdicts } from '@/features/emergency/components/element-verdicts';
 import { EmergencyMap } from '@/features/emergency/components/emergency-map';
 import { EmergencyCaution } from '@/features/emergency/components/emergency-caution';
+import { LogPasses } from '@/features/emergency/components/log-passes';
 
 /**
  * An emergency survey: what it is judged against, the upload of its log (the surveys feature's
@@ -36,10 +37,14 @@ export function EmergencySurveyRoute() {
               <SurveySummary survey={s} />
               {plain.data?.abilities.upload && (
                 <Card>
-                  <CardHeader title="Upload the log" description="One log may hold both passes: readings are split by their time after the mains were cut." />
+                  <CardHeader title="Upload the log" description="One log may hold both passes: its readings are split by their time after the mains were cut. A log of one pass only can say so below." />
                   <CardBody><LogUpload surveyId={s.surveyId} plans={plans} /></CardBody>
                 </Card>
               )}
+              <Card>
+                <CardHeader title="Logs and their passes" description="Which pass each log holds. By time: readings in the first half of the rated duration are the initial pass, later ones the end-of-duration pass; readings before the mains failed count in no pass." />
+                <CardBody><LogPasses survey={s} /></CardBody>
+              </Card>
               {plans.data?.items.filter((p) => s.elements.some((e) => e.element.planId === p.id)).map((p) => (
                 <Card key={p.id}>
                   <CardHeader title={p.name} description="Routes and areas coloured by verdict (the cards below say which and why); large dots: points that fall short." />
