@@ -18,6 +18,18 @@ export default tseslint.config(
     },
   },
   {
+    // Product code (tests keep small fixed arrays).
+    files: ['server/**/*.{ts,mts,mjs}', 'shared/**/*.ts', 'src/**/*.{ts,tsx}'],
+    rules: {
+      // A spread or apply passes every element as an argument: over a survey's readings that
+      // overflows the call stack (RangeError). Use simple-statistics' min/max or a loop.
+      'no-restricted-syntax': ['error',
+        { selector: "CallExpression[callee.object.name='Math'] > SpreadElement", message: 'No spread into Math.* (unbounded arrays overflow the stack): use min/max from simple-statistics or a loop.' },
+        { selector: "CallExpression[callee.property.name='apply']", message: 'No .apply (unbounded argument lists overflow the stack).' },
+      ],
+    },
+  },
+  {
     files: ['src/**/*.{ts,tsx}'],
     plugins: { 'react-hooks': reactHooks },
     rules: {

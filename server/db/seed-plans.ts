@@ -1,3 +1,4 @@
+import { max, min } from 'simple-statistics';
 import fs from 'node:fs';
 import path from 'node:path';
 import crypto from 'node:crypto';
@@ -86,7 +87,7 @@ export function drawDemoPlan(plan: DemoPlan): Buffer {
     if (z.useType === 'car_park') {
       // Parking bay lines every 2.5 m along the lower and upper rows.
       const xs = z.polygon.map((p) => p[0]), ys = z.polygon.map((p) => p[1]);
-      const [x0, x1, y0, y1] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
+      const [x0, x1, y0, y1] = [min(xs), max(xs), min(ys), max(ys)];
       for (let x = x0 + 2.5; x < x1; x += 2.5) {
         c.line([x, y0], [x, y0 + 5], COLOURS.bay, 2);
         c.line([x, y1 - 5], [x, y1], COLOURS.bay, 2);
@@ -94,7 +95,7 @@ export function drawDemoPlan(plan: DemoPlan): Buffer {
     }
     if (z.useType === 'stairs') {
       const xs = z.polygon.map((p) => p[0]), ys = z.polygon.map((p) => p[1]);
-      for (let x = Math.min(...xs) + 0.3; x < Math.max(...xs); x += 0.3) c.line([x, Math.min(...ys)], [x, Math.max(...ys)], COLOURS.task, 1);
+      for (let x = min(xs) + 0.3; x < max(xs); x += 0.3) c.line([x, min(ys)], [x, max(ys)], COLOURS.task, 1);
     }
   }
   return PNG.sync.write(c.png);

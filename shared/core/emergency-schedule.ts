@@ -1,3 +1,4 @@
+import { min } from 'simple-statistics';
 // Emergency lighting test schedule and the passes of a survey. Pure; dates are ISO calendar
 // dates (YYYY-MM-DD) in the site's time zone, times epoch milliseconds.
 import type { EmergencyPass } from './emergency';
@@ -102,7 +103,7 @@ export function passTimingWarnings(passTimes: { pass: EmergencyPass; timeMs: num
   const out: string[] = [];
   const end = passTimes.filter((p) => p.pass === 'end_of_duration').map((p) => p.timeMs);
   if (end.length) {
-    const first = Math.min(...end);
+    const first = min(end);
     const early = (mainsOffMs + ratedDurationMin * 60_000 - first) / 60_000;
     if (early > END_PASS_EARLY_MIN) out.push(`The end-of-duration pass began ${Math.round(early)} min before the rated duration of ${ratedDurationMin} min ended: its levels may be higher than at the end.`);
   }

@@ -1,3 +1,4 @@
+import { max, min } from 'simple-statistics';
 import type { Reading } from './types';
 import { COVERAGE_K, meanUncertainty } from './uncertainty';
 
@@ -77,17 +78,17 @@ export function zoneStats(readings: readonly Reading[]): ZoneStats {
   const eavgBound: StatBound = lows.length > 0 && ups.length > 0 ? 'indeterminate' : lows.length > 0 ? 'lower' : ups.length > 0 ? 'upper' : null;
   const eavg = eavgBound === 'indeterminate' ? null : sum / n;
 
-  const minV = vals.length ? Math.min(...vals) : Infinity;
-  const maxV = vals.length ? Math.max(...vals) : -Infinity;
+  const minV = vals.length ? min(vals) : Infinity;
+  const maxV = vals.length ? max(vals) : -Infinity;
   let emin: number;
   let eminBound: StatBound;
   if (ups.length > 0) {
     // Emin <= every value and every under-range bound.
-    emin = Math.min(minV, ...ups);
+    emin = Math.min(minV, min(ups));
     eminBound = 'upper';
-  } else if (lows.length > 0 && Math.min(...lows) < minV) {
+  } else if (lows.length > 0 && min(lows) < minV) {
     // Some over-range point might be the minimum: Emin >= min of everything.
-    emin = Math.min(...lows);
+    emin = min(lows);
     eminBound = 'lower';
   } else {
     emin = minV;
@@ -96,10 +97,10 @@ export function zoneStats(readings: readonly Reading[]): ZoneStats {
   let emax: number;
   let emaxBound: StatBound;
   if (lows.length > 0) {
-    emax = Math.max(maxV, ...lows);
+    emax = Math.max(maxV, max(lows));
     emaxBound = 'lower';
-  } else if (ups.length > 0 && Math.max(...ups) > maxV) {
-    emax = Math.max(...ups);
+  } else if (ups.length > 0 && max(ups) > maxV) {
+    emax = max(ups);
     emaxBound = 'upper';
   } else {
     emax = maxV;

@@ -1,3 +1,4 @@
+import { max, min } from 'simple-statistics';
 // Planned measurement points of emergency-lighting elements, and where a measured point lies in
 // its element. Plan metres, y upwards. Planar geometry (turf's distances are spherical).
 import { booleanPointInPolygon } from '@turf/boolean-point-in-polygon';
@@ -132,8 +133,8 @@ function plannedStripPoints(code: string, line: readonly PlanPoint[], widthM: nu
 export function plannedAreaPoints(code: string, polygon: readonly PlanPoint[], borderM: number, spacingM: number): PlannedPoint[] {
   if (polygon.length < 3 || !(spacingM > 0)) return [];
   const xs = polygon.map((p) => p[0]), ys = polygon.map((p) => p[1]);
-  const x0 = Math.min(...xs) + borderM, x1 = Math.max(...xs) - borderM;
-  const y0 = Math.min(...ys) + borderM, y1 = Math.max(...ys) - borderM;
+  const x0 = min(xs) + borderM, x1 = max(xs) - borderM;
+  const y0 = min(ys) + borderM, y1 = max(ys) - borderM;
   if (x1 < x0 || y1 < y0) return [];
   const nx = Math.max(1, Math.ceil((x1 - x0) / spacingM - 1e-9));
   const ny = Math.max(1, Math.ceil((y1 - y0) / spacingM - 1e-9));

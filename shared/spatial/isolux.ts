@@ -111,7 +111,7 @@ export function isoluxLines(points: readonly MeasuredPoint[], zone: readonly Pla
   for (const level of steps) {
     const lines: PlanPoint[][] = [];
     for (const poly of generator.contour(grid, level).coordinates) {
-      for (const ring of poly) lines.push(...cutRing(ring as [number, number][], level, valueAt, nx, ny, x0, y0, cellM));
+      for (const ring of poly) for (const line of cutRing(ring as [number, number][], level, valueAt, nx, ny, x0, y0, cellM)) lines.push(line);
     }
     const kept = lines.filter((l) => l.length >= 2 && !(isClosed(l) && polygonAreaM2(l.slice(0, -1)) < minLoopAreaM2));
     if (kept.length === 0) continue;

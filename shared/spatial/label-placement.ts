@@ -1,3 +1,4 @@
+import { max, min } from 'simple-statistics';
 import { polygonContains } from 'd3-polygon';
 import type { PlanPoint } from './polygon';
 
@@ -41,7 +42,7 @@ function clear(b: LabelBox, points: readonly PlanPoint[], o: PlaceOptions): bool
 export function placeZoneLabel(polygon: readonly PlanPoint[], points: readonly PlanPoint[], o: PlaceOptions): { box: LabelBox; inside: boolean; covering: boolean } {
   const xs = polygon.map((p) => p[0]);
   const ys = polygon.map((p) => p[1]);
-  const [x0, x1, y0, y1] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
+  const [x0, x1, y0, y1] = [min(xs), max(xs), min(ys), max(ys)];
   const cx = (x0 + x1) / 2;
   const cy = (y0 + y1) / 2;
   const steps = o.steps ?? 24;

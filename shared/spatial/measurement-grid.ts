@@ -1,3 +1,4 @@
+import { max, min } from 'simple-statistics';
 import { booleanPointInPolygon } from '@turf/boolean-point-in-polygon';
 import { point as turfPoint } from '@turf/helpers';
 import { gridSpacing, pointsPerSide, GRID_ROUNDINGS, type GridRounding } from '../core/zone-stats';
@@ -121,7 +122,7 @@ export function zoneCode(name: string, taken: Iterable<string> = []): string {
 function boundsOf(poly: readonly PlanPoint[]) {
   const xs = poly.map((p) => p[0]);
   const ys = poly.map((p) => p[1]);
-  return { x0: Math.min(...xs), y0: Math.min(...ys), x1: Math.max(...xs), y1: Math.max(...ys) };
+  return { x0: min(xs), y0: min(ys), x1: max(xs), y1: max(ys) };
 }
 
 function isAxisRectangle(poly: readonly PlanPoint[], b: ReturnType<typeof boundsOf>): boolean {

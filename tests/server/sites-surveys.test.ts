@@ -5,7 +5,8 @@ import { surveys } from '@server/db/schema/surveys';
 import { eq } from 'drizzle-orm';
 
 let t: TestApp;
-beforeAll(async () => { t = await createTestApp(); });
+// Many sign-ins from one test address: the per-address budget is not what this file tests (sessions-and-limits.test.ts does).
+beforeAll(async () => { t = await createTestApp({ signInLimits: { perAddress: 1000, perAccount: 5 } }); });
 
 describe('sites API', () => {
   it('creates a site, when the time zone is an IANA name, and lists it for the organisation', async () => {
@@ -17,6 +18,17 @@ describe('sites API', () => {
     expect(list.body.items.map((s: { name: string }) => s.name)).toContain('Harrowgate Depot');
     const one = await c.get(`/api/sites/${created.body.id}`);
     expect(one.body.id).toBe(created.body.id);
+  });
+
+  it('a site with two surveys, when listed, counts two (and one without any counts none)', async () => {
+    const c = await t.signIn(DEMO.surveyor);
+    const counted = (await c.post('/api/sites').send({ name: 'Counted Works', timeZone: 'Europe/London' })).body;
+    const empty = (await c.post('/api/sites').send({ name: 'Empty Works', timeZone: 'Europe/London' })).body;
+    for (const name of ['Spring walk', 'Autumn walk']) expect((await c.post('/api/surveys').send({ siteId: counted.id, name })).status).toBe(201);
+    const items = (await c.get('/api/sites')).body.items as { id: number; surveyCount: number }[];
+    expect(items.find((s) => s.id === counted.id)?.surveyCount).toBe(2);
+    expect(items.find((s) => s.id === empty.id)?.surveyCount).toBe(0);
+    expect((await c.get(`/api/sites/${counted.id}`)).body.surveyCount).toBe(2);
   });
 
   it('rejects a site, when the time zone is not an IANA name, with a message naming the field', async () => {

@@ -31,6 +31,17 @@ describe('zone statistics (EN 12464-1: U0 = Emin / Eavg)', () => {
     expect(z.bounded).toEqual({ eavg: null, emin: null, emax: null, u0: null, minOverMax: null });
   });
 
+  it('300,000 points (a long walk in one zone) give Emin and Emax without overflowing the call stack', () => {
+    // Spreading this many values into Math.min/Math.max throws RangeError in V8 (#13); simple-statistics loops.
+    const lux = Array.from({ length: 300_000 }, (_, i) => 300 + ((i * 7919) % 1000) / 10);
+    const z = zoneStats(lux.map((l) => reading(l)));
+    let lo = Infinity;
+    let hi = -Infinity;
+    for (const l of lux) { if (l < lo) lo = l; if (l > hi) hi = l; }
+    expect([z.emin, z.emax]).toEqual([lo, hi]);
+    expect(z.eavg).toBeCloseTo(ss.mean(lux), 9);
+  });
+
   it('over-range points never enter as values: Eavg and Emax become lower bounds', () => {
     const z = zoneStats([reading(500), reading(600), reading(65000, 'lower')]);
     expect(z.bounded.eavg).toBe('lower');

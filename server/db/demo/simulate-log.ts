@@ -1,3 +1,4 @@
+import { max, min } from 'simple-statistics';
 /**
  * Simulated survey logs in Luxtrail's log format, for the demo seed, the sample files in
  * public/samples/, tests and the ingest benchmark. Counts come from the demo probes'
@@ -78,7 +79,7 @@ export function autoRangeBurst(p: SimCountingProbe, lux: number, startCode: numb
 function bbox(poly: [number, number][]) {
   const xs = poly.map((p) => p[0]);
   const ys = poly.map((p) => p[1]);
-  return { x0: Math.min(...xs), y0: Math.min(...ys), x1: Math.max(...xs), y1: Math.max(...ys) };
+  return { x0: min(xs), y0: min(ys), x1: max(xs), y1: max(ys) };
 }
 
 function inside(poly: [number, number][], x: number, y: number) {

@@ -31,7 +31,7 @@ export function runCalibrationReminders(deps: Deps, onlyOrganizationId?: number)
     const recent = new Set(deps.db.select({ probeId: calibrationReminders.probeId }).from(calibrationReminders)
       .where(and(inArray(calibrationReminders.probeId, due.map((d) => d.probe.id)), gt(calibrationReminders.sentAt, now - REMINDER_INTERVAL_MS))).all().map((r) => r.probeId));
     const toSend = due.filter((d) => !recent.has(d.probe.id));
-    out.skippedRecentlyReminded.push(...due.filter((d) => recent.has(d.probe.id)).map((d) => d.probe.serial));
+    out.skippedRecentlyReminded = out.skippedRecentlyReminded.concat(due.filter((d) => recent.has(d.probe.id)).map((d) => d.probe.serial));
     if (toSend.length === 0) continue;
     const recipients = deps.db.select({ email: users.email }).from(users)
       .where(and(eq(users.organizationId, org.id), eq(users.role, 'calibration'), eq(users.status, 'active'))).all().map((u) => u.email);
@@ -56,7 +56,7 @@ export function runCalibrationReminders(deps: Deps, onlyOrganizationId?: number)
       for (const d of toSend) tx.insert(calibrationReminders).values({ probeId: d.probe.id, kind: d.status.state === 'overdue' ? 'overdue' : 'due_soon', sentAt: now }).run();
     });
     out.messagesSent++;
-    out.reminded.push(...toSend.map((d) => ({ probeId: d.probe.id, serial: d.probe.serial, kind: d.status.state === 'overdue' ? 'overdue' as const : 'due_soon' as const, dueDate: new Date(d.current!.dueDate).toISOString() })));
+    out.reminded = out.reminded.concat(toSend.map((d) => ({ probeId: d.probe.id, serial: d.probe.serial, kind: d.status.state === 'overdue' ? 'overdue' as const : 'due_soon' as const, dueDate: new Date(d.current!.dueDate).toISOString() })));
   }
   return out;
 }

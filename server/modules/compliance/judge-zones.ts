@@ -1,4 +1,4 @@
-import { mean } from 'simple-statistics';
+import { max, mean, min } from 'simple-statistics';
 import { zoneStats, requiredGrid, gridRuleText, type GridRounding } from '@shared/core/zone-stats';
 import { GridError, labelKey, measurementGrid } from '@shared/spatial/measurement-grid';
 import { decideZone, type AcceptanceRule } from '@shared/core/decision';
@@ -132,10 +132,9 @@ export function toCoreReading(r: JudgeReading): Reading {
 export function zoneExtent(polygon: readonly PlanPoint[]): { a: number; b: number; rectangular: boolean } {
   const xs = polygon.map((p) => p[0]);
   const ys = polygon.map((p) => p[1]);
-  const a = Math.max(...xs) - Math.min(...xs);
-  const b = Math.max(...ys) - Math.min(...ys);
-  const rectangular = polygon.length === 4 && polygon.every((p) => (p[0] === Math.min(...xs) || p[0] === Math.max(...xs)) && (p[1] === Math.min(...ys) || p[1] === Math.max(...ys)));
-  return { a, b, rectangular };
+  const [x0, x1, y0, y1] = [min(xs), max(xs), min(ys), max(ys)];
+  const rectangular = polygon.length === 4 && polygon.every((p) => (p[0] === x0 || p[0] === x1) && (p[1] === y0 || p[1] === y1));
+  return { a: x1 - x0, b: y1 - y0, rectangular };
 }
 
 /**
@@ -278,7 +277,7 @@ export function judgeZones(input: {
     } else {
       const v = decideZone(stats, { emLux: limit as number, ...(z.target.u0Min !== null ? { u0Min: z.target.u0Min } : {}) }, input.rule, { gridAdequate: grid.adequate });
       verdict = v.verdict;
-      reasons.unshift(...v.reasons, ...designReasons);
+      reasons.splice(0, 0, ...v.reasons, ...designReasons);
     }
     if (!grid.adequate && stats.validPoints > 0) reasons.push(`${stats.validPoints} of ${grid.required} points the grid asks for (${grid.basis === 'rule' ? ruleText : 'the justified planned grid'}).`);
     reasons.push(...stats.reasons);

@@ -1,3 +1,4 @@
+import { max, min } from 'simple-statistics';
 import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import type { Deps } from '../../deps';
 import type { Db } from '../../db/client';
@@ -179,8 +180,8 @@ function liveEmergencyJudgement(db: Db, user: SessionUser, survey: SurveyRow & {
 
   const passes = EMERGENCY_PASSES.map((pass) => {
     const ts = passTimes.filter((t) => t.pass === pass).map((t) => t.timeMs);
-    const first = ts.length ? Math.min(...ts) : null;
-    const last = ts.length ? Math.max(...ts) : null;
+    const first = ts.length ? min(ts) : null;
+    const last = ts.length ? max(ts) : null;
     return {
       pass, readings: ts.length, firstAt: first === null ? null : new Date(first).toISOString(), lastAt: last === null ? null : new Date(last).toISOString(),
       fromMin: first === null ? null : (first - em.mainsOffAt) / 60_000, toMin: last === null ? null : (last - em.mainsOffAt) / 60_000,

@@ -1,3 +1,4 @@
+import { min } from 'simple-statistics';
 // ISO 8601 timestamps of a survey log; a time without an offset is read in the site's time zone.
 
 const ISO = /^(\d{4})-(\d{2})-(\d{2})[T ](\d{2}):(\d{2})(?::(\d{2})(?:[.,](\d{1,9}))?)?\s*(Z|z|[+-]\d{2}(?::?\d{2})?)?$/;
@@ -87,6 +88,6 @@ export function createTimestampParser(timeZone: string): (text: string) => numbe
     const before = wall - offsetAt(wall - 86_400_000);
     const after = wall - offsetAt(wall + 86_400_000);
     const fits = [before, after].filter((c) => wall - offsetAt(c) === c);
-    return fits.length > 0 ? Math.min(...fits) : before;
+    return fits.length > 0 ? min(fits) : before;
   };
 }

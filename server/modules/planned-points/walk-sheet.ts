@@ -1,3 +1,4 @@
+import { max, min } from 'simple-statistics';
 import fs from 'node:fs';
 import { asc, eq, inArray } from 'drizzle-orm';
 import type { Deps } from '../../deps';
@@ -91,8 +92,8 @@ function drawPlan(doc: PDFKit.PDFDocument, wp: WalkPlan) {
   doc.rect(ox, oy, wp.widthM * s, wp.heightM * s).lineWidth(0.6).strokeColor(MUTED).stroke();
   for (const z of wp.zones) {
     doc.polygon(...z.polygon.map((p) => [tx(p[0]), ty(p[1])] as [number, number])).lineWidth(1).strokeColor(INK).stroke();
-    const cx = Math.min(...z.polygon.map((p) => p[0]));
-    const cy = Math.max(...z.polygon.map((p) => p[1]));
+    const cx = min(z.polygon.map((p) => p[0]));
+    const cy = max(z.polygon.map((p) => p[1]));
     doc.font('bold').fontSize(7).fillColor(INK).text(z.name, tx(cx) + 2, ty(cy) + 2, { lineBreak: false });
   }
   const label = wp.points.length <= 400;

@@ -1,3 +1,4 @@
+import { max } from 'simple-statistics';
 import fs from 'node:fs';
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { imageSizeFromFile } from 'image-size/fromFile';
@@ -157,7 +158,7 @@ export async function replacePlanImage(deps: Deps, user: SessionUser, planId: nu
       const beyond = deps.db.select({ name: zones.name, polygon: zones.polygon }).from(zones).where(eq(zones.planId, planId)).all()
         .find((z) => z.polygon.some(([, y]) => y > heightM + 0.001));
       if (beyond) {
-        const top = Math.max(...beyond.polygon.map(([, y]) => y));
+        const top = max(beyond.polygon.map(([, y]) => y));
         throw unprocessable(`Zone "${beyond.name}" reaches ${top.toFixed(2)} m up, but at this plan's width (${widthM!.toFixed(2)} m) the new image is only ${heightM.toFixed(2)} m high: use an image of the same drawing with the same proportions, or redraw the zone`);
       }
     }

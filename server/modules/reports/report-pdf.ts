@@ -1,4 +1,5 @@
 import PDFDocument from 'pdfkit';
+import { max, min } from 'simple-statistics';
 import { createRequire } from 'node:module';
 import { luxToFootcandles } from '@shared/core/units';
 import { COVERAGE_K } from '@shared/core/uncertainty';
@@ -63,7 +64,7 @@ export function createReportDocument(info: { title: string; author: string }): {
 }
 
 /** Renders the survey report as a PDF (pdfkit, vector drawings, embedded font). */
-export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Promise<Buffer> {
+export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx', onPage?: (zonesDone: number, zones: number) => void): Promise<Buffer> {
   const { doc, done } = createReportDocument({ title: `${data.site.name}: ${data.survey.name}`, author: data.organizationName });
 
   const u = (lux: number | null | undefined) => formatIlluminance(lux, unit);
@@ -144,7 +145,8 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
   textWithSymbols(doc, 'body', `Decision rule: ${c.ruleText}`, null, { width: CONTENT_W });
 
   // A page per zone.
-  for (const z of data.zones) {
+  for (const [zoneIndex, z] of data.zones.entries()) {
+    onPage?.(zoneIndex, data.zones.length);
     doc.addPage();
     doc.font('bold').fontSize(15).fillColor(INK).text(z.name);
     doc.font('body').fontSize(10).fillColor(MUTED).text(`${z.planName} - ${ZONE_KIND_LABELS[z.kind]} - ${labelOfUseType(z.useType)} - working plane ${z.planeHeightM.toFixed(2)} m`);
@@ -240,8 +242,9 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx'): Prom
 }
 
 function surveyTime(data: ReportData): number {
-  const times = data.zones.flatMap((z) => z.readings.map((r) => r.timeMs));
-  return times.length ? Math.max(...times) : data.generatedAt;
+  let latest = -Infinity;
+  for (const z of data.zones) for (const r of z.readings) if (r.timeMs > latest) latest = r.timeMs;
+  return latest === -Infinity ? data.generatedAt : latest;
 }
 
 /** The sign-off as recorded: who, when and the signer's comment (on the first page). */
@@ -362,7 +365,7 @@ export function table(doc: PDFKit.PDFDocument, columns: { title: string; width: 
   const drawRow = (cells: Cell[], header: boolean) => {
     doc.font(header ? 'bold' : 'body').fontSize(8.5);
     const heights = cells.map((cell, i) => doc.heightOfString(typeof cell === 'string' ? cell : cell.text, { width: columns[i].width - 2 * pad }));
-    const h = Math.max(...heights) + 2 * pad;
+    const h = max(heights) + 2 * pad;
     if (doc.y + h > A4.height - MARGIN - 10) {
       doc.addPage();
       if (!header) drawRow(columns.map((col) => col.title), true);
@@ -391,7 +394,7 @@ function drawZonePlan(doc: PDFKit.PDFDocument, z: ReportData['zones'][number], u
   const top = doc.y;
   const xs = z.polygon.map((p) => p[0]);
   const ys = z.polygon.map((p) => p[1]);
-  const minX = Math.min(...xs), maxX = Math.max(...xs), minY = Math.min(...ys), maxY = Math.max(...ys);
+  const minX = min(xs), maxX = max(xs), minY = min(ys), maxY = max(ys);
   const pad = 16;
   const s = Math.min((boxW - 2 * pad) / Math.max(maxX - minX, 0.1), (boxH - 2 * pad - 14) / Math.max(maxY - minY, 0.1));
   const ox = MARGIN + pad + ((boxW - 2 * pad) - (maxX - minX) * s) / 2;
@@ -404,23 +407,29 @@ function drawZonePlan(doc: PDFKit.PDFDocument, z: ReportData['zones'][number], u
 
   const target = z.targetLux;
   const label = z.readings.length + z.wallBandReadings.length <= 80;
-  for (const r of z.readings) {
-    if (r.xM === null || r.yM === null) continue;
-    const below = target !== null && r.lux !== null && r.lux < target;
-    const colour = r.lux === null ? MUTED : below ? VERDICT_COLOURS.falls_short : VERDICT_COLOURS.meets;
-    const x = tx(r.xM), y = ty(r.yM);
-    // A bound is drawn as a triangle pointing the way the true value lies: up for "at least", down for "at most".
-    if (r.luxBound === 'lower') doc.polygon([x, y - 3.4], [x + 3.2, y + 2.4], [x - 3.2, y + 2.4]).lineWidth(0.9).strokeColor(colour).stroke();
-    else if (r.luxBound === 'upper') doc.polygon([x, y + 3.4], [x + 3.2, y - 2.4], [x - 3.2, y - 2.4]).lineWidth(0.9).strokeColor(colour).stroke();
-    else doc.circle(x, y, 2.6).fillColor(colour).fill();
-    if (label) {
-      doc.fontSize(5.5).fillColor(INK);
-      textWithSymbols(doc, 'body', r.lux === null ? 'fault' : boundSign(r.luxBound === 'exact' ? null : r.luxBound) + u(r.lux).replace(/ (lx|fc)$/, ''), { x: x + 3.5, y: y - 3 }, { lineBreak: false });
+  const dots = z.readings.length + z.wallBandReadings.length > MAX_DRAWN_POINTS ? thinnedDots(z, tx, ty, target) : null;
+  if (dots) {
+    for (const d of dots.used) doc.circle(d.x, d.y, 2.6).fillColor(d.colour).fill();
+    for (const d of dots.band) doc.circle(d.x, d.y, 2.6).lineWidth(0.7).strokeColor(MUTED).stroke();
+  } else {
+    for (const r of z.readings) {
+      if (r.xM === null || r.yM === null) continue;
+      const below = target !== null && r.lux !== null && r.lux < target;
+      const colour = r.lux === null ? MUTED : below ? VERDICT_COLOURS.falls_short : VERDICT_COLOURS.meets;
+      const x = tx(r.xM), y = ty(r.yM);
+      // A bound is drawn as a triangle pointing the way the true value lies: up for "at least", down for "at most".
+      if (r.luxBound === 'lower') doc.polygon([x, y - 3.4], [x + 3.2, y + 2.4], [x - 3.2, y + 2.4]).lineWidth(0.9).strokeColor(colour).stroke();
+      else if (r.luxBound === 'upper') doc.polygon([x, y + 3.4], [x + 3.2, y - 2.4], [x - 3.2, y - 2.4]).lineWidth(0.9).strokeColor(colour).stroke();
+      else doc.circle(x, y, 2.6).fillColor(colour).fill();
+      if (label) {
+        doc.fontSize(5.5).fillColor(INK);
+        textWithSymbols(doc, 'body', r.lux === null ? 'fault' : boundSign(r.luxBound === 'exact' ? null : r.luxBound) + u(r.lux).replace(/ (lx|fc)$/, ''), { x: x + 3.5, y: y - 3 }, { lineBreak: false });
+      }
     }
-  }
-  for (const r of z.wallBandReadings) {
-    if (r.xM === null || r.yM === null) continue;
-    doc.circle(tx(r.xM), ty(r.yM), 2.6).lineWidth(0.7).strokeColor(MUTED).stroke();
+    for (const r of z.wallBandReadings) {
+      if (r.xM === null || r.yM === null) continue;
+      doc.circle(tx(r.xM), ty(r.yM), 2.6).lineWidth(0.7).strokeColor(MUTED).stroke();
+    }
   }
 
   // Scale bar: a round length near a fifth of the drawing.
@@ -432,6 +441,45 @@ function drawZonePlan(doc: PDFKit.PDFDocument, z: ReportData['zones'][number], u
     `${target !== null ? 'Filled green: at or above Em; filled red: below Em' : 'Filled: points used'}; open triangle up: over range (at least); down: under range (at most); hollow circle: wall band (left out)${target !== null ? '; grey: fault' : ''}.`,
     MARGIN + boxW / 4, barY - 4, { width: boxW * 3 / 4 - 8, align: 'right', lineBreak: false },
   );
+  if (dots) {
+    doc.font('body').fontSize(7).fillColor(MUTED).text(
+      `${(z.readings.length + z.wallBandReadings.length).toLocaleString('en-GB')} points drawn as ${(dots.used.length + dots.band.length).toLocaleString('en-GB')} dots: each dot stands for the points under it, red when any of them is below Em.`,
+      MARGIN + 4, top + 4, { width: boxW - 8, lineBreak: false },
+    );
+  }
   doc.x = MARGIN;
   doc.y = top + boxH + 8;
+}
+
+/** Above this many points a zone's drawing merges the points under each dot (a dot is 5.2 pt wide). */
+const MAX_DRAWN_POINTS = 2000;
+
+/**
+ * One dot per 5.2 pt cell of the drawing holding points: red if any point in it is below Em,
+ * grey if all are faults, else green; wall-band cells hollow. Bounds the drawing whatever the
+ * zone's size (at most about 100 x 50 cells), and hides no shortfall.
+ */
+function thinnedDots(z: ReportData['zones'][number], tx: (x: number) => number, ty: (y: number) => number, target: number | null) {
+  const cell = 5.2;
+  const used = new Map<string, { x: number; y: number; below: boolean; value: boolean }>();
+  for (const r of z.readings) {
+    if (r.xM === null || r.yM === null) continue;
+    const x = tx(r.xM), y = ty(r.yM);
+    const key = `${Math.floor(x / cell)},${Math.floor(y / cell)}`;
+    const d = used.get(key) ?? { x: (Math.floor(x / cell) + 0.5) * cell, y: (Math.floor(y / cell) + 0.5) * cell, below: false, value: false };
+    if (r.lux !== null) d.value = true;
+    if (r.lux !== null && target !== null && r.lux < target) d.below = true;
+    used.set(key, d);
+  }
+  const band = new Map<string, { x: number; y: number }>();
+  for (const r of z.wallBandReadings) {
+    if (r.xM === null || r.yM === null) continue;
+    const x = tx(r.xM), y = ty(r.yM);
+    const key = `${Math.floor(x / cell)},${Math.floor(y / cell)}`;
+    if (!band.has(key) && !used.has(key)) band.set(key, { x: (Math.floor(x / cell) + 0.5) * cell, y: (Math.floor(y / cell) + 0.5) * cell });
+  }
+  return {
+    used: [...used.values()].map((d) => ({ x: d.x, y: d.y, colour: !d.value ? MUTED : d.below ? VERDICT_COLOURS.falls_short : VERDICT_COLOURS.meets })),
+    band: [...band.values()],
+  };
 }

@@ -24,8 +24,10 @@ export function siteConditions(db: Deps['db'], user: SessionUser): SQL[] {
 }
 
 export function listSites(db: Deps['db'], user: SessionUser): Site[] {
-  const rows = db.select({ site: sites, surveyCount: sql<number>`(select count(*) from ${surveys} where ${surveys.siteId} = ${sites.id})` })
-    .from(sites).where(and(...siteConditions(db, user))).orderBy(sites.name).all();
+  // One grouped query. (A correlated subquery here once counted 0: its columns rendered unqualified, so "id" meant the survey's.)
+  const rows = db.select({ site: sites, surveyCount: sql<number>`count(${surveys.id})` })
+    .from(sites).leftJoin(surveys, eq(surveys.siteId, sites.id)).where(and(...siteConditions(db, user)))
+    .groupBy(sites.id).orderBy(sites.name).all();
   return rows.map((r) => present(r.site, r.surveyCount));
 }
 

@@ -1,3 +1,4 @@
+import { max, min } from 'simple-statistics';
 import { scaleDiverging, scaleSequentialLog } from 'd3-scale';
 import { interpolateCividis, interpolatePuOr } from 'd3-scale-chromatic';
 import { EN12464_SCALE_LUX } from '@shared/spatial/isolux';
@@ -11,8 +12,8 @@ export const NO_VALUE_COLOUR = '#9aa1ab';
  */
 export function luxColourScale(values: readonly number[]) {
   const positive = values.filter((v) => v > 0 && Number.isFinite(v));
-  let lo = positive.length ? Math.min(...positive) : 10;
-  let hi = positive.length ? Math.max(...positive) : 1000;
+  let lo = positive.length ? min(positive) : 10;
+  let hi = positive.length ? max(positive) : 1000;
   lo = Math.max(0.1, lo);
   if (hi / lo < 10) { const mid = Math.sqrt(hi * lo); lo = mid / Math.sqrt(10); hi = mid * Math.sqrt(10); }
   const scale = scaleSequentialLog(interpolateCividis).domain([lo, hi]).clamp(true);
@@ -30,7 +31,8 @@ export function luxColourScale(values: readonly number[]) {
 
 /** Lux change colours: purple-orange diverging (colour-blind safe), symmetric about no change. */
 export function differenceColourScale(deltas: readonly number[]) {
-  const m = Math.max(1, ...deltas.filter(Number.isFinite).map(Math.abs));
+  const finite = deltas.filter(Number.isFinite).map(Math.abs);
+  const m = Math.max(1, finite.length ? max(finite) : 0);
   const scale = scaleDiverging(interpolatePuOr).domain([m, 0, -m]);
   return { maxAbs: m, colour: (d: number | null) => (d === null ? NO_VALUE_COLOUR : scale(d)), gradient: Array.from({ length: 11 }, (_, i) => interpolatePuOr(1 - i / 10)) };
 }

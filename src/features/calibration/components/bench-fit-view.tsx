@@ -1,3 +1,4 @@
+import { max } from 'simple-statistics';
 import { useState } from 'react';
 import { CartesianGrid, ComposedChart, Legend, Line, ReferenceLine, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis } from 'recharts';
 import { AlertTriangle, CheckCircle2 } from 'lucide-react';
@@ -76,7 +77,7 @@ function CodeCharts({ g }: { g: GainFitDto }) {
   const points = g.points.map((p) => ({ x: convert(p.referenceLux), counts: p.counts, fitted: p.fitted, residual: p.residual, line: p.line }));
   const line = [...points].sort((a, b) => a.x - b.x);
   const xLabel = `Reference illuminance (${label})`;
-  const maxRes = Math.max(...points.map((p) => Math.abs(p.residual)));
+  const maxRes = points.length ? max(points.map((p) => Math.abs(p.residual))) : -Infinity;
   const resTicks = symmetricTicks(maxRes);
   return (
     <div className="grid gap-6 lg:grid-cols-2">

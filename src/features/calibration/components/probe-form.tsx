@@ -1,3 +1,4 @@
+import { max } from 'simple-statistics';
 import { useFieldArray, useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
@@ -88,7 +89,7 @@ export function ProbeForm({ probe, onSubmit, busy, error, submitLabel }: {
             {e.gains?.message && <p role="alert" className="mt-1 text-xs font-medium text-short-600">{e.gains.message}</p>}
             {!hasSets && gainRows.length < MAX_GAIN_STEPS && (
               <Button type="button" variant="secondary" size="sm" className="mt-2"
-                onClick={() => { const codes = (form.getValues('gains') ?? []).map((g) => Number(g.code)); const next = codes.length ? Math.max(...codes) + 1 : 0; gains.append({ code: next, nominalGain: 8 ** next } as never); }}>
+                onClick={() => { const codes = (form.getValues('gains') ?? []).map((g) => Number(g.code)); const next = codes.length ? max(codes) + 1 : 0; gains.append({ code: next, nominalGain: 8 ** next } as never); }}>
                 <Plus className="h-4 w-4" aria-hidden />Add gain step
               </Button>
             )}

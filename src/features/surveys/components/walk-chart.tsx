@@ -1,3 +1,4 @@
+import { max, min } from 'simple-statistics';
 import { CartesianGrid, Line, LineChart, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis } from 'recharts';
 import { formatClock, zoneLabel } from '@shared/datetime';
 import { formatDisplayNumber } from '@shared/display-number';
@@ -23,8 +24,8 @@ const down = (props: unknown) => {
 export function paddedLogDomain(values: number[]): [number, number] {
   const positive = values.filter((v) => v > 0);
   if (positive.length === 0) return [1, 10];
-  const lo = Math.log10(Math.min(...positive));
-  const hi = Math.log10(Math.max(...positive));
+  const lo = Math.log10(min(positive));
+  const hi = Math.log10(max(positive));
   return [10 ** (lo - 0.2), 10 ** (hi + 0.2)];
 }
 
