@@ -5,8 +5,7 @@ import { surveys } from '@server/db/schema/surveys';
 import { eq } from 'drizzle-orm';
 
 let t: TestApp;
-// Many sign-ins from one test address: the per-address budget is not what this file tests (sessions-and-limits.test.ts does).
-beforeAll(async () => { t = await createTestApp({ signInLimits: { perAddress: 1000, perAccount: 5 } }); });
+beforeAll(async () => { t = await createTestApp(); });
 
 describe('sites API', () => {
   it('creates a site, when the time zone is an IANA name, and lists it for the organisation', async () => {

@@ -1,4 +1,5 @@
 import { Link } from 'react-router';
+import { max, min } from 'simple-statistics';
 import { MAINTENANCE_LABELS, type MaintenanceZone } from '@shared/schemas/compliance';
 import { paths } from '@shared/paths';
 import { Badge } from '@/components/ui/badge';
@@ -12,8 +13,8 @@ function Trend({ zone }: { zone: MaintenanceZone }) {
   const w = 160;
   const h = 44;
   const values = zone.trend.map((p) => p.eavg);
-  const lo = Math.min(zone.targetLux, ...values) * 0.9;
-  const hi = Math.max(zone.targetLux, ...values) * 1.05;
+  const lo = min([zone.targetLux, ...values]) * 0.9;
+  const hi = max([zone.targetLux, ...values]) * 1.05;
   const x = (i: number) => (zone.trend.length === 1 ? w / 2 : 6 + (i * (w - 12)) / (zone.trend.length - 1));
   const y = (v: number) => h - 4 - ((v - lo) / (hi - lo || 1)) * (h - 8);
   const words = zone.trend.map((p) => `${p.date}: ${format(p.eavg)}`).join('; ');
