@@ -28,7 +28,12 @@ export interface AnalogProbe {
   accuracyPercent: number;
 }
 
-export type Probe = CountingProbe | AnalogProbe;
+/** A hand-held meter that does not log: its values are typed (shared/core/typed-readings). */
+export interface ManualProbe {
+  kind: 'manual';
+}
+
+export type Probe = CountingProbe | AnalogProbe | ManualProbe;
 
 /** Calibration coefficients of one gain code. */
 export interface GainCoefficients {
@@ -64,7 +69,11 @@ export type ReadingFlag = 'ok' | 'over_range' | 'under_range' | 'fault' | 'calib
 /** 'lower': the true value is at least lux; 'upper': at most lux. */
 export type LuxBound = 'exact' | 'lower' | 'upper';
 
-export type BudgetPartName = 'calibration' | 'quantisation' | 'dark_offset' | 'temperature' | 'transmitter';
+/**
+ * meter_class: a hand-held meter's class limit (DIN 5032-7) standing in for a certificate;
+ * repeatability: the spread of several values typed at one point (standard deviation of their mean).
+ */
+export type BudgetPartName = 'calibration' | 'quantisation' | 'dark_offset' | 'temperature' | 'transmitter' | 'meter_class' | 'repeatability';
 
 /** One relative standard uncertainty (k = 1) of a reading's budget. */
 export interface BudgetPart {

@@ -16,7 +16,7 @@ export const ASSUMED_TEMPERATURE_BOUND_K = 10;
 export const TEMPERATURE_SENSOR_BOUND_K = 1;
 
 /** Parts treated as random between points of one survey; all others are systematic (do not average down). */
-export const RANDOM_PARTS: ReadonlySet<BudgetPartName> = new Set<BudgetPartName>(['quantisation']);
+export const RANDOM_PARTS: ReadonlySet<BudgetPartName> = new Set<BudgetPartName>(['quantisation', 'repeatability']);
 
 /** Standard uncertainty of a rectangular distribution of half-width a: a / sqrt(3) (GUM 4.3.7). */
 export function rectangular(a: number): number {

@@ -4,8 +4,8 @@
 // import's writer thread encodes budgets too; types in stored-budget.d.mts.
 
 /** The parts a budget can have, in the order the measurement core lists them. */
-export const BUDGET_PARTS = ['calibration', 'quantisation', 'dark_offset', 'temperature', 'transmitter'];
-const KEYS = ['c', 'q', 'd', 't', 'x'];
+export const BUDGET_PARTS = ['calibration', 'quantisation', 'dark_offset', 'temperature', 'transmitter', 'meter_class', 'repeatability'];
+const KEYS = ['c', 'q', 'd', 't', 'x', 'm', 'r'];
 const NAME_OF = Object.fromEntries(BUDGET_PARTS.map((name, i) => [KEYS[i], name]));
 
 /** The budget as stored, e.g. {"c":0.02,"q":0.0001,"d":0.003,"t":0.004}; non-finite parts are left out. */
