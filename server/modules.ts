@@ -24,6 +24,7 @@ import { registerOrganizationRoutes } from './modules/organization/organization-
 import { registerComplianceRoutes } from './modules/compliance/compliance-routes';
 import { registerWorkflowRoutes } from './modules/workflow/workflow-routes';
 import { registerReportRoutes } from './modules/reports/reports-routes';
+import { registerFieldRoutes } from './modules/field/field-routes';
 import { registerEmergencyRoutes } from './modules/emergency/emergency-routes';
 import { runEmergencyTestReminders } from './modules/emergency/test-reminders-service';
 import { seedCalibration } from './db/seed-calibration';
@@ -81,6 +82,8 @@ export const SERVER_MODULES: ServerModule[] = [
   { name: 'compliance', routes: registerComplianceRoutes, seed: seedCompliance },
   { name: 'workflow', routes: registerWorkflowRoutes },
   { name: 'reports', routes: registerReportRoutes },
+  // The field view: records synced from the phone (typed readings join the survey's readings).
+  { name: 'field', routes: registerFieldRoutes },
   // The library's emergency lighting on the ground-floor plan, its night test and logbook.
   { name: 'emergency', routes: registerEmergencyRoutes, seed: seedEmergency, jobs: [{ name: 'emergency-test-reminders', everyMs: DAY_MS, run: (deps) => runEmergencyTestReminders(deps) }] },
   // Seeded after the rest so the earlier demo ids stay as they were (tests and README name them).

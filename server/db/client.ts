@@ -12,8 +12,9 @@ import * as targets from './schema/targets';
 import * as emergency from './schema/emergency';
 import * as grids from './schema/grids';
 import * as jobs from './schema/jobs';
+import * as field from './schema/field';
 
-export const schema = { ...organizations, ...calibration, ...surveys, ...plans, ...targets, ...emergency, ...grids, ...jobs };
+export const schema = { ...organizations, ...calibration, ...surveys, ...plans, ...targets, ...emergency, ...grids, ...jobs, ...field };
 export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
 
 const migrationsFolder = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../drizzle');

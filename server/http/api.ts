@@ -69,7 +69,8 @@ export class Api {
         const result = await handler({ ...input, user: req.user as SessionUser, req, res });
         if (res.headersSent) return;
         if (result === undefined) res.status(spec.status ?? 204).end();
-        else res.status(spec.status ?? 200).json(result);
+        // A handler may choose between 200 and 201 itself (an idempotent create answers 200 for a repeat).
+        else res.status(spec.status ?? res.statusCode).json(result);
       } catch (err) {
         next(err);
       }

@@ -15,14 +15,14 @@ const IMAGE_TYPES = new Set(['image/png', 'image/jpeg', 'image/webp']);
  * Decides a file's type from its content, never from its name or the browser's claim.
  * CSV is text: it must have no NUL byte and be valid UTF-8 in its first 64 KiB.
  */
-export async function sniffFile(filePath: string, expected: FileKind): Promise<string> {
+export async function sniffFile(filePath: string, expected: FileKind, what = 'A plan'): Promise<string> {
   const detected = await fileTypeFromFile(filePath);
   if (expected === 'pdf') {
     if (detected?.mime !== 'application/pdf') throw unsupportedMediaType('The certificate must be a PDF file');
     return 'application/pdf';
   }
   if (expected === 'image') {
-    if (!detected || !IMAGE_TYPES.has(detected.mime)) throw unsupportedMediaType('A plan must be a PNG, JPEG or WebP image');
+    if (!detected || !IMAGE_TYPES.has(detected.mime)) throw unsupportedMediaType(`${what} must be a PNG, JPEG or WebP image${detected ? ` (this looks like ${detected.mime})` : ''}`);
     return detected.mime;
   }
   const fd = fs.openSync(filePath, 'r');

@@ -1,8 +1,9 @@
 import { z } from 'zod';
 import { SURVEY_STATUSES } from './surveys';
 import { multiLineText } from './text';
+import { METER_CLASSES, METER_CLASS_LIMIT } from '../core/typed-readings';
 
-export const PROBE_KINDS = ['counts', 'current_4_20', 'voltage_0_10'] as const;
+export const PROBE_KINDS = ['counts', 'current_4_20', 'voltage_0_10', 'manual'] as const;
 export const PROBE_STATUSES = ['in_service', 'out_of_service', 'retired'] as const;
 export const ANALOG_SCALES = ['linear', 'log10'] as const;
 export type ProbeKind = (typeof PROBE_KINDS)[number];
@@ -12,7 +13,11 @@ export const PROBE_KIND_LABELS: Record<ProbeKind, string> = {
   counts: 'Counting (ADC with gain steps)',
   current_4_20: '4-20 mA transmitter',
   voltage_0_10: '0-10 V transmitter',
+  manual: 'Hand-held meter, values typed',
 };
+
+/** A manual meter's class choices as shown (DIN 5032-7:1985 total error limits, secondary source). */
+export const METER_CLASS_LABELS = Object.fromEntries(METER_CLASSES.map((c) => [c, `Class ${c} (±${Math.round(METER_CLASS_LIMIT[c] * 100)} %)`])) as Record<(typeof METER_CLASSES)[number], string>;
 export const PROBE_STATUS_LABELS: Record<ProbeStatus, string> = {
   in_service: 'In service',
   out_of_service: 'Out of service',
@@ -46,6 +51,8 @@ export const probeFieldsSchema = z.object({
   rangeHighLux: optionalNumber,
   scale: z.enum(ANALOG_SCALES).nullable().optional(),
   accuracyPercent: z.number().min(0).max(50).nullable().optional(),
+  /** Manual meters: DIN 5032-7 class, or null to take the certificate's uncertainty from the coefficient set. */
+  meterClass: z.enum(METER_CLASSES).nullable().optional(),
 });
 export type ProbeFields = z.infer<typeof probeFieldsSchema>;
 
@@ -71,6 +78,12 @@ export function probeFieldIssues(p: ProbeFields): Issue[] {
       if (seen.has(g.code)) issues.push({ path: `gains.${i}.code`, message: `Gain code ${g.code} appears twice` });
       seen.add(g.code);
     });
+  } else if (p.kind === 'manual') {
+    // The display's range is optional; values beyond it are refused when given.
+    if (p.rangeLowLux != null && p.rangeLowLux < 0) issues.push({ path: 'rangeLowLux', message: 'The range low cannot be negative' });
+    if (p.rangeLowLux != null && p.rangeHighLux != null && p.rangeHighLux <= p.rangeLowLux) {
+      issues.push({ path: 'rangeHighLux', message: 'The range high must be above the range low' });
+    }
   } else {
     if (p.rangeLowLux == null) issues.push({ path: 'rangeLowLux', message: 'An analog probe needs its range low (lux)' });
     if (p.rangeHighLux == null) issues.push({ path: 'rangeHighLux', message: 'An analog probe needs its range high (lux)' });
@@ -117,6 +130,7 @@ export const probeSchema = z.object({
   rangeHighLux: z.number().nullable(),
   scale: z.enum(ANALOG_SCALES).nullable(),
   accuracyPercent: z.number().nullable(),
+  meterClass: z.enum(METER_CLASSES).nullable(),
   /** The approved set in force now, if any. */
   currentSet: z.object({ id: z.number().int(), version: z.number().int(), effectiveFrom: z.string(), dueDate: z.string(), certificateNumber: z.string() }).nullable(),
   calibrationState: z.enum(CALIBRATION_STATES),

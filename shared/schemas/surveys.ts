@@ -22,6 +22,8 @@ export const SURVEY_STATUS_LABELS: Record<SurveyStatus, string> = {
 export const surveyConditionsSchema = z.object({
   /** True when daylight was excluded (blinds down, after dark) so readings are electric light only. */
   daylightExcluded: z.boolean(),
+  /** Judge points that have a lights-on/off pair on the electric light alone, E_on - E_off (ASR A3.4 section 7.3). */
+  pairedDaylight: z.boolean().optional(),
   notes: multiLineText(z.string().trim().max(1000)).optional(),
 });
 export type SurveyConditions = z.infer<typeof surveyConditionsSchema>;

@@ -1,7 +1,7 @@
 import type { LucideIcon } from 'lucide-react';
 import {
   ClipboardCheck, ClipboardList as SurveysIcon, Gauge as CalibrationIcon, History as AuditIcon,
-  LayoutDashboard, Library, Mail, Map as PlanIcon, Settings, Siren, Users, Wrench,
+  LayoutDashboard, Library, Mail, Map as PlanIcon, Settings, Siren, Smartphone as FieldIcon, Users, Wrench,
 } from 'lucide-react';
 import type { Capability } from '@shared/policy';
 import { paths } from '@shared/paths';
@@ -18,6 +18,7 @@ export const NAV_ITEMS: NavItem[] = [
   entry(paths.home, { label: 'Overview', icon: LayoutDashboard, group: 'work' }),
   // Feature entries go here, in the order people use them.
   entry(paths.surveys, { label: 'Surveys', icon: SurveysIcon, group: 'work', description: 'Sites, walk-through surveys, meter logs and their readings.' }),
+  entry(paths.field, { label: 'Field view', icon: FieldIcon, group: 'work', description: 'Measure on a phone, with or without a logging meter or a connection.' }),
   entry(paths.plans, { label: 'Plans', icon: PlanIcon, group: 'work', description: 'Plans to scale, zones, and survey points on the plan.' }),
   entry(paths.compliance, { label: 'Verdicts', icon: ClipboardCheck, group: 'work', description: 'Which rooms meet their lighting targets, sign-off and reports.' }),
   entry(paths.emergency, { label: 'Emergency lighting', icon: Siren, group: 'work', description: 'Escape routes and areas surveyed in the dark, verdicts, and the test logbook with due dates.' }),

@@ -80,6 +80,19 @@ export const routes: RouteObject[] = [
   lazyPage('resetPassword', () => import('./routes/auth/token-password').then((m) => () => <m.TokenPasswordRoute purpose="reset" />), publicPage),
   lazyPage('acceptInvite', () => import('./routes/auth/token-password').then((m) => () => <m.TokenPasswordRoute purpose="invite" />), publicPage),
   {
+    // The field view has its own phone-first frame (usable offline) and loads its code only when opened.
+    path: paths.field.pattern,
+    lazy: async () => {
+      const m = await import('./routes/field/field-shell');
+      return { Component: m.FieldShell, loader: m.fieldShellLoader };
+    },
+    errorElement: <RouteErrorBoundary />,
+    children: [
+      { index: true, lazy: async () => ({ Component: (await import('./routes/field/field-index')).FieldIndexRoute }) },
+      { path: paths.fieldSurvey.pattern.slice(paths.field.pattern.length + 1), lazy: async () => ({ Component: (await import('./routes/field/field-survey')).FieldSurveyRoute }) },
+    ],
+  },
+  {
     path: paths.home.pattern,
     element: <AppShell />,
     loader: requireUser,

@@ -10,9 +10,10 @@ import { calibrationExamples } from './route-examples/calibration';
 import { complianceExamples } from './route-examples/compliance';
 import { emergencyExamples } from './route-examples/emergency';
 import { placementExamples, plannedPointExamples, walkSheetExamples } from './route-examples/planned-points';
+import { fieldExamples } from './route-examples/field';
 
 // Every feature adds its examples here; a route without one fails the first test.
-const EXAMPLES: RouteExamples = { ...foundationExamples, ...surveyExamples, ...planExamples, ...calibrationExamples, ...complianceExamples, ...emergencyExamples, ...plannedPointExamples, ...placementExamples, ...walkSheetExamples };
+const EXAMPLES: RouteExamples = { ...foundationExamples, ...surveyExamples, ...planExamples, ...calibrationExamples, ...complianceExamples, ...emergencyExamples, ...plannedPointExamples, ...placementExamples, ...walkSheetExamples, ...fieldExamples };
 
 const ROLE_ACCOUNT: Record<Role, string> = {
   admin: DEMO.admin, surveyor: DEMO.surveyor, calibration: DEMO.calibration, facility_manager: DEMO.facility_manager,

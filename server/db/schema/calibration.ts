@@ -1,3 +1,4 @@
+import { METER_CLASSES } from '@shared/core/typed-readings';
 import { sqliteTable, integer, text, real, uniqueIndex, index } from 'drizzle-orm/sqlite-core';
 import { organizations, users, storedFiles } from './organizations';
 import { ANALOG_SCALES, PROBE_KINDS, PROBE_STATUSES } from '@shared/schemas/probes';
@@ -22,6 +23,8 @@ export const probes = sqliteTable('probes', {
   rangeHighLux: real('range_high_lux'),
   scale: text('scale', { enum: ANALOG_SCALES }),
   accuracyPercent: real('accuracy_percent'),
+  /** A hand-held meter without logging: its DIN 5032-7 class, or null to use its certificate's uncertainty. */
+  meterClass: text('meter_class', { enum: METER_CLASSES }),
   createdAt: integer('created_at').notNull(),
   updatedAt: integer('updated_at').notNull(),
 }, (t) => [uniqueIndex('probes_org_serial_idx').on(t.organizationId, t.serial)]);

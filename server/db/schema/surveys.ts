@@ -8,7 +8,7 @@ import { IMPORT_STATUSES } from '@shared/schemas/imports';
 import { READING_FLAGS } from '@shared/schemas/readings';
 import { READING_PLANES } from '@shared/core/planes';
 
-export type SurveyConditions = { daylightExcluded: boolean; notes?: string };
+export type SurveyConditions = { daylightExcluded: boolean; pairedDaylight?: boolean; notes?: string };
 
 /** The parts of a maintenance factor (CIE 97:2005), when the design states them. */
 export type MaintenanceFactorParts = { llmf: number; lsf: number; lmf: number; rsmf: number };
@@ -90,7 +90,10 @@ export const readings = sqliteTable('readings', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   surveyId: integer('survey_id').notNull(),
   decodeId: integer('decode_id').notNull().references(() => decodes.id),
-  importId: integer('import_id').notNull().references(() => logImports.id),
+  /** The log import it came from; null for a reading recorded in the field view (field_record_id). */
+  importId: integer('import_id').references(() => logImports.id),
+  /** The typed field record this reading was made from (no import, no samples). */
+  fieldRecordId: integer('field_record_id'),
   point: text('point').notNull(),
   xM: real('x_m'),
   yM: real('y_m'),

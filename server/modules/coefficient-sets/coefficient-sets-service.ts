@@ -85,7 +85,7 @@ function checkGainsCoverProbe(probe: ProbeRow, gains: GainCoefficientsInput[]) {
   const extra = given.filter((c) => !expected.includes(c));
   if (missing.length || extra.length) {
     const what = [missing.length ? `missing code(s) ${missing.join(', ')}` : '', extra.length ? `unknown code(s) ${extra.join(', ')}` : ''].filter(Boolean).join('; ');
-    const hint = probe.kind === 'counts' ? `probe ${probe.serial} has gain codes ${expected.join(', ')}` : 'an analog probe takes one row with code 0 (its calibration uncertainty)';
+    const hint = probe.kind === 'counts' ? `probe ${probe.serial} has gain codes ${expected.join(', ')}` : `${probe.kind === 'manual' ? 'a hand-held meter' : 'an analog probe'} takes one row with code 0 (its calibration uncertainty)`;
     throw unprocessable(`The coefficients do not match the probe: ${what} (${hint})`, [{ path: 'gains', message: what }]);
   }
 }

@@ -39,6 +39,7 @@ const readingColumns = {
   lux: readings.lux, uLux: readings.uLux, luxBound: readings.luxBound, flag: readings.flag, budget: readings.budget, coefficientSetId: readings.coefficientSetId,
   plane: readings.plane, azimuthDeg: readings.azimuthDeg,
   excludedReason: readings.excludedReason,
+  note: readings.note,
 };
 
 /** The survey's current readings (active decode, accepted imports), in time order. */

@@ -18,6 +18,7 @@ import { siteConditions } from '../sites/sites-service';
 import { decisionRuleOf } from '../organization/organization-service';
 import { getVisibleTarget, presentTarget } from '../targets/targets-service';
 import { judgeZones, worstFirst, type JudgedZone, type JudgeReading, type JudgeResult } from './judge-zones';
+import { conditionNotes } from '../field/field-service';
 import { loadCurrentReadings, loadPlacementsOnPlannedPoints, loadPlannedGrids, loadReadingsById, loadSitePlans, loadUsedCoefficientSets, placementKey, type UsedCoefficientSet } from './compliance-repository';
 
 /** What a sign-off keeps in surveys.frozen: later target, rule or calibration changes never alter it. */
@@ -72,6 +73,7 @@ export function liveCompliance(db: Db, organizationId: number, survey: SurveyRow
     hasDaylightReference: reference.some((r) => r.lux !== null),
     warnings: [...new Set(perPlan.flatMap((r) => r.warnings))],
   };
+  result.warnings.push(...conditionNotes(db, survey, allReadings));
   if (withoutPlan > 0) {
     result.warnings.unshift(`${withoutPlan} task reading(s) have a position but no plan (the log named none and this site has ${plans.length} plans), so they could not be placed in any zone: give logs a plan column, or choose the plan when uploading.`);
   }

@@ -57,6 +57,8 @@ export type JudgeReading = {
   excludedReason?: string | null;
   /** The planned point this reading was placed on by hand, if any. */
   plannedPointId?: number | null;
+  /** A field reading of a lights-on/off pair says so here ("paired: ..."). */
+  note?: string | null;
 };
 
 /** A planned point on a room's wall or ceiling (a grid planned on request). */

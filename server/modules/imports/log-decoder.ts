@@ -148,6 +148,7 @@ export function createLogDecoder(calibration: ReadonlyMap<string, DecodingCalibr
     push(s: LogSample): void {
       const cal = calibration.get(s.probe);
       if (cal === undefined) return problem(s, 'probe', `Probe ${s.probe} is not registered in this organisation`);
+      if (cal.probe.kind === 'manual') return problem(s, 'probe', `Probe ${s.probe} is a hand-held meter without a log: type its values in the field view`);
       if (cal.probe.kind !== 'counts') return pushAnalog(s, cal.probe);
       if (s.gainCode === undefined || s.counts === undefined) {
         const has = s.ma !== undefined ? ' (this row has ma)' : s.volts !== undefined ? ' (this row has volts)' : '';

@@ -15,6 +15,7 @@ import { pagesOfSamples } from './sample-blocks';
 import { createBatchBuilder } from './batch-format.mjs';
 import { createBatchWriter } from './batch-writer.mjs';
 import { applyPlacements } from '../placements/placements-service';
+import { carryFieldReadings } from '../field/field-service';
 
 /**
  * Re-decodes every kept sample of a survey's accepted imports with the approved coefficient sets
@@ -68,6 +69,7 @@ export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: n
       .where(and(eq(readings.decodeId, decode.id), sql`${readings.timeMs} > ${coefficientSets.dueDate}`)).get()!.n;
     const now = deps.clock.now();
     deps.db.transaction((tx) => {
+      carryFieldReadings(tx, survey.id, survey.activeDecodeId, decode.id);
       // Hand placements and exclusions are kept by point label, probe and time: the new decode's readings get them again.
       applyPlacements(tx, survey.id, decode.id);
       tx.update(surveys).set({ activeDecodeId: decode.id }).where(eq(surveys.id, survey.id)).run();

@@ -27,6 +27,7 @@ export function toCoreProbe(row: ProbeRow): Probe {
       gains: (row.gains ?? []).map((g) => ({ code: g.code, nominalGain: g.nominalGain })),
     };
   }
+  if (row.kind === 'manual') return { kind: 'manual' };
   return {
     kind: row.kind,
     rangeLowLux: row.rangeLowLux ?? 0,

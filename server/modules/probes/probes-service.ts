@@ -35,12 +35,14 @@ function probeFields(row: ProbeRow): ProbeFields {
     serial: row.serial, kind: row.kind, description: row.description, status: row.status,
     fullScaleCounts: row.fullScaleCounts, saturationCounts: row.saturationCounts, floorCounts: row.floorCounts,
     gains: row.gains, rangeLowLux: row.rangeLowLux, rangeHighLux: row.rangeHighLux, scale: row.scale, accuracyPercent: row.accuracyPercent,
+    meterClass: row.meterClass,
   };
 }
 
 /** Keeps only the fields of the probe's kind (a counting probe has no analog range, and back). */
 function kindFields(p: ProbeFields) {
   const counting = p.kind === 'counts';
+  const analog = p.kind === 'current_4_20' || p.kind === 'voltage_0_10';
   return {
     fullScaleCounts: counting ? p.fullScaleCounts ?? null : null,
     saturationCounts: counting ? p.saturationCounts ?? null : null,
@@ -48,8 +50,9 @@ function kindFields(p: ProbeFields) {
     gains: counting ? [...(p.gains ?? [])].sort((a, b) => a.code - b.code) : null,
     rangeLowLux: counting ? null : p.rangeLowLux ?? null,
     rangeHighLux: counting ? null : p.rangeHighLux ?? null,
-    scale: counting ? null : p.scale ?? null,
-    accuracyPercent: counting ? null : p.accuracyPercent ?? null,
+    scale: analog ? p.scale ?? null : null,
+    accuracyPercent: analog ? p.accuracyPercent ?? null : null,
+    meterClass: p.kind === 'manual' ? p.meterClass ?? null : null,
   };
 }
 
@@ -58,7 +61,7 @@ function presentProbes(deps: Deps, rows: ProbeRow[]): ProbeDto[] {
     id: r.id,
     serial: r.serial, kind: r.kind, description: r.description, status: r.status,
     fullScaleCounts: r.fullScaleCounts, saturationCounts: r.saturationCounts, floorCounts: r.floorCounts, gains: r.gains,
-    rangeLowLux: r.rangeLowLux, rangeHighLux: r.rangeHighLux, scale: r.scale, accuracyPercent: r.accuracyPercent,
+    rangeLowLux: r.rangeLowLux, rangeHighLux: r.rangeHighLux, scale: r.scale, accuracyPercent: r.accuracyPercent, meterClass: r.meterClass,
     currentSet: current ? { id: current.id, version: current.version, effectiveFrom: iso(current.effectiveFrom), dueDate: iso(current.dueDate), certificateNumber: current.certificateNumber } : null,
     calibrationState: status.state,
     draftCount: sets.filter((s) => s.status === 'draft').length,

@@ -40,12 +40,15 @@ export function assertSurveyAbility(user: SessionUser, survey: SurveyAbilitySubj
   if (refusal) throw refused(refusal);
 }
 
-/** Readings that are current: those of the active decode from imports that were accepted whole. */
+/**
+ * Readings that are current: those of the active decode from imports that were accepted whole, and
+ * the readings typed in the field view (no import; they are carried into every new decode).
+ */
 export function currentReadingConditions(survey: Pick<SurveyRow, 'id' | 'activeDecodeId'>): SQL[] {
   return [
     eq(readings.decodeId, survey.activeDecodeId ?? -1),
     eq(readings.surveyId, survey.id),
-    sql`${readings.importId} in (select ${logImports.id} from ${logImports} where ${logImports.surveyId} = ${survey.id} and ${logImports.status} = 'done')`,
+    sql`(${readings.importId} is null or ${readings.importId} in (select ${logImports.id} from ${logImports} where ${logImports.surveyId} = ${survey.id} and ${logImports.status} = 'done'))`,
   ];
 }
 

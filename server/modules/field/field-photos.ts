@@ -1,0 +1,79 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import crypto from 'node:crypto';
+import sharp, { type OutputInfo } from 'sharp';
+import { and, eq } from 'drizzle-orm';
+import type { Deps } from '../../deps';
+import { fieldPhotos } from '../../db/schema/field';
+import { zones, plans } from '../../db/schema/plans';
+import { storedFiles } from '../../db/schema/organizations';
+import type { SessionUser } from '@shared/schemas/auth';
+import { fieldPhotoFieldsSchema, type FieldPhoto } from '@shared/schemas/field';
+import { badRequest, notFound, unprocessable } from '../../http/errors';
+import { keepUploadedFile, sniffFile, storedPath } from '../../lib/file-store';
+import { recordAudit } from '../audit/audit-service';
+import { getSurveyRow } from '../surveys/surveys-service';
+import { assertSurveyAcceptsFieldRecords, presentPhoto } from './field-service';
+
+/** A photo upload may be at most this large before shrinking (413 beyond; phone cameras give 3-12 MB). */
+export const FIELD_PHOTO_MAX_BYTES = 20 * 1024 * 1024;
+
+/** Photos are shrunk to fit this many pixels on the longer side (enough to read a label on a luminaire). */
+export const FIELD_PHOTO_MAX_SIDE_PX = 2048;
+
+export type UploadedPhoto = { path: string; originalname: string; size: number };
+
+/**
+ * Keeps a photo of a point or zone: checked by content (415 unless PNG, JPEG or WebP), turned
+ * upright, shrunk with sharp to FIELD_PHOTO_MAX_SIDE_PX as JPEG, with every metadata block (EXIF,
+ * so GPS location too) removed unless the user keeps it, then stored by the SHA-256 of the result.
+ * The same idempotency key twice stores one photo.
+ */
+export async function storeFieldPhoto(deps: Deps, user: SessionUser, surveyId: number, file: UploadedPhoto, rawFields: unknown): Promise<{ photo: FieldPhoto; alreadyStored: boolean }> {
+  const parsed = fieldPhotoFieldsSchema.safeParse(rawFields);
+  if (!parsed.success) throw badRequest(`${parsed.error.issues[0].path.join('.')}: ${parsed.error.issues[0].message}`, parsed.error.issues);
+  const fields = parsed.data;
+  const survey = getSurveyRow(deps.db, user, surveyId);
+  const earlier = deps.db.select().from(fieldPhotos).where(and(eq(fieldPhotos.surveyId, survey.id), eq(fieldPhotos.idempotencyKey, fields.idempotencyKey))).get();
+  if (earlier) return { photo: presentPhoto(earlier), alreadyStored: true };
+  assertSurveyAcceptsFieldRecords(survey);
+  if (fields.zoneId !== undefined) {
+    const z = deps.db.select({ id: zones.id, siteId: plans.siteId }).from(zones).innerJoin(plans, eq(plans.id, zones.planId)).where(eq(zones.id, fields.zoneId)).get();
+    if (!z || z.siteId !== survey.siteId) throw unprocessable(`Zone ${fields.zoneId} is not a zone of this survey's site`, [{ path: 'zoneId', message: 'not on this site' }]);
+  }
+  await sniffFile(file.path, 'image', 'A photo');
+
+  let pipeline = sharp(file.path, { failOn: 'error' }).rotate().resize({ width: FIELD_PHOTO_MAX_SIDE_PX, height: FIELD_PHOTO_MAX_SIDE_PX, fit: 'inside', withoutEnlargement: true });
+  // sharp writes no metadata unless asked: keepMetadata() carries EXIF (with any GPS tags) across.
+  if (fields.keepLocation) pipeline = pipeline.keepMetadata();
+  let out: { data: Buffer; info: OutputInfo };
+  try {
+    out = await pipeline.flatten({ background: '#ffffff' }).jpeg({ quality: 82, mozjpeg: true }).toBuffer({ resolveWithObject: true });
+  } catch (e) {
+    throw unprocessable(`The photo could not be read: ${e instanceof Error ? e.message : String(e)}`);
+  }
+  const tmp = path.join(deps.config.dataDir, 'uploads', `photo-${crypto.randomUUID()}.jpg`);
+  fs.mkdirSync(path.dirname(tmp), { recursive: true });
+  fs.writeFileSync(tmp, out.data);
+  const stored = await keepUploadedFile(deps, { organizationId: user.organizationId, userId: user.id, tmpPath: tmp, filename: `${(file.originalname || 'photo').replace(/\.[^.]*$/, '')}.jpg`, contentType: 'image/jpeg' });
+  const now = deps.clock.now();
+  const row = deps.db.transaction((tx) => {
+    const created = tx.insert(fieldPhotos).values({
+      organizationId: user.organizationId, surveyId: survey.id, idempotencyKey: fields.idempotencyKey, fileId: stored.id, point: fields.point ?? null,
+      plannedPointId: fields.plannedPointId ?? null, zoneId: fields.zoneId ?? null, note: fields.note ?? null, widthPx: out.info.width, heightPx: out.info.height,
+      locationKept: fields.keepLocation, takenAt: Date.parse(fields.takenAt), createdBy: user.id, createdAt: now,
+    }).returning().get();
+    recordAudit(tx, { organizationId: user.organizationId, actorId: user.id, entityType: 'field_photo', entityId: created.id, surveyId: survey.id, action: 'recorded', after: { ...fields, sha256: stored.sha256 }, at: now });
+    return created;
+  });
+  return { photo: presentPhoto(row), alreadyStored: false };
+}
+
+/** The stored photo file (404 for another organisation's photo or a survey out of the user's sites). */
+export function fieldPhotoFile(deps: Deps, user: SessionUser, photoId: number) {
+  const row = deps.db.select({ photo: fieldPhotos, file: storedFiles }).from(fieldPhotos).innerJoin(storedFiles, eq(storedFiles.id, fieldPhotos.fileId))
+    .where(and(eq(fieldPhotos.id, photoId), eq(fieldPhotos.organizationId, user.organizationId))).get();
+  if (!row) throw notFound('Photo');
+  getSurveyRow(deps.db, user, row.photo.surveyId);
+  return { filePath: storedPath(deps, row.file.sha256), sha256: row.file.sha256, size: row.file.size, contentType: row.file.contentType };
+}
