@@ -60,6 +60,8 @@ export const surveyKeys = {
   /** Planned grids and points (with their reading counts), for the whole survey or one plan. */
   plannedPoints: (surveyId: number, planId: number | null) => [...surveyKeys.detail(surveyId), 'planned-points', { planId }] as const,
   unplaced: (surveyId: number) => [...surveyKeys.detail(surveyId), 'unplaced'] as const,
+  /** What the field view keeps of the survey (plans, points, records, photos). */
+  field: (surveyId: number) => [...surveyKeys.detail(surveyId), 'field'] as const,
 };
 
 export const importKeys = {

@@ -1,6 +1,7 @@
 import { useCallback, useEffect, useState } from 'react';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import type { FieldState } from '@shared/schemas/field';
+import { surveyKeys } from '@/lib/query-keys';
 import { fieldStateQueryOptions } from '../api/get-field-state';
 import { enqueue, loadSnapshot, outboxItems, removeItem, saveSnapshot, type OfflineSnapshot, type OutboxItem } from './field-db';
 import { syncOutbox } from './sync';
@@ -54,7 +55,8 @@ export function useFieldSurvey(surveyId: number) {
     try {
       const out = await syncOutbox();
       await refreshOutbox();
-      if (out.sent > 0 || out.refused > 0) await qc.invalidateQueries({ queryKey: fieldStateQueryOptions(surveyId).queryKey });
+      // Synced records change the survey's readings and verdicts as well as its field state.
+      if (out.sent > 0 || out.refused > 0) await qc.invalidateQueries({ queryKey: surveyKeys.detail(surveyId) });
     } finally {
       setSyncing(false);
     }
