@@ -1,9 +1,9 @@
-import fs from 'node:fs';
 import type { Api } from '../../http/api';
 import type { Deps } from '../../deps';
 import { idParamsSchema } from '@shared/schemas/common';
 import { createPlanFieldsSchema, PLAN_IMAGE_MAX_BYTES, planListResponseSchema, planSchema, surveyMapQuerySchema, surveyMapResponseSchema, updatePlanBodySchema } from '@shared/schemas/plans';
 import { singleFileUpload } from '../../http/upload';
+import { sendStoredFile } from '../../http/send-stored-file';
 import { createPlan, deletePlan, getPlan, listPlans, planImage, replacePlanImage, updatePlan } from './plans-service';
 import { surveyMap } from './survey-map-service';
 
@@ -35,19 +35,8 @@ export function registerPlanRoutes(api: Api, deps: Deps) {
   }, ({ user, params, req }) => replacePlanImage(deps, user, params.id, req.file!));
 
   api.route({ method: 'get', path: '/plans/:id/image', access: 'sites.read', tag: 'plans', summary: 'The plan image (ETag is its SHA-256)', params: idParamsSchema, produces: 'image/*' },
-    ({ user, params, req, res }) => {
-      const image = planImage(deps, user, params.id);
-      // The image of a plan never changes (a new image is a new plan): revalidation is cheap.
-      res.setHeader('ETag', `"${image.sha256}"`);
-      res.setHeader('Cache-Control', 'private, max-age=3600');
-      res.setHeader('Vary', 'Cookie');
-      if (req.fresh) { res.status(304).end(); return; }
-      res.setHeader('Content-Type', image.contentType);
-      res.setHeader('Content-Length', String(image.size));
-      return new Promise<void>((resolve, reject) => {
-        fs.createReadStream(image.filePath).on('error', reject).pipe(res).on('finish', () => resolve()).on('error', reject);
-      });
-    });
+    // The image URL carries the hash (a new image is a new URL): revalidation is cheap.
+    ({ user, params, req, res }) => sendStoredFile(req, res, planImage(deps, user, params.id), 3600));
 
   api.route({ method: 'get', path: '/surveys/:id/map', access: 'surveys.read', tag: 'plans', summary: 'A survey\'s readings on a plan, with zone and wall-band marks and zone averages', params: idParamsSchema, query: surveyMapQuerySchema, response: surveyMapResponseSchema },
     ({ user, params, query }) => surveyMap(deps.db, user, params.id, query.planId));
