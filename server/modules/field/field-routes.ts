@@ -3,7 +3,7 @@ import type { Deps } from '../../deps';
 import { idParamsSchema } from '@shared/schemas/common';
 import { fieldPhotoResponseSchema, fieldRecordBodySchema, fieldRecordResponseSchema, fieldSessionBodySchema, fieldSessionResponseSchema, fieldStateSchema } from '@shared/schemas/field';
 import { singleFileUpload } from '../../http/upload';
-import { sendStoredFile } from '../../http/send-stored-file';
+import { sendHashedFile } from '../../http/send-file';
 import type { Response } from 'express';
 
 /** An idempotent create answers 201 when it stored the record now, 200 when the key was stored before. */
@@ -37,5 +37,5 @@ export function registerFieldRoutes(api: Api, deps: Deps) {
   }, async ({ user, params, req, res }) => answer(res, await storeFieldPhoto(deps, user, params.id, req.file!, req.body)));
 
   api.route({ method: 'get', path: '/field-photos/:id', access: 'surveys.read', tag: 'field', summary: 'A field photo (JPEG; ETag is its SHA-256)', params: idParamsSchema, produces: 'image/*' },
-    ({ user, params, req, res }) => sendStoredFile(req, res, fieldPhotoFile(deps, user, params.id), 86_400));
+    ({ user, params, req, res }) => sendHashedFile(req, res, fieldPhotoFile(deps, user, params.id), 86_400));
 }
