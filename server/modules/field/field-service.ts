@@ -7,7 +7,7 @@ import { plans, zones } from '../../db/schema/plans';
 
 import { fieldPhotos, fieldRecords, fieldSessions } from '../../db/schema/field';
 import type { SessionUser } from '@shared/schemas/auth';
-import { UPLOADABLE_STATUSES, type SurveyStatus } from '@shared/schemas/surveys';
+import { WORKED_ON_STATUSES } from '@shared/survey-abilities';
 import { fieldRecordBodySchema, fieldSessionBodySchema, type FieldPhoto, type FieldRecord, type FieldRecordBody, type FieldSession, type FieldSessionBody, type FieldState } from '@shared/schemas/field';
 import { typedReading, type ManualMeter } from '@shared/core/typed-readings';
 import { MAX_PAIR_GAP_MS, pairedSubtraction } from '@shared/core/paired-daylight';
@@ -35,7 +35,7 @@ const iso = (ms: number) => new Date(ms).toISOString();
  * returned; once submitted or signed off the phone is told why, and keeps its records.
  */
 export function fieldRefusal(survey: Pick<SurveyRow, 'status' | 'name' | 'signedOffAt'>): string | null {
-  if (UPLOADABLE_STATUSES.includes(survey.status as SurveyStatus)) return null;
+  if (WORKED_ON_STATUSES.includes(survey.status)) return null;
   if (survey.status === 'signed_off') {
     return `Survey "${survey.name}" was signed off${survey.signedOffAt ? ` on ${iso(survey.signedOffAt).slice(0, 16).replace('T', ' ')} UTC` : ''}; it is read-only and takes no more field records`;
   }
