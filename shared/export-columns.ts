@@ -18,7 +18,7 @@ export type ExportReading = {
   yM: number | null;
   role: 'task' | 'reference';
   probe: string;
-  probeKind: 'counts' | 'current_4_20' | 'voltage_0_10';
+  probeKind: 'counts' | 'current_4_20' | 'voltage_0_10' | 'manual';
   lux: number | null;
   uLux: number | null;
   luxBound: 'exact' | 'lower' | 'upper';
