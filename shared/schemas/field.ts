@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { isoDateTimeSchema } from './common';
+import { multiLineText, singleLineText } from './text';
 import { SKY_STATES } from '../core/field-conditions';
 import { planSchema } from './plans';
 
@@ -14,7 +15,7 @@ export const FIELD_UNITS = ['lx', 'fc'] as const;
 
 export const fieldSessionBodySchema = z.object({
   idempotencyKey: idempotencyKeySchema,
-  measuredBy: z.string().trim().min(1, 'Say who measured').max(160),
+  measuredBy: singleLineText(z.string().trim().min(1, 'Say who measured').max(160)),
   startedAt: isoDateTimeSchema,
   lightsOnAt: isoDateTimeSchema.nullable().optional(),
   supplyVoltageV: z.number().finite().min(0).max(1000).nullable().optional(),
@@ -23,20 +24,20 @@ export const fieldSessionBodySchema = z.object({
   blinds: z.enum(BLINDS_STATES).nullable().optional(),
   lampBurnInHours: z.number().finite().min(0).max(1e6).nullable().optional(),
   daylightExcluded: z.boolean(),
-  note: z.string().trim().max(1000).optional(),
+  note: multiLineText(z.string().trim().max(1000)).optional(),
 });
 export type FieldSessionBody = z.input<typeof fieldSessionBodySchema>;
 
 /** Where a record was taken: a label and, when known, the planned point or the plan position. */
 const placeFields = {
-  point: z.string().trim().min(1, 'Name the point').max(120),
+  point: singleLineText(z.string().trim().min(1, 'Name the point').max(120)),
   plannedPointId: z.number().int().positive().nullable().optional(),
   planId: z.number().int().positive().nullable().optional(),
   xM: z.number().finite().nullable().optional(),
   yM: z.number().finite().nullable().optional(),
   sessionKey: idempotencyKeySchema.nullable().optional(),
   recordedAt: isoDateTimeSchema,
-  note: z.string().trim().max(1000).optional(),
+  note: multiLineText(z.string().trim().max(1000)).optional(),
 };
 
 export const fieldRecordBodySchema = z.discriminatedUnion('kind', [
@@ -49,7 +50,7 @@ export const fieldRecordBodySchema = z.discriminatedUnion('kind', [
     lights: z.enum(['on', 'off']).nullable().optional(),
   }),
   z.object({ idempotencyKey: idempotencyKeySchema, kind: z.literal('mark'), ...placeFields, probeId: z.number().int().positive().nullable().optional() }),
-  z.object({ idempotencyKey: idempotencyKeySchema, kind: z.literal('skip'), ...placeFields, reason: z.string().trim().min(1, 'Say why the point was skipped').max(500) }),
+  z.object({ idempotencyKey: idempotencyKeySchema, kind: z.literal('skip'), ...placeFields, reason: singleLineText(z.string().trim().min(1, 'Say why the point was skipped').max(500)) }),
 ]).superRefine((v, ctx) => {
   if ((v.xM == null) !== (v.yM == null)) ctx.addIssue({ code: 'custom', path: ['yM'], message: 'Give both xM and yM, or neither' });
   if (v.xM != null && v.planId == null && v.plannedPointId == null) ctx.addIssue({ code: 'custom', path: ['planId'], message: 'A position needs its plan' });
@@ -121,10 +122,10 @@ export const fieldPhotoResponseSchema = z.object({ photo: fieldPhotoSchema, alre
 /** Multipart fields beside `file`. */
 export const fieldPhotoFieldsSchema = z.object({
   idempotencyKey: idempotencyKeySchema,
-  point: z.string().trim().max(120).optional(),
+  point: singleLineText(z.string().trim().max(120)).optional(),
   plannedPointId: z.coerce.number().int().positive().optional(),
   zoneId: z.coerce.number().int().positive().optional(),
-  note: z.string().trim().max(1000).optional(),
+  note: multiLineText(z.string().trim().max(1000)).optional(),
   takenAt: isoDateTimeSchema,
   keepLocation: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
 });
