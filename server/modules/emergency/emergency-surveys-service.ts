@@ -134,7 +134,8 @@ function liveEmergencyJudgement(db: Db, user: SessionUser, survey: SurveyRow & {
   const importOf = new Map(db.select({ id: readingsTable.id, importId: readingsTable.importId }).from(readingsTable).where(and(...currentReadingConditions(survey))).all().map((r) => [r.id, r.importId]));
 
   const readingsPerLog = new Map<number, number>();
-  for (const id of importOf.values()) readingsPerLog.set(id, (readingsPerLog.get(id) ?? 0) + 1);
+  // Readings typed in the field view have no import.
+  for (const id of importOf.values()) if (id !== null) readingsPerLog.set(id, (readingsPerLog.get(id) ?? 0) + 1);
 
   let before = 0;
   let unmatched = 0;
