@@ -54,6 +54,7 @@ export const paths = {
   emergency: page('/emergency', 'surveys.read', () => '/emergency'),
   emergencyPlan: page('/emergency/plans/:planId', 'surveys.read', (planId: Id) => `/emergency/plans/${planId}`),
   emergencySurvey: page('/emergency/surveys/:surveyId', 'surveys.read', (surveyId: Id) => `/emergency/surveys/${surveyId}`),
+  emergencyCriteria: page('/emergency/criteria', 'surveys.read', () => '/emergency/criteria'),
   emergencyLogbook: page('/emergency/logbook/:siteId', 'surveys.read', (siteId: Id) => `/emergency/logbook/${siteId}`),
 } as const;
 

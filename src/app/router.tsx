@@ -69,6 +69,7 @@ const appRoutes: RouteObject[] = [
   lazyPage('emergency', () => import('./routes/emergency/emergency-overview').then((m) => m.EmergencyOverviewRoute)),
   lazyPage('emergencyPlan', () => import('./routes/emergency/emergency-plan').then((m) => m.EmergencyPlanRoute)),
   lazyPage('emergencySurvey', () => import('./routes/emergency/emergency-survey').then((m) => m.EmergencySurveyRoute)),
+  lazyPage('emergencyCriteria', () => import('./routes/emergency/criteria').then((m) => m.EmergencyCriteriaRoute)),
   lazyPage('emergencyLogbook', () => import('./routes/emergency/logbook').then((m) => m.LogbookRoute)),
 ];
 

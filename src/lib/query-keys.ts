@@ -114,4 +114,6 @@ export const emergencyKeys = {
   tests: () => [...emergencyKeys.all, 'tests'] as const,
   logbook: (siteId: number) => [...emergencyKeys.tests(), 'site', siteId] as const,
   testsDue: () => [...emergencyKeys.tests(), 'due'] as const,
+  /** The organisation's test intervals (every due date follows them). */
+  schedule: () => [...emergencyKeys.tests(), 'schedule'] as const,
 };

@@ -47,6 +47,8 @@ describe('accessibility of the main pages (axe-core, WCAG 2 A and AA)', () => {
     ['calibration@luxtrail.test', '/calibration/probes/1', 'Coefficient sets'],
     ['facilities@luxtrail.test', '/compliance/maintenance', 'Maintenance due'],
     ['facilities@luxtrail.test', '/emergency', 'Tests due'],
+    ['admin@luxtrail.test', '/emergency/criteria', 'Test schedule'],
+    ['admin@luxtrail.test', '/emergency/plans/1', 'On this plan'],
     // Surveys found by name (their ids depend on the seed steps before them): the emergency night
     // test, and the label walk's planned points on the survey map and on the ground-floor plan (plan 1).
     ['facilities@luxtrail.test', '/emergency/surveys/{night}', 'Criteria, conditions and passes'],

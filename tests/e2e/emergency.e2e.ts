@@ -116,4 +116,73 @@ describe('emergency lighting in a real browser', () => {
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(391);
     await page.screenshot({ path: path.join(screenshotDir(), 'emergency-survey-390.png'), fullPage: true });
   });
+
+  it('lets an administrator type a route by keyboard, widen it into 2 m strips, base an own criteria set on EN 1838 and edit it, and set the test schedule, at 390 px too', async () => {
+    const page = await app.newPage();
+    await signInAs(page, 'admin@luxtrail.test');
+    await page.goto('/emergency');
+    await page.getByRole('link', { name: 'Ground floor' }).first().click();
+    await page.getByRole('heading', { name: /Routes and areas: Ground floor/ }).waitFor();
+
+    // A route typed as coordinates (no mouse), then edited: 3.6 m wide becomes two 1.8 m strips.
+    const add = page.getByRole('form', { name: 'Add an emergency element' });
+    await add.getByLabel('Code').fill('R8');
+    await add.getByLabel('Name').fill('Typed side route');
+    await add.getByLabel(/Centre line/).fill('2 3; 10 3');
+    await add.getByLabel('Width (m)').fill('1.2');
+    await add.getByLabel('Point spacing (m)').press('Enter');
+    const list = page.getByRole('list', { name: 'Emergency elements' });
+    await list.getByText('Typed side route').waitFor();
+    await list.getByRole('button', { name: 'Edit R8 Typed side route' }).click();
+    const edit = page.getByRole('form', { name: 'Edit R8 Typed side route' });
+    await expect.poll(() => edit.getByLabel('Name').evaluate((el) => el === document.activeElement), { timeout: 10_000 }).toBe(true);
+    expect(await edit.getByLabel('Kind').isDisabled()).toBe(true);
+    await edit.getByLabel('Width (m)').fill('3.6');
+    await edit.getByRole('button', { name: 'Save R8' }).click();
+    await page.getByRole('form', { name: 'Add an emergency element' }).waitFor();
+    await list.getByText(/3\.6 m wide.*2 strips of ≤ 2 m/).waitFor();
+    const planId = page.url().replace(/.*\/emergency\/plans\/(\d+).*/, '$1');
+    const r8 = ((await (await page.request.get(`/api/plans/${planId}/emergency-elements`)).json()).items as { code: string; widthM: number; plannedPoints: { label: string }[] }[]).find((e) => e.code === 'R8')!;
+    expect(r8.widthM).toBe(3.6);
+    expect(r8.plannedPoints.map((p) => p.label)).toEqual(expect.arrayContaining(['R8-S1-C01', 'R8-S2-C01']));
+
+    // Criteria sets: base an own set on EN 1838:2013 with 1 lx over the central band (the reported 2024 draft), then edit its source.
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.goto('/emergency');
+    await page.getByRole('link', { name: 'Criteria sets and test schedule' }).click();
+    await page.getByRole('heading', { name: 'Criteria sets and test schedule' }).waitFor();
+    await page.getByRole('button', { name: 'Base a new set on EN 1838:2013' }).click();
+    const editor = page.getByRole('form', { name: 'New criteria set based on EN 1838:2013' });
+    await editor.getByLabel('Name').fill('E2E: 1 lx central band');
+    await editor.getByLabel('Limit (route-band-min)').fill('1');
+    await editor.getByLabel('Source of route-band-min').fill('Organisation policy after the reported 2024 draft of EN 1838: 1 lx over the whole central band');
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(391);
+    await page.screenshot({ path: path.join(screenshotDir(), 'emergency-criteria-390.png'), fullPage: true });
+    await editor.getByRole('button', { name: 'Create criteria set' }).click();
+    const sets = page.getByRole('list', { name: 'Criteria sets' });
+    await sets.getByText('E2E: 1 lx central band').waitFor();
+    await page.getByRole('button', { name: 'Edit E2E: 1 lx central band' }).click();
+    const own = page.getByRole('form', { name: 'Edit E2E: 1 lx central band' });
+    await own.getByLabel('Source', { exact: true }).fill('E2E policy, revised');
+    await own.getByRole('button', { name: 'Save changes' }).click();
+    await sets.getByText('E2E policy, revised').waitFor();
+    const saved = ((await (await page.request.get('/api/emergency/criteria-sets')).json()).items as { name: string; builtIn: boolean; checks: { id: string; limit?: { value: number } }[] }[]).find((x) => x.name === 'E2E: 1 lx central band')!;
+    expect(saved.builtIn).toBe(false);
+    expect(saved.checks.find((c) => c.id === 'route-band-min')?.limit?.value).toBe(1);
+
+    // The test schedule: a refused value says why; a good one is saved; then the default again (other tests read the demo's overdue days).
+    const schedule = page.getByRole('form', { name: 'Test schedule' });
+    const days = schedule.getByLabel('Functional test every (days)');
+    await days.fill('0');
+    await schedule.getByRole('button', { name: 'Save schedule' }).click();
+    await schedule.getByRole('alert').getByText(/whole number of days from 1 to 366/).waitFor();
+    await days.fill('28');
+    await schedule.getByRole('button', { name: 'Save schedule' }).click();
+    await schedule.getByRole('status').waitFor();
+    expect((await (await page.request.get('/api/emergency/test-schedule')).json()).functionalEveryDays).toBe(28);
+    await days.fill('30');
+    await schedule.getByRole('button', { name: 'Save schedule' }).click();
+    await expect.poll(async () => (await (await page.request.get('/api/emergency/test-schedule')).json()).functionalEveryDays, { timeout: 10_000 }).toBe(30);
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(391);
+  });
 });

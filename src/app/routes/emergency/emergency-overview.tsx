@@ -34,7 +34,8 @@ export function EmergencyOverviewRoute() {
       <div className="space-y-6">
         <EmergencyCaution />
         <Card>
-          <CardHeader title="Tests due" description="Functional and full-duration tests per site, from each site's logbook." />
+          <CardHeader title="Tests due" description="Functional and full-duration tests per site, from each site's logbook."
+            actions={<Link to={paths.emergencyCriteria.to()} className="text-sm font-medium text-lamp-800 underline">Criteria sets and test schedule</Link>} />
           <CardBody>
             <QueryState query={due} isEmpty={(d) => d.sites.length === 0}>{(d) => <SitesDue sites={d.sites} />}</QueryState>
           </CardBody>

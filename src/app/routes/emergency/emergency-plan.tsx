@@ -3,6 +3,7 @@ import { paths } from '@shared/paths';
 import { Link, useParams } from 'react-router';
 import { can } from '@shared/policy';
 import type { PlanPoint } from '@shared/spatial/polygon';
+import type { EmergencyElement } from '@shared/schemas/emergency';
 import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { Page, PageHeader } from '@/components/ui/page';
 import { QueryState } from '@/components/ui/states';
@@ -24,6 +25,8 @@ export function EmergencyPlanRoute() {
   const elements = useElements(planId);
   const [shape, setShape] = useState<DrawShape | null>(null);
   const [drawn, setDrawn] = useState<PlanPoint[] | null>(null);
+  const [editing, setEditing] = useState<EmergencyElement | null>(null);
+  const stopEditing = () => { setEditing(null); setDrawn(null); setShape(null); };
   const canEdit = can(me.role, 'plans.write');
   return (
     <Page>
@@ -39,9 +42,10 @@ export function EmergencyPlanRoute() {
                 <EmergencyMap plan={p} elements={elements.data?.items ?? []} draw={shape ? { shape, onDrawn: (pts) => { setDrawn(pts); setShape(null); } } : null} />
                 {canEdit && p.metresPerPixel !== null && (
                   <Card>
-                    <CardHeader title="Add" />
+                    <CardHeader title={editing ? `Edit ${editing.code}` : 'Add'} description={editing ? 'Change its figures, type its points again or redraw it on the plan. Its planned points follow.' : undefined} />
                     <CardBody>
-                      <ElementForm planId={planId} zones={zones.data?.items ?? []} drawn={drawn} drawing={shape !== null} onDrawRequest={setShape} onSaved={() => setDrawn(null)} />
+                      <ElementForm key={editing?.id ?? 'new'} planId={planId} zones={zones.data?.items ?? []} drawn={drawn} drawing={shape !== null} onDrawRequest={setShape}
+                        editing={editing} onCancel={stopEditing} onSaved={() => (editing ? stopEditing() : setDrawn(null))} />
                     </CardBody>
                   </Card>
                 )}
@@ -50,7 +54,7 @@ export function EmergencyPlanRoute() {
                 <CardHeader title="On this plan" />
                 <CardBody>
                   <QueryState query={elements} isEmpty={(d) => d.items.length === 0} empty={<p className="text-sm text-ink-500">Nothing drawn yet.</p>}>
-                    {(d) => <ElementList elements={d.items} canEdit={canEdit} />}
+                    {(d) => <ElementList elements={d.items} canEdit={canEdit} onEdit={p.metresPerPixel !== null ? (e) => { setEditing(e); setDrawn(null); setShape(null); } : undefined} />}
                   </QueryState>
                 </CardBody>
               </Card>

@@ -1,4 +1,4 @@
-import { Trash2 } from 'lucide-react';
+import { Pencil, Trash2 } from 'lucide-react';
 import { ELEMENT_KIND_LABELS, EQUIPMENT_LABELS, type EmergencyElement } from '@shared/schemas/emergency';
 import { Badge } from '@/components/ui/badge';
 import { Button } from '@/components/ui/button';
@@ -8,7 +8,7 @@ import { useDeleteElement } from '../api/delete-element';
 const m = (v: number) => v.toLocaleString('en-GB', { maximumFractionDigits: 1 });
 
 /** The plan's elements with their size and planned points; delete for those who may edit the plan. */
-export function ElementList({ elements, canEdit }: { elements: readonly EmergencyElement[]; canEdit: boolean }) {
+export function ElementList({ elements, canEdit, onEdit }: { elements: readonly EmergencyElement[]; canEdit: boolean; onEdit?: (e: EmergencyElement) => void }) {
   const del = useDeleteElement();
   return (
     <div className="space-y-2">
@@ -22,6 +22,7 @@ export function ElementList({ elements, canEdit }: { elements: readonly Emergenc
                 <p className="text-xs text-ink-500">
                   {ELEMENT_KIND_LABELS[e.kind]}
                   {e.kind === 'escape_route' && ` · ${m(e.lengthM ?? 0)} m long, ${e.widthM} m wide, points every ≤ ${e.spacingM} m`}
+                  {e.kind === 'escape_route' && (e.widthM ?? 0) > 2 && ` · ${new Set(e.plannedPoints.map((p) => p.strip)).size} strips of ≤ 2 m`}
                   {(e.kind === 'open_area' || e.kind === 'high_risk_area') && ` · ${m(e.lengthM ?? 0)} m²`}
                   {e.kind === 'high_risk_area' && ` · normal Em ${e.effectiveNormalEmLux ?? 'not given'} lx`}
                   {e.equipment && ` · ${EQUIPMENT_LABELS[e.equipment]}`}
@@ -30,6 +31,11 @@ export function ElementList({ elements, canEdit }: { elements: readonly Emergenc
               <div className="flex items-center gap-2">
                 {e.stair && <Badge tone="warn">Stair</Badge>}
                 <Badge>{e.plannedPoints.length} planned point{e.plannedPoints.length === 1 ? '' : 's'}</Badge>
+                {canEdit && onEdit && (
+                  <Button size="sm" variant="ghost" onClick={() => onEdit(e)} aria-label={`Edit ${e.code} ${e.name}`}>
+                    <Pencil className="h-4 w-4" aria-hidden />
+                  </Button>
+                )}
                 {canEdit && (
                   <Button size="sm" variant="ghost" onClick={() => del.mutate({ id: e.id, planId: e.planId })} aria-label={`Delete ${e.code} ${e.name}`}>
                     <Trash2 className="h-4 w-4" aria-hidden />
