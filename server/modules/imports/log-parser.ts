@@ -159,8 +159,13 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
   const decoder = createLogDecoder(input.calibration, (r: DecodedReading) => {
     readingCount++;
     if (r.xM === null) placement.none++;
-    else if (placedByLabel.size > 0 && placedByLabel.has(r.point.toLowerCase()) && planned.get(r.point.toLowerCase())?.xM === r.xM && planned.get(r.point.toLowerCase())?.yM === r.yM) placement.byLabel++;
-    else placement.byCoordinates++;
+    else {
+      // One key per reading (this runs for every reading of a million-row log).
+      const key = placedByLabel.size > 0 ? r.point.toLowerCase() : '';
+      const p = key !== '' && placedByLabel.has(key) ? planned.get(key) : undefined;
+      if (p && p.xM === r.xM && p.yM === r.yM) placement.byLabel++;
+      else placement.byCoordinates++;
+    }
     if (problems.errorCount > 0) return;
     batch.addReading(r);
   }, addError);
