@@ -225,6 +225,8 @@ export const emergencySurveySchema = z.object({
   canEdit: z.boolean(),
   /** Set once signed off: the verdicts, criteria and logbook shown are those frozen at that moment. */
   frozenAt: z.string().nullable(),
+  /** The review record: who submitted and signed off, when, and a returned survey's comment. */
+  review: z.object({ submittedByName: z.string().nullable(), submittedAt: z.string().nullable(), signedOffByName: z.string().nullable(), signedOffAt: z.string().nullable(), reviewComment: z.string().nullable() }),
 });
 export type EmergencySurvey = z.infer<typeof emergencySurveySchema>;
 

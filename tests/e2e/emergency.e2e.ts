@@ -96,6 +96,22 @@ describe('emergency lighting in a real browser', () => {
     // The report downloads as a PDF.
     const pdf = await page.request.get(page.url().replace(/.*\/emergency\/surveys\/(\d+).*/, '/api/emergency/surveys/$1/report.pdf'));
     expect(pdf.headers()['content-type']).toBe('application/pdf');
+
+    // The log holds both passes, so it is split by time (the default the surveyor could change).
+    const logs = page.getByRole('list', { name: 'Logs and their passes' });
+    expect(await logs.getByLabel('Pass of night-test.csv').inputValue()).toBe('by_time');
+
+    // Submitted by the surveyor, signed off by the facility manager on the same page: the verdicts are then frozen.
+    await page.getByRole('button', { name: 'Submit for review' }).click();
+    await page.getByText('submitted', { exact: false }).first().waitFor();
+    const surveyUrl = page.url();
+    const fm = await app.newPage();
+    await signInAs(fm, 'facilities@luxtrail.test');
+    await fm.goto(surveyUrl);
+    await fm.getByRole('button', { name: 'Sign off…' }).click();
+    await fm.getByRole('button', { name: 'Confirm sign-off' }).click();
+    await fm.getByTestId('frozen-note').waitFor({ timeout: 30_000 });
+    await fm.getByTestId('element-R9').getByText('Falls short').first().waitFor();
   });
 
   it('shows the facility manager the library\'s overdue test on a 390 px phone, with nothing wider than the screen', async () => {

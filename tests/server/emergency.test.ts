@@ -353,6 +353,7 @@ describe('sign-off freezes an emergency survey (the same surveys.frozen snapshot
 
     const before = (await fm.get(`/api/emergency/surveys/${surveyId}`)).body;
     expect(before.frozenAt).toEqual(expect.any(String));
+    expect(before.review).toMatchObject({ submittedByName: 'Tobias Wrenfield', signedOffByName: 'Marguerite Oakhurst', reviewComment: 'Far end relamping ordered' });
     const route = (s: typeof before) => s.elements.find((e: { element: { code: string } }) => e.element.code === 'R1');
     expect(route(before).verdict).toBe('falls_short');
     const reportBefore = await pdfText((await fm.get(`/api/emergency/surveys/${surveyId}/report.pdf`).buffer(true).parse(binary)).body);

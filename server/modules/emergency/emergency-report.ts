@@ -52,7 +52,7 @@ export function registerEmergencyReportAttachment(deps: Deps) {
     const row = findSurveyInOrganization(deps.db, organizationId, surveyId);
     const frozen = row ? frozenEmergencyOf(row) : null;
     if (!row || !frozen) throw new Error(`Survey ${surveyId} is not a signed-off emergency survey; its report cannot be attached`);
-    return renderEmergencyReportFile(deps, organizationId, presentJudged(row, frozen.judged, false), frozen.logbook, unit);
+    return renderEmergencyReportFile(deps, organizationId, presentJudged(deps.db, row, frozen.judged, false), frozen.logbook, unit);
   });
 }
 

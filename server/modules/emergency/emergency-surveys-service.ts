@@ -7,7 +7,7 @@ import { surveys } from '../../db/schema/surveys';
 import { sites } from '../../db/schema/sites';
 import { emergencyLogPasses, emergencyResponses, emergencySurveys } from '../../db/schema/emergency';
 import { logImports, readings as readingsTable } from '../../db/schema/surveys';
-import { storedFiles } from '../../db/schema/organizations';
+import { storedFiles, users } from '../../db/schema/organizations';
 import type { SessionUser } from '@shared/schemas/auth';
 import { RULE_TEXT } from '@shared/core/decision';
 import { combineElementVerdicts, EMERGENCY_PASSES, judgeEmergencyElement, type EmergencyPass, type EmergencyPoint, type EmergencyPointRole } from '@shared/core/emergency';
@@ -76,7 +76,7 @@ function matcher(elements: ElementRow[]) {
 }
 
 /** The judgement without what depends on the moment or the caller (status, abilities, frozen time). */
-type JudgedEmergency = Omit<EmergencySurvey, 'status' | 'canEdit' | 'frozenAt'>;
+type JudgedEmergency = Omit<EmergencySurvey, 'status' | 'canEdit' | 'frozenAt' | 'review'>;
 
 /**
  * What a sign-off keeps of an emergency survey, in surveys.frozen beside the zone snapshot the
@@ -106,13 +106,18 @@ export function freezeEmergency(db: Db, user: SessionUser, survey: SurveyRow, lo
 /** An emergency survey's answer: the frozen judgement once signed off, else judged now. */
 export function judgeEmergencySurvey(db: Db, user: SessionUser, surveyId: number): EmergencySurvey {
   const { survey, em } = getEmergencySurveyRow(db, user, surveyId);
-  return presentJudged(survey, frozenEmergencyOf(survey)?.judged ?? liveEmergencyJudgement(db, user, survey, em), surveyAbilities(user, survey).edit);
+  return presentJudged(db, survey, frozenEmergencyOf(survey)?.judged ?? liveEmergencyJudgement(db, user, survey, em), surveyAbilities(user, survey).edit);
 }
 
-/** The answer for a survey row and its judgement (live, or frozen at sign-off). */
-export function presentJudged(survey: SurveyRow, judged: JudgedEmergency, canEdit: boolean): EmergencySurvey {
+/** The answer for a survey row and its judgement (live, or frozen at sign-off), with who submitted and signed it off. */
+export function presentJudged(db: Db, survey: SurveyRow, judged: JudgedEmergency, canEdit: boolean): EmergencySurvey {
   const frozen = survey.status === 'signed_off' ? (survey.frozen as FrozenWithEmergency | null) : null;
-  return { ...judged, status: survey.status, canEdit, frozenAt: frozen?.emergency ? new Date(frozen.frozenAt).toISOString() : null };
+  const nameOf = (id: number | null) => (id === null ? null : db.select({ name: users.name }).from(users).where(eq(users.id, id)).get()?.name ?? null);
+  const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
+  return {
+    ...judged, status: survey.status, canEdit, frozenAt: frozen?.emergency ? new Date(frozen.frozenAt).toISOString() : null,
+    review: { submittedByName: nameOf(survey.submittedBy), submittedAt: iso(survey.submittedAt), signedOffByName: nameOf(survey.signedOffBy), signedOffAt: iso(survey.signedOffAt), reviewComment: survey.reviewComment },
+  };
 }
 
 /**

@@ -14,6 +14,7 @@ import { ElementVerdicts } from '@/features/emergency/components/element-verdict
 import { EmergencyMap } from '@/features/emergency/components/emergency-map';
 import { EmergencyCaution } from '@/features/emergency/components/emergency-caution';
 import { LogPasses } from '@/features/emergency/components/log-passes';
+import { WorkflowActions } from '@/features/compliance/components/workflow-actions';
 
 /**
  * An emergency survey: what it is judged against, the upload of its log (the surveys feature's
@@ -35,6 +36,12 @@ export function EmergencySurveyRoute() {
             <div className="space-y-6">
               <EmergencyCaution />
               <SurveySummary survey={s} />
+              {plain.data && (plain.data.abilities.submit || plain.data.abilities.signOff || plain.data.abilities.return || s.status !== 'draft') && (
+                <Card>
+                  <CardHeader title="Review and sign-off" description="Signing off freezes the verdicts, the criteria set and the logbook as they are now; the report is e-mailed." />
+                  <CardBody><WorkflowActions surveyId={s.surveyId} status={plain.data.status} abilities={plain.data.abilities} reviewComment={s.review.reviewComment} record={{ ...s.review, siteTimeZone: s.siteTimeZone }} /></CardBody>
+                </Card>
+              )}
               {plain.data?.abilities.upload && (
                 <Card>
                   <CardHeader title="Upload the log" description="One log may hold both passes: its readings are split by their time after the mains were cut. A log of one pass only can say so below." />
