@@ -5,6 +5,7 @@ import { insertSite, orgOf, pngOf } from './plans-fixtures';
 import { createTestProbes, tableCounts, uploadAndWait } from './support/survey-log-factories';
 import { readings, surveys } from '@server/db/schema/surveys';
 import { auditEvents } from '@server/db/schema/organizations';
+import { PDFParse } from 'pdf-parse';
 
 let t: TestApp;
 let admin: TestClient;
@@ -141,6 +142,30 @@ describe('placing readings by hand', () => {
     expect(reasons).toMatch(/Reading OF1-A1 at .* excluded from the statistics: A person shadowed the probe/);
     // 100 planned; OF1-A1 (excluded, still visited), of1-a2 and OF1-A3 (by label) have readings.
     expect(reasons).toMatch(/97 of 100 planned point\(s\) have no reading: OF1-A4, OF1-A5/);
+  });
+
+  it('a changed grid\'s written reason is in the zone\'s verdict reasons and in the report, with the count it is judged against', async () => {
+    const { surveyId, points } = await plannedSurvey();
+    const reason = 'Bookcase along the east wall; its column cannot be reached';
+    const last = points.find((p) => p.label === 'OF1-J10')!;
+    await admin.delete(`/api/surveys/${surveyId}/planned-points/${last.id}?reason=${encodeURIComponent(reason)}`).expect(204);
+    await uploadAndWait(t, admin, surveyId, labelLog(500));
+
+    const office = (await admin.get(`/api/surveys/${surveyId}/compliance`)).body.zones.find((z: { name: string }) => z.name === 'Office 1');
+    const reasons = office.reasons.join(' ');
+    expect(reasons).toContain(`Changed grid: 99 planned point(s) instead of the 100 the rule gives. Reason: ${reason}`);
+    expect(reasons).toMatch(/96 of 99 planned point\(s\) have no reading/);
+
+    const pdf = await admin.get(`/api/surveys/${surveyId}/report.pdf`).buffer(true).parse((res, cb) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (c: Buffer) => chunks.push(c));
+      res.on('end', () => cb(null, Buffer.concat(chunks)));
+    });
+    expect(pdf.status).toBe(200);
+    const parser = new PDFParse({ data: new Uint8Array(pdf.body as Buffer) });
+    const text = (await parser.getText()).text.replace(/\s+/g, ' ');
+    await parser.destroy();
+    expect(text).toContain(reason);
   });
 
   it('a signed-off survey refuses placements and exclusions; another organisation gets 404', async () => {
