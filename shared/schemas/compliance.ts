@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { fieldPhotoSchema } from './field';
 import { READING_PLANES } from '../core/planes';
 import { DECISION_RULES } from './organization';
 import { TARGET_CONFIDENCE } from './targets';
@@ -192,6 +193,10 @@ export const zoneDetailResponseSchema = z.object({
   zone: zoneComplianceSchema,
   polygon: z.array(z.tuple([z.number(), z.number()])),
   points: z.array(zonePointSchema),
+  /** Photos taken in the field of this zone or of one of its points. */
+  photos: z.array(fieldPhotoSchema),
+  /** The site's IANA time zone (photo times are shown in it). */
+  siteTimeZone: z.string(),
 });
 export type ZoneDetailResponse = z.infer<typeof zoneDetailResponseSchema>;
 

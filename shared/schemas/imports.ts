@@ -19,10 +19,30 @@ export type ImportWarning = z.infer<typeof importWarningSchema>;
 export const uploadLogFieldsSchema = z.object({
   /** The plan for rows whose `plan` column is empty; omitted or empty: the log's plan column decides. */
   planId: z.preprocess((v) => (v === '' || v === null ? undefined : v), z.coerce.number({ message: 'planId must be a plan id (a whole number)' }).int('planId must be a whole number').positive('planId must be a plan id').optional()),
+  /** Placing bursts without a place on "measured here now" marks: the window either side of a mark, seconds. */
+  matchWindowS: z.preprocess((v) => (v === '' || v === null ? undefined : v), z.coerce.number({ message: 'matchWindowS must be a number of seconds' }).finite().min(0, 'matchWindowS must be 0 s or more').max(600, 'matchWindowS must be at most 600 s').optional()),
+  /** Added to the meter's clock to bring it onto the phone's, seconds (a meter 90 s slow: +90). */
+  clockOffsetS: z.preprocess((v) => (v === '' || v === null ? undefined : v), z.coerce.number({ message: 'clockOffsetS must be a number of seconds' }).finite().min(-86_400, 'clockOffsetS must be within ±86400 s (one day)').max(86_400, 'clockOffsetS must be within ±86400 s (one day)').optional()),
 });
 export type UploadLogFields = z.infer<typeof uploadLogFieldsSchema>;
 
 export const uploadLogResponseSchema = z.object({ importId: z.number().int() });
+
+/** The outcome of placing an import's bursts by time on "measured here now" marks (shared/core/mark-matching.ts). */
+export const markMatchingResultSchema = z.object({
+  windowS: z.number(),
+  clockOffsetS: z.number(),
+  matched: z.array(z.object({
+    importId: z.number().int(), readingId: z.number().int(), markId: z.number().int(), point: z.string(), probe: z.string(),
+    burstAt: z.string(), markAt: z.string(), deltaS: z.number(), lux: z.number().nullable(),
+  })),
+  unplaced: z.array(z.object({
+    readingId: z.number().int(), probe: z.string(), burstAt: z.string(), lux: z.number().nullable(),
+    reason: z.enum(['no_mark', 'ambiguous', 'mark_taken']), message: z.string(), markPoints: z.array(z.string()),
+  })),
+  marksWithoutBurst: z.array(z.object({ markId: z.number().int(), point: z.string(), probe: z.string().nullable(), markAt: z.string() })),
+});
+export type MarkMatchingResult = z.infer<typeof markMatchingResultSchema>;
 
 export const importStatusSchema = z.object({
   id: z.number().int(),
@@ -42,5 +62,8 @@ export const importStatusSchema = z.object({
   errors: z.array(importProblemSchema),
   createdAt: z.string(),
   finishedAt: z.string().nullable(),
+  /** How bursts without a place were placed by time on the survey's marks; null when the survey had no marks. */
+  markMatching: markMatchingResultSchema.nullable(),
 });
 export type ImportStatus = z.infer<typeof importStatusSchema>;
+

@@ -1,5 +1,5 @@
 import { describe, it, expect, beforeAll } from 'vitest';
-import { PDFParse } from 'pdf-parse';
+import { binary, pdfText } from './pdf-text';
 import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
 import { conditions, emergencySite, EQUIPMENT, HIGH_RISK, insertTimedReadings, MAINS_OFF, OPEN, ROUTE } from './emergency-fixtures';
 import { insertSite, orgOf } from './plans-fixtures';
@@ -15,17 +15,6 @@ beforeAll(async () => {
   t = await createTestApp();
   [admin, surveyor, fm] = await Promise.all([t.signIn(DEMO.admin), t.signIn(DEMO.surveyor), t.signIn(DEMO.facility_manager)]);
 });
-
-async function pdfText(buf: Buffer): Promise<string> {
-  const parser = new PDFParse({ data: new Uint8Array(buf) });
-  try { return (await parser.getText()).text.replace(/\s+/g, ' '); } finally { await parser.destroy(); }
-}
-const binary = (res: unknown, cb: (err: Error | null, body: Buffer) => void) => {
-  const stream = res as NodeJS.ReadableStream;
-  const chunks: Buffer[] = [];
-  stream.on('data', (c: Buffer) => chunks.push(c));
-  stream.on('end', () => cb(null, Buffer.concat(chunks)));
-};
 
 /** A site with a route, an open area, a high-risk area and an equipment point, and a new emergency survey of it. */
 async function surveyed(criteriaSetKey = EN_1838_2013.key, cond = conditions()) {

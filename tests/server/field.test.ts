@@ -4,9 +4,12 @@ import sharp from 'sharp';
 import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
 import { buildSurvey, userId } from './compliance-fixtures';
 import { coefficientSets, probes } from '@server/db/schema/calibration';
-import { readings, surveys } from '@server/db/schema/surveys';
+import { logImports, readings, surveys } from '@server/db/schema/surveys';
+import { waitForImport } from '@server/modules/imports/imports-service';
+import { binary, pdfText } from './pdf-text';
 import { fieldRecords } from '@server/db/schema/field';
 import { createCountingProbe } from './calibration-factories';
+import { DEMO_COUNTING_PROBES } from '@server/db/demo/demo-probes';
 
 // A 6 m x 4 m office, judged against 500 lx (EN 12464-1, offices, secondary source).
 const OFFICE = [{ key: 'office', name: 'Field office', useType: 'office_writing', polygon: [[1, 1], [7, 1], [7, 5], [1, 5]] as [number, number][] }];
@@ -282,5 +285,154 @@ describe('counting probes still decode', () => {
     const cal = await t.signIn(DEMO.calibration);
     const p = await createCountingProbe(cal);
     expect(p.id).toBeGreaterThan(0);
+  });
+});
+
+describe('planned points in the field', () => {
+  it('a record on a planned point takes its label, plan and position; a planned point of another survey is refused (422)', async () => {
+    const s = draftSurvey('Planned field');
+    const other = draftSurvey('Planned elsewhere');
+    const gen = await surveyor.post(`/api/surveys/${s.surveyId}/planned-points/generate`).send({ zoneId: s.zoneIds.office });
+    const gen2 = await surveyor.post(`/api/surveys/${other.surveyId}/planned-points/generate`).send({ zoneId: other.zoneIds.office });
+    expect([gen.status, gen2.status]).toEqual([200, 200]);
+    const p = gen.body.items[0];
+    const res = await surveyor.post(`/api/surveys/${s.surveyId}/field/records`).send({
+      idempotencyKey: key(), kind: 'typed', point: 'typed on the phone', plannedPointId: p.id, probeId: manualProbeId, values: [505], unit: 'lx', recordedAt: at(0),
+    });
+    expect(res.status).toBe(201);
+    expect(res.body.record).toMatchObject({ point: p.label, plannedPointId: p.id, planId: p.planId, xM: p.xM, yM: p.yM });
+    const state = (await surveyor.get(`/api/surveys/${s.surveyId}/field`)).body;
+    expect(state.plannedPoints.map((x: { id: number }) => x.id)).toEqual(gen.body.items.map((x: { id: number }) => x.id));
+    const planned = (await surveyor.get(`/api/surveys/${s.surveyId}/planned-points`)).body.items;
+    expect(planned.find((x: { id: number }) => x.id === p.id).readingCount).toBe(1);
+
+    const foreign = await surveyor.post(`/api/surveys/${s.surveyId}/field/records`).send({
+      idempotencyKey: key(), kind: 'mark', point: 'X', plannedPointId: gen2.body.items[0].id, recordedAt: at(1),
+    });
+    expect(foreign.status).toBe(422);
+    expect(foreign.body.error.message).toMatch(/belongs to another survey than "Planned field"/);
+    const unknown = await surveyor.post(`/api/surveys/${s.surveyId}/field/records`).send({ idempotencyKey: key(), kind: 'mark', point: 'X', plannedPointId: 999_999, recordedAt: at(1) });
+    expect(unknown.status).toBe(404);
+  });
+
+  it('a photo of a planned point belongs to its zone: shown on the zone detail and in the report appendix', async () => {
+    const s = buildSurvey(t, { ownerEmail: DEMO.surveyor, surveyName: 'Photo zone', status: 'draft', zones: OFFICE, readings: [{ x: 4, y: 3, lux: 520, point: 'R1' }] });
+    const gen = await surveyor.post(`/api/surveys/${s.surveyId}/planned-points/generate`).send({ zoneId: s.zoneIds.office });
+    const p = gen.body.items[0];
+    const img = await sharp({ create: { width: 640, height: 480, channels: 3, background: '#c0a040' } }).jpeg().toBuffer();
+    const up = await surveyor.post(`/api/surveys/${s.surveyId}/field/photos`).attach('file', img, { filename: 'luminaire.jpg', contentType: 'image/jpeg' })
+      .field('idempotencyKey', key('photo')).field('takenAt', at(0)).field('plannedPointId', String(p.id)).field('note', 'Luminaire L3 with a dead tube');
+    expect(up.status).toBe(201);
+    expect(up.body.photo).toMatchObject({ zoneId: s.zoneIds.office, point: p.label });
+    const zone = await surveyor.get(`/api/surveys/${s.surveyId}/zones/${s.zoneIds.office}/compliance`);
+    expect(zone.status).toBe(200);
+    expect(zone.body.photos.map((x: { id: number }) => x.id)).toEqual([up.body.photo.id]);
+    const pdf = await surveyor.get(`/api/surveys/${s.surveyId}/report.pdf`).buffer(true).parse(binary);
+    expect(pdf.status).toBe(200);
+    const text = await pdfText(pdf.body as Buffer);
+    expect(text).toContain('Appendix: photos from the field');
+    expect(text).toContain(`Field office · point ${p.label}`);
+    expect(text).toContain('Luminaire L3 with a dead tube');
+  });
+});
+
+describe('a label-free log placed by time on "measured here now" marks', () => {
+  const csv = (serial: string, bursts: { at: number; label: string }[]) =>
+    `timestamp,probe,point,gain,counts\n${bursts.map((b) => `${new Date(b.at).toISOString()},${serial},${b.label},2,16000`).join('\n')}\n`;
+
+  async function upload(surveyId: number, content: string, fields: Record<string, string> = {}) {
+    const req = surveyor.post(`/api/surveys/${surveyId}/logs`);
+    for (const [k, v] of Object.entries(fields)) void req.field(k, v);
+    const res = await req.attach('file', Buffer.from(content), { filename: 'meter-dump.csv', contentType: 'text/csv' });
+    expect(res.status).toBe(202);
+    await waitForImport(t.deps, res.body.importId);
+    return (await surveyor.get(`/api/imports/${res.body.importId}`)).body;
+  }
+
+  async function surveyWithMarks(name: string, offsetsS: number[], probeNamed: boolean) {
+    const s = draftSurvey(name);
+    // A logging meter of the demo (counting probe, gain 2 known to its approved set).
+    const serial = DEMO_COUNTING_PROBES[0].serial;
+    const probeId = t.db.select({ id: probes.id }).from(probes).where(eq(probes.serial, serial)).get()!.id;
+    const points = (await surveyor.post(`/api/surveys/${s.surveyId}/planned-points/generate`).send({ zoneId: s.zoneIds.office })).body.items as { id: number; label: string; xM: number; yM: number }[];
+    const t0 = t.clock.now() - 3_600_000;
+    const marks = [];
+    for (const [i, off] of offsetsS.entries()) {
+      const res = await surveyor.post(`/api/surveys/${s.surveyId}/field/records`).send({
+        idempotencyKey: key('mark'), kind: 'mark', point: points[i].label, plannedPointId: points[i].id, probeId: probeNamed ? probeId : null, recordedAt: new Date(t0 + off * 1000).toISOString(),
+      });
+      expect(res.status).toBe(201);
+      marks.push({ ...points[i], at: t0 + off * 1000 });
+    }
+    return { s, serial, marks, t0 };
+  }
+
+  it('with the meter 90 s slow and a clock offset of +90 s: two bursts placed on their marks, one burst and one mark listed unmatched', async () => {
+    const { s, serial, marks, t0 } = await surveyWithMarks('Label-free offset', [0, 60, 120], true);
+    const slow = 90_000;
+    const content = csv(serial, [
+      { at: t0 + 3_000 - slow, label: '1' },
+      { at: t0 + 60_000 + 5_000 - slow, label: '2' },
+      { at: t0 + 30_000 - slow, label: '3' }, // 30 s from the first two marks: outside the default ±20 s
+    ]);
+    const status = await upload(s.surveyId, content, { clockOffsetS: '90' });
+    expect(status.errors).toEqual([]);
+    expect(status.status).toBe('done');
+    const m = status.markMatching;
+    expect([m.windowS, m.clockOffsetS]).toEqual([20, 90]);
+    expect(m.matched.map((x: { point: string; deltaS: number }) => [x.point, x.deltaS])).toEqual([[marks[0].label, 3], [marks[1].label, 5]]);
+    expect(m.unplaced).toHaveLength(1);
+    expect(m.unplaced[0]).toMatchObject({ reason: 'no_mark', message: 'No mark within ±20.0 s of this burst' });
+    expect(m.marksWithoutBurst.map((x: { point: string }) => x.point)).toEqual([marks[2].label]);
+    // The placed readings sit on their planned points (counted there), the third has no place.
+    const planned = (await surveyor.get(`/api/surveys/${s.surveyId}/planned-points`)).body.items as { id: number; readingCount: number }[];
+    expect(planned.find((p) => p.id === marks[0].id)?.readingCount).toBe(1);
+    expect(planned.find((p) => p.id === marks[1].id)?.readingCount).toBe(1);
+    const unplaced = (await surveyor.get(`/api/surveys/${s.surveyId}/unplaced`)).body;
+    expect(unplaced.total).toBe(1);
+    const onFirst = t.db.select().from(readings).where(and(eq(readings.surveyId, s.surveyId), eq(readings.point, '1'))).get()!;
+    expect([onFirst.planId, onFirst.xM, onFirst.yM]).toEqual([s.planId, marks[0].xM, marks[0].yM]);
+    // Kept across a re-decode: the placement is stored by label, probe and time.
+    const cal = await t.signIn(DEMO.calibration);
+    expect((await cal.post(`/api/surveys/${s.surveyId}/redecode`)).status).toBe(200);
+    const again = (await surveyor.get(`/api/surveys/${s.surveyId}/planned-points`)).body.items as { id: number; readingCount: number }[];
+    expect(again.find((p) => p.id === marks[0].id)?.readingCount).toBe(1);
+  });
+
+  it('without the offset the same slow meter places nothing (every burst is 85-90 s from its mark)', async () => {
+    const { s, serial, t0 } = await surveyWithMarks('Label-free no offset', [0, 60], true);
+    const status = await upload(s.surveyId, csv(serial, [{ at: t0 + 3_000 - 90_000, label: '1' }, { at: t0 + 65_000 - 90_000, label: '2' }]));
+    expect(status.markMatching.matched).toEqual([]);
+    expect(status.markMatching.unplaced.map((u: { reason: string }) => u.reason)).toEqual(['no_mark', 'no_mark']);
+    expect(status.markMatching.marksWithoutBurst).toHaveLength(2);
+  });
+
+  it('a burst two marks could claim is never guessed: it goes to the unplaced list naming both; a wider window per upload is honoured', async () => {
+    const { s, serial, marks, t0 } = await surveyWithMarks('Label-free ambiguous', [0, 30], false);
+    const status = await upload(s.surveyId, csv(serial, [{ at: t0 + 15_000, label: 'a' }, { at: t0 - 2_000, label: 'b' }]), { matchWindowS: '25' });
+    const m = status.markMatching;
+    expect(m.windowS).toBe(25);
+    expect(m.matched.map((x: { point: string; deltaS: number }) => [x.point, x.deltaS])).toEqual([[marks[0].label, -2]]);
+    expect(m.unplaced).toHaveLength(1);
+    expect(m.unplaced[0].reason).toBe('ambiguous');
+    expect(m.unplaced[0].markPoints).toEqual([marks[0].label, marks[1].label]);
+    expect(m.marksWithoutBurst.map((x: { point: string }) => x.point)).toEqual([marks[1].label]);
+  });
+
+  it('refuses a window or an offset that is not a number of seconds in range (400, naming the field); nothing is stored', async () => {
+    const s = draftSurvey('Label-free bad');
+    const before = t.db.select().from(logImports).where(eq(logImports.surveyId, s.surveyId)).all().length;
+    const send = (fields: Record<string, string>) => {
+      const req = surveyor.post(`/api/surveys/${s.surveyId}/logs`);
+      for (const [k, v] of Object.entries(fields)) void req.field(k, v);
+      return req.attach('file', Buffer.from('timestamp,probe,point\n'), { filename: 'x.csv', contentType: 'text/csv' });
+    };
+    const neg = await send({ matchWindowS: '-1' });
+    expect(neg.status).toBe(400);
+    expect(neg.body.error.message).toMatch(/^matchWindowS: /);
+    const text = await send({ clockOffsetS: 'soon' });
+    expect(text.status).toBe(400);
+    expect(text.body.error.message).toMatch(/^clockOffsetS: /);
+    expect(t.db.select().from(logImports).where(eq(logImports.surveyId, s.surveyId)).all()).toHaveLength(before);
   });
 });

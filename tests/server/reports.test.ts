@@ -1,7 +1,7 @@
 import { describe, it, expect, beforeEach } from 'vitest';
 import { eq } from 'drizzle-orm';
 import Papa from 'papaparse';
-import { PDFParse } from 'pdf-parse';
+import { binary, pdfText } from './pdf-text';
 import { createRequire } from 'node:module';
 import * as fontkit from 'fontkit';
 import { createTestApp, DEMO, type TestApp } from './helpers';
@@ -14,23 +14,6 @@ import { formatDisplayNumber } from '@shared/display-number';
 
 let t: TestApp;
 beforeEach(async () => { t = await createTestApp(); });
-
-async function pdfText(buf: Buffer): Promise<string> {
-  const parser = new PDFParse({ data: new Uint8Array(buf) });
-  try {
-    return (await parser.getText()).text.replace(/\s+/g, ' ');
-  } finally {
-    await parser.destroy();
-  }
-}
-
-/** supertest parser that keeps a binary body as a Buffer. */
-const binary = (res: unknown, cb: (err: Error | null, body: Buffer) => void) => {
-  const stream = res as NodeJS.ReadableStream;
-  const chunks: Buffer[] = [];
-  stream.on('data', (c: Buffer) => chunks.push(c));
-  stream.on('end', () => cb(null, Buffer.concat(chunks)));
-};
 
 describe('GET /api/surveys/:id/report.pdf', () => {
   it('a survey report, when generated, is a PDF whose text holds the summary values, method, probes and cautions', async () => {

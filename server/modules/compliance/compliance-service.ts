@@ -18,7 +18,7 @@ import { siteConditions } from '../sites/sites-service';
 import { decisionRuleOf } from '../organization/organization-service';
 import { getVisibleTarget, presentTarget } from '../targets/targets-service';
 import { judgeZones, worstFirst, type JudgedZone, type JudgeReading, type JudgeResult } from './judge-zones';
-import { conditionNotes } from '../field/field-service';
+import { conditionNotes, photosOfZone } from '../field/field-service';
 import { loadCurrentReadings, loadPlacementsOnPlannedPoints, loadPlannedGrids, loadReadingsById, loadSitePlans, loadUsedCoefficientSets, placementKey, type UsedCoefficientSet } from './compliance-repository';
 
 /** What a sign-off keeps in surveys.frozen: later target, rule or calibration changes never alter it. */
@@ -185,6 +185,7 @@ export function getZoneDetail(db: Db, user: SessionUser, surveyId: number, zoneI
   if (!zone || !judged) throw notFound('Zone of this survey');
   const wallBand = new Set(judged.wallBandReadingIds);
   const pointReadings = loadReadingsById(db, survey.id, [...judged.readingIds, ...judged.wallBandReadingIds, ...(judged.otherPlaneReadingIds ?? [])]);
+  const photos = photosOfZone(db, survey.id, zoneId, pointReadings.map((r) => r.point));
   return {
     surveyId: survey.id, rule: compliance.rule, ruleText: compliance.ruleText, gridRule: compliance.gridRule, frozen: compliance.frozen,
     zone, polygon: judged.polygon,
@@ -193,6 +194,7 @@ export function getZoneDetail(db: Db, user: SessionUser, surveyId: number, zoneI
       lux: r.lux, uLux: r.uLux, luxBound: r.luxBound, flag: r.flag, inWallBand: wallBand.has(r.id), plane: r.plane ?? 'horizontal', azimuthDeg: r.azimuthDeg ?? null,
       ...(judged.pointDf?.[r.id] !== undefined ? { dfPercent: judged.pointDf[r.id] } : {}),
     })),
+    photos, siteTimeZone: survey.site.timeZone,
   };
 }
 

@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import crypto from 'node:crypto';
 import sharp, { type OutputInfo } from 'sharp';
-import { and, eq } from 'drizzle-orm';
+import { and, asc, eq } from 'drizzle-orm';
 import type { Deps } from '../../deps';
 import { fieldPhotos } from '../../db/schema/field';
 import { zones, plans } from '../../db/schema/plans';
@@ -13,7 +13,7 @@ import { badRequest, notFound, unprocessable } from '../../http/errors';
 import { keepUploadedFile, sniffFile, storedPath } from '../../lib/file-store';
 import { recordAudit } from '../audit/audit-service';
 import { getSurveyRow } from '../surveys/surveys-service';
-import { assertSurveyAcceptsFieldRecords, presentPhoto } from './field-service';
+import { assertSurveyAcceptsFieldRecords, plannedPointOfSurvey, presentPhoto } from './field-service';
 
 /** A photo upload may be at most this large before shrinking (413 beyond; phone cameras give 3-12 MB). */
 export const FIELD_PHOTO_MAX_BYTES = 20 * 1024 * 1024;
@@ -41,6 +41,9 @@ export async function storeFieldPhoto(deps: Deps, user: SessionUser, surveyId: n
     const z = deps.db.select({ id: zones.id, siteId: plans.siteId }).from(zones).innerJoin(plans, eq(plans.id, zones.planId)).where(eq(zones.id, fields.zoneId)).get();
     if (!z || z.siteId !== survey.siteId) throw unprocessable(`Zone ${fields.zoneId} is not a zone of this survey's site`, [{ path: 'zoneId', message: 'not on this site' }]);
   }
+  // A photo of a planned point belongs to that point's zone (unless the phone named a zone).
+  const planned = fields.plannedPointId !== undefined ? plannedPointOfSurvey(deps.db, user, survey, fields.plannedPointId) : null;
+  const zoneId = fields.zoneId ?? planned?.zoneId ?? null;
   await sniffFile(file.path, 'image', 'A photo');
 
   let pipeline = sharp(file.path, { failOn: 'error' }).rotate().resize({ width: FIELD_PHOTO_MAX_SIDE_PX, height: FIELD_PHOTO_MAX_SIDE_PX, fit: 'inside', withoutEnlargement: true });
@@ -59,8 +62,8 @@ export async function storeFieldPhoto(deps: Deps, user: SessionUser, surveyId: n
   const now = deps.clock.now();
   const row = deps.db.transaction((tx) => {
     const created = tx.insert(fieldPhotos).values({
-      organizationId: user.organizationId, surveyId: survey.id, idempotencyKey: fields.idempotencyKey, fileId: stored.id, point: fields.point ?? null,
-      plannedPointId: fields.plannedPointId ?? null, zoneId: fields.zoneId ?? null, note: fields.note ?? null, widthPx: out.info.width, heightPx: out.info.height,
+      organizationId: user.organizationId, surveyId: survey.id, idempotencyKey: fields.idempotencyKey, fileId: stored.id, point: planned?.label ?? fields.point ?? null,
+      plannedPointId: planned?.id ?? null, zoneId, note: fields.note ?? null, widthPx: out.info.width, heightPx: out.info.height,
       locationKept: fields.keepLocation, takenAt: Date.parse(fields.takenAt), createdBy: user.id, createdAt: now,
     }).returning().get();
     recordAudit(tx, { organizationId: user.organizationId, actorId: user.id, entityType: 'field_photo', entityId: created.id, surveyId: survey.id, action: 'recorded', after: { ...fields, sha256: stored.sha256 }, at: now });
@@ -76,4 +79,15 @@ export function fieldPhotoFile(deps: Deps, user: SessionUser, photoId: number) {
   if (!row) throw notFound('Photo');
   getSurveyRow(deps.db, user, row.photo.surveyId);
   return { filePath: storedPath(deps, row.file.sha256), sha256: row.file.sha256, size: row.file.size, contentType: row.file.contentType };
+}
+
+/** A photo as the report's appendix embeds it. */
+export type ReportPhoto = { zoneName: string | null; point: string | null; note: string | null; takenAt: number; filePath: string; widthPx: number; heightPx: number };
+
+/** The survey's photos for the report's appendix, in the order taken, with their zone's name. */
+export function reportPhotos(deps: Deps, surveyId: number): ReportPhoto[] {
+  return deps.db.select({ photo: fieldPhotos, sha256: storedFiles.sha256, zoneName: zones.name }).from(fieldPhotos)
+    .innerJoin(storedFiles, eq(storedFiles.id, fieldPhotos.fileId)).leftJoin(zones, eq(zones.id, fieldPhotos.zoneId))
+    .where(eq(fieldPhotos.surveyId, surveyId)).orderBy(asc(fieldPhotos.takenAt), asc(fieldPhotos.id)).all()
+    .map((r) => ({ zoneName: r.zoneName, point: r.photo.point, note: r.photo.note, takenAt: r.photo.takenAt, filePath: storedPath(deps, r.sha256), widthPx: r.photo.widthPx, heightPx: r.photo.heightPx }));
 }

@@ -4,6 +4,8 @@ import type { Db } from '../../db/client';
 import { decodes, readings, surveys } from '../../db/schema/surveys';
 import { probes } from '../../db/schema/calibration';
 import { plans, zones } from '../../db/schema/plans';
+import { sites } from '../../db/schema/sites';
+import { plannedPoints } from '../../db/schema/grids';
 
 import { fieldPhotos, fieldRecords, fieldSessions } from '../../db/schema/field';
 import type { SessionUser } from '@shared/schemas/auth';
@@ -196,7 +198,7 @@ export function recordFieldRecord(deps: Deps, user: SessionUser, surveyId: numbe
     }
 
     const created = tx.insert(fieldRecords).values({
-      organizationId: user.organizationId, surveyId: survey.id, idempotencyKey: body.idempotencyKey, kind: body.kind, sessionId, point: body.point,
+      organizationId: user.organizationId, surveyId: survey.id, idempotencyKey: body.idempotencyKey, kind: body.kind, sessionId, point: place.point,
       plannedPointId: place.plannedPointId, planId: place.planId, xM: place.xM, yM: place.yM, probeId: probe?.id ?? null,
       values: body.kind === 'typed' ? body.values : null, unit: body.kind === 'typed' ? body.unit : null, lights: body.kind === 'typed' ? body.lights ?? null : null,
       reason: body.kind === 'skip' ? body.reason : null, note: body.note ?? null, timeMs, createdBy: user.id, createdAt: now,
@@ -214,12 +216,12 @@ export function recordFieldRecord(deps: Deps, user: SessionUser, surveyId: numbe
       }
       const decodeId = activeDecodeFor(tx, survey, user.id, now);
       const reading = {
-        surveyId: survey.id, decodeId, importId: null, fieldRecordId: created.id, point: body.point, xM: place.xM, yM: place.yM, planId: place.planId, role: 'task' as const,
+        surveyId: survey.id, decodeId, importId: null, fieldRecordId: created.id, point: place.point, xM: place.xM, yM: place.yM, planId: place.planId, role: 'task' as const,
         timeMs, probeId: probe!.id, lux: r.lux, uLux: r.uLux, luxBound: 'exact' as const, flag: lapsed ? 'calibration_lapsed' as const : 'ok' as const, gainCode: null,
         sampleCount: r.n, chosenSample: null, coefficientSetId: setId, budget: JSON.parse(encodeBudget(r.budget)) as unknown, note: body.note ?? null,
       };
       if (body.lights === 'off') {
-        pairWithLightsOn(tx, survey, decodeId, body.point, place.plannedPointId, { lux: r.lux, uLux: r.uLux, timeMs, budget: r.budget });
+        pairWithLightsOn(tx, survey, decodeId, place.point, place.plannedPointId, { lux: r.lux, uLux: r.uLux, timeMs, budget: r.budget });
       } else {
         tx.insert(readings).values(reading).run();
       }
@@ -262,13 +264,30 @@ function pairWithLightsOn(tx: Tx, survey: SurveyRow, decodeId: number, point: st
   }).where(eq(readings.id, onReading.id)).run();
 }
 
-/** Where a record was taken: the planned point's place, or the given plan position (checked). */
+/**
+ * Where a record was taken: a planned point of this survey (its label, plan and position win over
+ * what the phone sent), or the given plan position (checked). A planned point of another survey
+ * is refused (422); one of another organisation is not found (404).
+ */
 function resolvePlace(tx: Tx, user: SessionUser, survey: SurveyRow & { site: { id: number } }, body: { plannedPointId?: number | null; planId?: number | null; xM?: number | null; yM?: number | null; point: string }) {
   if (body.plannedPointId != null) {
-    throw unprocessable('Planned points are not available on this server yet: send the plan and position instead', [{ path: 'plannedPointId', message: 'not supported' }]);
+    const p = plannedPointOfSurvey(tx, user, survey, body.plannedPointId);
+    return { plannedPointId: p.id, planId: p.planId, xM: p.xM, yM: p.yM, point: p.label };
   }
   if (body.planId != null) assertPlanOfSite(tx, user.organizationId, survey.siteId, body.planId);
-  return { plannedPointId: null as number | null, planId: body.planId ?? null, xM: body.xM ?? null, yM: body.yM ?? null };
+  return { plannedPointId: null as number | null, planId: body.planId ?? null, xM: body.xM ?? null, yM: body.yM ?? null, point: body.point };
+}
+
+/** A planned point of this survey: 404 unless it belongs to the user's organisation, 422 when it is another survey's. */
+export function plannedPointOfSurvey(db: Db | Tx, user: SessionUser, survey: Pick<SurveyRow, 'id' | 'name'>, plannedPointId: number) {
+  const row = db.select({ p: plannedPoints, organizationId: sites.organizationId }).from(plannedPoints)
+    .innerJoin(surveys, eq(surveys.id, plannedPoints.surveyId)).innerJoin(sites, eq(sites.id, surveys.siteId))
+    .where(eq(plannedPoints.id, plannedPointId)).get();
+  if (!row || row.organizationId !== user.organizationId) throw notFound(`Planned point ${plannedPointId}`);
+  if (row.p.surveyId !== survey.id) {
+    throw unprocessable(`Planned point ${row.p.label} belongs to another survey than "${survey.name}"`, [{ path: 'plannedPointId', message: 'a point of another survey' }]);
+  }
+  return row.p;
 }
 
 export function fieldState(deps: Deps, user: SessionUser, surveyId: number): FieldState {
@@ -288,7 +307,8 @@ export function fieldState(deps: Deps, user: SessionUser, surveyId: number): Fie
     },
     plans: planRows,
     zones: zoneRows.map((z) => ({ id: z.id, planId: z.planId, name: z.name, kind: z.kind, polygon: z.polygon as [number, number][] })),
-    plannedPoints: [],
+    plannedPoints: deps.db.select().from(plannedPoints).where(eq(plannedPoints.surveyId, survey.id)).orderBy(asc(plannedPoints.id)).all()
+      .map((p) => ({ id: p.id, planId: p.planId, zoneId: p.zoneId, label: p.label, xM: p.xM, yM: p.yM })),
     probes: probeRows.map((p) => ({
       id: p.id, serial: p.serial, kind: p.kind, description: p.description, meterClass: p.meterClass, rangeLowLux: p.rangeLowLux, rangeHighLux: p.rangeHighLux,
       certificateURel: p.kind === 'manual' ? setInForce(deps.db, user.organizationId, p.id, now)?.gains[0]?.uRel ?? null : null, calibrationState: p.calibrationState,
@@ -306,6 +326,14 @@ export function presentPhoto(p: typeof fieldPhotos.$inferSelect): FieldPhoto {
     id: p.id, idempotencyKey: p.idempotencyKey, point: p.point, plannedPointId: p.plannedPointId, zoneId: p.zoneId, note: p.note, widthPx: p.widthPx, heightPx: p.heightPx,
     locationKept: p.locationKept, takenAt: iso(p.takenAt), url: `/api/field-photos/${p.id}`,
   };
+}
+
+/** The survey's photos of a zone: those taken in it, and those of a point whose label one of its readings carries. */
+export function photosOfZone(db: Db, surveyId: number, zoneId: number, pointLabels: readonly string[]): FieldPhoto[] {
+  const labels = new Set(pointLabels.map((l) => l.trim().toLowerCase()));
+  return db.select().from(fieldPhotos).where(eq(fieldPhotos.surveyId, surveyId)).orderBy(asc(fieldPhotos.takenAt), asc(fieldPhotos.id)).all()
+    .filter((p) => p.zoneId === zoneId || (p.zoneId === null && p.point !== null && labels.has(p.point.trim().toLowerCase())))
+    .map(presentPhoto);
 }
 
 export { assertAccepts as assertSurveyAcceptsFieldRecords };

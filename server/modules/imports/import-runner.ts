@@ -11,6 +11,8 @@ import { recordAudit } from '../audit/audit-service';
 import type { WorkerToMain } from './log-parser';
 import { boundImportRecord, type ImportProblem, type ImportWarning } from './import-record';
 import { createBatchWriter } from './batch-writer.mjs';
+import { placeBurstsOnMarks, type MarkMatchingOptions } from '../field/mark-placement';
+import { DEFAULT_MATCH_WINDOW_MS } from '@shared/core/mark-matching';
 
 export type ImportJob = {
   importId: number;
@@ -23,6 +25,8 @@ export type ImportJob = {
   /** The site's plans (a row's `plan` names one) and the plan for rows that name none. */
   plans: { id: number; name: string }[];
   defaultPlanId: number | null;
+  /** Bursts left without a place go to the survey's "measured here now" marks by time (absent: default window, no offset). */
+  markMatching?: MarkMatchingOptions;
 };
 
 export type ImportOutcome = { importId: number; status: 'done' | 'failed'; readings: number; errors: ImportProblem[] };
@@ -210,6 +214,8 @@ async function runImport(deps: Deps, job: ImportJob): Promise<ImportOutcome> {
       organizationId: job.organizationId, actorId: job.actorId, entityType: 'log_import', entityId: job.importId, surveyId: job.surveyId, action: 'imported',
       after: { rows: end.rowsRead, readings: end.readingCount, decodeId, placement: end.placement, warnings: end.warningCount }, at: now,
     });
+    placeBurstsOnMarks(tx, { surveyId: job.surveyId, importId: job.importId, decodeId, organizationId: job.organizationId, actorId: job.actorId },
+      job.markMatching ?? { windowMs: DEFAULT_MATCH_WINDOW_MS, clockOffsetMs: 0 }, now);
   });
   return { importId: job.importId, status: 'done', readings: end.readingCount, errors: [] };
 }

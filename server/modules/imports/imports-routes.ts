@@ -11,11 +11,12 @@ import { decodeChanges } from './decode-changes';
 export function registerImportRoutes(api: Api, deps: Deps) {
   api.route({
     method: 'post', path: '/surveys/:id/logs', access: 'surveys.upload', tag: 'imports', status: 202,
-    summary: 'Upload a survey log (CSV, multipart field "file"; optional "planId": the plan for rows whose plan column is empty); answers at once with the import to poll',
-    params: idParamsSchema, before: singleFileUpload(deps, 'file', deps.config.uploadLimitBytes), multipart: { file: 'file', planId: 'string' }, response: uploadLogResponseSchema,
+    summary: 'Upload a survey log (CSV, multipart field "file"; optional "planId": the plan for rows whose plan column is empty; optional "matchWindowS" (default 20) and "clockOffsetS" (default 0) for placing bursts without a place on the survey\'s "measured here now" marks by time); answers at once with the import to poll',
+    params: idParamsSchema, before: singleFileUpload(deps, 'file', deps.config.uploadLimitBytes), multipart: { file: 'file', planId: 'string', matchWindowS: 'string', clockOffsetS: 'string' }, response: uploadLogResponseSchema,
   }, async ({ user, params, req }) => {
     // Fields are checked in the service, which also removes the uploaded temporary file on refusal.
-    const { importId } = await uploadLog(deps, user, params.id, req.file!, { planId: (req.body as Record<string, unknown> | undefined)?.planId });
+    const body = req.body as Record<string, unknown> | undefined;
+    const { importId } = await uploadLog(deps, user, params.id, req.file!, { planId: body?.planId, matchWindowS: body?.matchWindowS, clockOffsetS: body?.clockOffsetS });
     return { importId };
   });
 

@@ -11,6 +11,8 @@ import { badRequest, conflict, notFound } from '../../http/errors';
 import { keepUploadedFile, sha256OfFile, sniffFile, storedPath } from '../../lib/file-store';
 import { assertSurveyAbility, getSurveyRow } from '../surveys/surveys-service';
 import { enqueueImport, importOutcome, type ImportOutcome } from './import-runner';
+import { markMatchingOf } from '../field/mark-placement';
+import { DEFAULT_MATCH_WINDOW_MS } from '@shared/core/mark-matching';
 
 /** Surveys being re-decoded in this process; they take no upload meanwhile. */
 export const surveysBeingRedecoded = new Set<number>();
@@ -23,12 +25,12 @@ export type UploadedFile = { path: string; originalname: string; size: number };
  * CSV) and duplicates (409 naming the earlier import), keeps the file by content hash and queues
  * the import. Nothing is recorded for a file refused here.
  */
-export async function uploadLog(deps: Deps, user: SessionUser, surveyId: number, file: UploadedFile, fields: { planId?: unknown } = {}): Promise<{ importId: number; done: Promise<ImportOutcome> }> {
+export async function uploadLog(deps: Deps, user: SessionUser, surveyId: number, file: UploadedFile, fields: { planId?: unknown; matchWindowS?: unknown; clockOffsetS?: unknown } = {}): Promise<{ importId: number; done: Promise<ImportOutcome> }> {
   try {
     const survey = getSurveyRow(deps.db, user, surveyId);
     assertSurveyAbility(user, survey, 'upload');
     const parsed = uploadLogFieldsSchema.safeParse(fields);
-    if (!parsed.success) throw badRequest(`planId: ${parsed.error.issues[0].message}`, parsed.error.issues);
+    if (!parsed.success) throw badRequest(`${parsed.error.issues[0].path.join('.')}: ${parsed.error.issues[0].message}`, parsed.error.issues);
     const sitePlans = deps.db.select({ id: plans.id, name: plans.name }).from(plans).where(eq(plans.siteId, survey.siteId)).orderBy(plans.id).all();
     const defaultPlanId = parsed.data.planId ?? null;
     if (defaultPlanId !== null && !sitePlans.some((p) => p.id === defaultPlanId)) {
@@ -52,6 +54,7 @@ export async function uploadLog(deps: Deps, user: SessionUser, surveyId: number,
     const done = enqueueImport(deps, {
       importId: imp.id, surveyId: survey.id, organizationId: user.organizationId, actorId: user.id,
       filePath: storedPath(deps, stored.sha256), fileSize: stored.size, timeZone: survey.site.timeZone, plans: sitePlans, defaultPlanId,
+      markMatching: { windowMs: Math.round((parsed.data.matchWindowS ?? DEFAULT_MATCH_WINDOW_MS / 1000) * 1000), clockOffsetMs: Math.round((parsed.data.clockOffsetS ?? 0) * 1000) },
     });
     return { importId: imp.id, done };
   } finally {
@@ -69,6 +72,7 @@ export function getImport(deps: Deps, user: SessionUser, importId: number): Impo
     id: imp.id, surveyId: imp.surveyId, filename: row.filename, planId: imp.planId, status: imp.status, progress: imp.progress, rowsRead: imp.rowsRead, readings: imp.readingCount,
     placement: imp.placement ?? null, warnings: imp.warnings as ImportWarning[], errors: imp.errors as ImportProblem[],
     createdAt: new Date(imp.createdAt).toISOString(), finishedAt: imp.finishedAt === null ? null : new Date(imp.finishedAt).toISOString(),
+    markMatching: markMatchingOf(deps.db, imp.id),
   };
 }
 

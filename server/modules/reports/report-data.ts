@@ -6,6 +6,7 @@ import type { SurveyRow } from '../surveys/surveys-service';
 import { complianceOf, surveyVerdicts, type SurveyCompliance } from '../compliance/compliance-service';
 import { loadCurrentReadings, loadReadingsById, loadUsedCoefficientSets, type UsedCoefficientSet } from '../compliance/compliance-repository';
 import type { JudgedZone, JudgeReading } from '../compliance/judge-zones';
+import type { ReportPhoto } from '../field/field-photos';
 
 export type ReportData = {
   organizationName: string;
@@ -18,6 +19,8 @@ export type ReportData = {
   zones: (JudgedZone & { readings: JudgeReading[]; wallBandReadings: JudgeReading[] })[];
   coefficientSets: UsedCoefficientSet[];
   generatedAt: number;
+  /** Photos taken in the field (the appendix), with the stored file to embed; absent: none. */
+  photos?: ReportPhoto[];
 };
 
 const nameOf = (db: Db, id: number | null) => (id === null ? null : db.select({ name: users.name }).from(users).where(eq(users.id, id)).get()?.name ?? null);

@@ -226,6 +226,8 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx', onPag
   doc.font('body').fontSize(10).fillColor(INK);
   for (const caution of REPORT_CAUTIONS) doc.text(`- ${caution}`, { width: CONTENT_W }).moveDown(0.2);
 
+  if (data.photos?.length) photoAppendix(doc, data.photos, data.site.timeZone);
+
   // Footer on every page.
   const range = doc.bufferedPageRange();
   for (let i = range.start; i < range.start + range.count; i++) {
@@ -307,6 +309,30 @@ export function formatDateTime(ms: number, timeZone: string): string {
 /** The report's date: shared/datetime's one format, in the site's zone. */
 export function formatDate(ms: number, timeZone: string): string {
   return formatDay(ms, timeZone);
+}
+
+/** Photos taken in the field, two to a row, each with its zone, point, time (site zone) and note. */
+function photoAppendix(doc: PDFKit.PDFDocument, photos: NonNullable<ReportData['photos']>, timeZone: string) {
+  doc.addPage();
+  section(doc, 'Appendix: photos from the field', true);
+  const gap = 16;
+  const cellW = (CONTENT_W - gap) / 2;
+  const imageH = 190;
+  const captionH = 36;
+  let col = 0;
+  let rowY = doc.y;
+  for (const p of photos) {
+    if (col === 0 && rowY + imageH + captionH > A4.height - MARGIN) { doc.addPage(); rowY = MARGIN; }
+    const x = MARGIN + col * (cellW + gap);
+    doc.image(p.filePath, x, rowY, { fit: [cellW, imageH], align: 'center', valign: 'center' });
+    const caption = [p.zoneName ?? 'No zone', p.point ? `point ${p.point}` : null, formatDateTime(p.takenAt, timeZone)].filter(Boolean).join(' · ');
+    doc.font('bold').fontSize(8.5).fillColor(INK).text(caption, x, rowY + imageH + 4, { width: cellW, lineBreak: true, height: 12, ellipsis: true });
+    if (p.note) doc.font('body').fontSize(8).fillColor(MUTED).text(p.note, x, rowY + imageH + 16, { width: cellW, height: captionH - 16, ellipsis: true });
+    col = 1 - col;
+    if (col === 0) rowY += imageH + captionH + 8;
+  }
+  doc.x = MARGIN;
+  doc.y = col === 0 ? rowY : rowY + imageH + captionH + 8;
 }
 
 export function section(doc: PDFKit.PDFDocument, title: string, first = false) {

@@ -11,6 +11,7 @@ import { labelOfUseType } from '@shared/schemas/zones';
 import type { SessionUser } from '@shared/schemas/auth';
 import type { SendReportBody, SendReportResponse } from '@shared/schemas/reports';
 import { currentReadingConditions, findSurveyInOrganization, getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
+import { reportPhotos } from '../field/field-photos';
 import { exportColumns } from '../readings/readings-service';
 import { recordAudit } from '../audit/audit-service';
 import { frozenOf, surveyVerdicts, complianceOf } from '../compliance/compliance-service';
@@ -29,7 +30,8 @@ export const reportFilename = (survey: Pick<SurveyRow, 'id' | 'name'> & Partial<
 
 /** The PDF report of a survey (frozen verdicts once signed off). */
 export async function surveyReportPdf(deps: Deps, survey: SurveyRow, unit: ReportUnit = 'lx'): Promise<FileAnswer> {
-  const content = await renderReportPdf(loadReportData(deps.db, survey, deps.clock.now()), unit);
+  const data = loadReportData(deps.db, survey, deps.clock.now());
+  const content = await renderReportPdf({ ...data, photos: reportPhotos(deps, survey.id) }, unit);
   return { filename: reportFilename(survey, 'pdf'), contentType: 'application/pdf', content };
 }
 

@@ -11,6 +11,7 @@ import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { Page, PageHeader } from '@/components/ui/page';
 import { EmptyState, QueryState } from '@/components/ui/states';
 import { paths } from '@shared/paths';
+import { formatDateTime } from '@shared/datetime';
 import { labelOfUseType, ZONE_KIND_LABELS } from '@shared/schemas/zones';
 
 /** One zone of a survey: its points, statistics, target and source. */
@@ -40,6 +41,23 @@ export function ZoneComplianceRoute() {
             <Card>
               <CardHeader title="Points" description="Points in the wall band are shown but left out of the statistics." />
               {d.points.length === 0 ? <EmptyState title="No readings in this zone" /> : <ZonePointsTable detail={d} />}
+            </Card>
+            <Card>
+              <CardHeader title="Photos from the field" description="Taken on site with the field view, of this zone or of one of its points (location removed unless the surveyor kept it)." />
+              <CardBody>
+                {d.photos.length === 0 ? <EmptyState title="No photos of this zone" /> : (
+                  <ul className="grid grid-cols-2 gap-3 sm:grid-cols-3">
+                    {d.photos.map((p) => (
+                      <li key={p.id} className="flex flex-col gap-1">
+                        <a href={p.url} target="_blank" rel="noreferrer" className="block overflow-hidden rounded-lg ring-1 ring-ink-200 focus:ring-2 focus:ring-lamp-500">
+                          <img src={p.url} alt={`Photo at ${p.point ?? d.zone.name}${p.note ? `: ${p.note}` : ''}`} width={p.widthPx} height={p.heightPx} loading="lazy" className="h-auto w-full object-cover" />
+                        </a>
+                        <span className="text-sm text-ink-700">{p.point ?? 'Zone'} · {formatDateTime(p.takenAt, d.siteTimeZone)}{p.note ? ` · ${p.note}` : ''}</span>
+                      </li>
+                    ))}
+                  </ul>
+                )}
+              </CardBody>
             </Card>
             <SafetyCaution />
           </div>

@@ -8,7 +8,9 @@ import { ImportErrorsTable, ImportWarningsList } from './import-errors-table';
 import { Button } from '@/components/ui/button';
 import { ProgressBar } from '@/components/ui/progress-bar';
 import { FormError } from '@/components/ui/form-error';
-import { SelectField } from '@/components/ui/field';
+import { SelectField, TextField } from '@/components/ui/field';
+import { formatClock } from '@shared/datetime';
+import type { MarkMatchingResult } from '@shared/schemas/imports';
 import { probeKeys, siteKeys, surveyKeys } from '@/lib/query-keys';
 
 /**
@@ -17,12 +19,15 @@ import { probeKeys, siteKeys, surveyKeys } from '@/lib/query-keys';
  * then the outcome: readings refreshed, or the file's problems as a table. The site's plans come
  * from the plans feature, handed down by the page that composes both.
  */
-export function LogUpload({ surveyId, plans }: { surveyId: number; plans: UseQueryResult<PlanListResponse> }) {
+export function LogUpload({ surveyId, plans, timeZone }: { surveyId: number; plans: UseQueryResult<PlanListResponse>; timeZone?: string }) {
   const input = useRef<HTMLInputElement>(null);
   const [file, setFile] = useState<File | null>(null);
   const [transfer, setTransfer] = useState(0);
   const [importId, setImportId] = useState<number | null>(null);
   const [planId, setPlanId] = useState<number | null>(null);
+  const [windowS, setWindowS] = useState('20');
+  const [offsetS, setOffsetS] = useState('0');
+  const [timingProblem, setTimingProblem] = useState<string | null>(null);
   const planCount = plans.data?.items.length ?? 0;
   const upload = useUploadLog();
   const imp = useImport(importId);
@@ -39,9 +44,14 @@ export function LogUpload({ surveyId, plans }: { surveyId: number; plans: UseQue
 
   const start = () => {
     if (!file) return;
+    const matchWindowS = windowS.trim() === '' ? null : Number(windowS.replace(',', '.'));
+    const clockOffsetS = offsetS.trim() === '' ? null : Number(offsetS.replace(',', '.'));
+    if (matchWindowS !== null && !(Number.isFinite(matchWindowS) && matchWindowS >= 0 && matchWindowS <= 600)) { setTimingProblem('Window: a number of seconds from 0 to 600'); return; }
+    if (clockOffsetS !== null && !(Number.isFinite(clockOffsetS) && Math.abs(clockOffsetS) <= 86_400)) { setTimingProblem('Clock offset: a number of seconds within ±86400 (one day)'); return; }
+    setTimingProblem(null);
     setImportId(null);
     setTransfer(0);
-    upload.mutate({ surveyId, file, planId, onProgress: (p) => setTransfer(p.fraction) }, { onSuccess: (r) => { setTransfer(1); setImportId(r.importId); } });
+    upload.mutate({ surveyId, file, planId, matchWindowS, clockOffsetS, onProgress: (p) => setTransfer(p.fraction) }, { onSuccess: (r) => { setTransfer(1); setImportId(r.importId); } });
   };
 
   return (
@@ -58,6 +68,13 @@ export function LogUpload({ surveyId, plans }: { surveyId: number; plans: UseQue
         <option value="">{plans.isPending ? 'Loading plans…' : 'From the log\'s plan column'}</option>
         {plans.data?.items.map((p) => <option key={p.id} value={p.id}>{p.name}</option>)}
       </SelectField>
+      <fieldset className="flex flex-wrap items-end gap-3">
+        <legend className="mb-1 text-sm font-medium text-ink-800">Bursts without a place go to the marks taken with the field view ("measured here now"), nearest in time</legend>
+        <TextField label="Window (± s)" className="w-32" inputMode="decimal" value={windowS} onChange={(e) => setWindowS(e.target.value)} />
+        <TextField label="Clock offset (s)" className="w-36" inputMode="decimal" value={offsetS} onChange={(e) => setOffsetS(e.target.value)}
+          hint="Added to the meter's times: a meter 90 s slow needs +90." />
+      </fieldset>
+      {timingProblem && <p role="alert" className="text-sm font-medium text-short-700">{timingProblem}</p>}
       <div className="flex flex-wrap items-end gap-3">
         <div>
           <label htmlFor="log-file" className="mb-1 block text-sm font-medium text-ink-800">Meter log (CSV)</label>
@@ -92,8 +109,50 @@ export function LogUpload({ surveyId, plans }: { surveyId: number; plans: UseQue
           Placed by their coordinates: {imp.data.placement.byCoordinates.toLocaleString('en-GB')}; by a planned point's label: {imp.data.placement.byLabel.toLocaleString('en-GB')}; without a place: {imp.data.placement.none.toLocaleString('en-GB')}.
         </p>
       )}
+      {imp.data?.markMatching && status === 'done' && <PlacedByTime result={imp.data.markMatching} timeZone={timeZone} />}
       {imp.data && <ImportWarningsList warnings={imp.data.warnings} />}
       {imp.data && status === 'failed' && <ImportErrorsTable errors={imp.data.errors} filename={imp.data.filename} />}
     </div>
+  );
+}
+
+const signed = (s: number) => `${s >= 0 ? '+' : '−'}${Math.abs(s).toFixed(1)} s`;
+
+/** Which bursts went to which mark, which stayed unplaced and why, and the marks no burst reached. */
+function PlacedByTime({ result, timeZone }: { result: MarkMatchingResult; timeZone?: string }) {
+  const at = (iso: string) => formatClock(iso, timeZone, { seconds: true });
+  return (
+    <section data-testid="placed-by-time" aria-label="Bursts placed by time" className="flex flex-col gap-3 rounded-lg bg-ink-50 p-3 text-sm text-ink-900">
+      <p className="font-semibold">
+        {result.matched.length} burst{result.matched.length === 1 ? '' : 's'} placed by time on marks (window ±{result.windowS} s, clock offset {signed(result.clockOffsetS)}); {result.unplaced.length} left without a place; {result.marksWithoutBurst.length} mark{result.marksWithoutBurst.length === 1 ? '' : 's'} without a burst.
+      </p>
+      {result.matched.length > 0 && (
+        <div className="overflow-x-auto">
+          <table className="min-w-full text-left">
+            <caption className="sr-only">Bursts placed on marks</caption>
+            <thead><tr><th className="pr-3">Point</th><th className="pr-3">Mark</th><th className="pr-3">Burst (meter + offset)</th><th className="pr-3">Apart</th><th>Probe</th></tr></thead>
+            <tbody>
+              {result.matched.map((m) => (
+                <tr key={m.readingId}><td className="pr-3 font-medium">{m.point}</td><td className="pr-3 tabular-nums">{at(m.markAt)}</td><td className="pr-3 tabular-nums">{at(new Date(Date.parse(m.burstAt) + result.clockOffsetS * 1000).toISOString())}</td><td className="pr-3 tabular-nums">{signed(m.deltaS)}</td><td>{m.probe}</td></tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+      {result.unplaced.length > 0 && (
+        <div>
+          <h4 className="font-semibold">Unplaced bursts (place them by hand under "Readings without a place")</h4>
+          <ul className="list-disc pl-5">
+            {result.unplaced.map((u) => <li key={u.readingId}>{u.probe} at {at(u.burstAt)} (meter clock): {u.message}{u.markPoints.length ? ` (${u.markPoints.join(', ')})` : ''}</li>)}
+          </ul>
+        </div>
+      )}
+      {result.marksWithoutBurst.length > 0 && (
+        <div>
+          <h4 className="font-semibold">Marks without a burst</h4>
+          <ul className="list-disc pl-5">{result.marksWithoutBurst.map((m) => <li key={m.markId}>{m.point} at {at(m.markAt)}{m.probe ? ` (${m.probe})` : ''}</li>)}</ul>
+        </div>
+      )}
+    </section>
   );
 }

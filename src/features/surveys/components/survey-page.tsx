@@ -110,7 +110,7 @@ export function SurveyPage({ surveyId, role, sitePlans, plannedPoints }: {
               {s.abilities.upload && (
                 <Card>
                   <CardHeader title="Add a meter log" description="A file with any problem is rejected whole; nothing from it is stored." />
-                  <CardBody><LogUpload surveyId={s.id} plans={sitePlans} /></CardBody>
+                  <CardBody><LogUpload surveyId={s.id} plans={sitePlans} timeZone={s.siteTimeZone} /></CardBody>
                 </Card>
               )}
               {!s.abilities.upload && can(role, 'surveys.upload') && (
