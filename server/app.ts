@@ -92,6 +92,8 @@ function serveBuiltClient(app: express.Express) {
   const indexHtml = path.join(dist, 'index.html');
   if (!fs.existsSync(indexHtml)) throw new Error(`The client is not built (${indexHtml} is missing): run "npm run build" first`);
   app.use('/assets', express.static(path.join(dist, 'assets'), { immutable: true, maxAge: '1y' }));
-  app.use(express.static(dist, { index: false, maxAge: '1h' }));
+  // The service worker and the manifest are checked on every visit, so a new build reaches phones at once.
+  const revalidate = /[\\/](sw\.js|workbox-[\w-]+\.js|manifest\.webmanifest)$/;
+  app.use(express.static(dist, { index: false, maxAge: '1h', setHeaders: (res, file) => { if (revalidate.test(file)) res.setHeader('Cache-Control', 'no-cache'); } }));
   app.get('/{*splat}', (_req, res) => { res.sendFile(indexHtml); });
 }

@@ -14,3 +14,8 @@ createRoot(document.getElementById('root')!).render(
     </AppProviders>
   </StrictMode>,
 );
+
+// The service worker (built by vite-plugin-pwa) keeps the app's files for the offline field view.
+if (import.meta.env.PROD && 'serviceWorker' in navigator) {
+  void import('workbox-window').then(({ Workbox }) => new Workbox('/sw.js', { scope: '/' }).register()).catch(() => { /* the app works online without it */ });
+}

@@ -10,6 +10,8 @@ type Chunk = { file: string; src?: string; name?: string; isEntry?: boolean; isD
 
 /** Budget for the entry plus the sign-in page (issue #11: at most 200 KB gzip before the first paint). */
 const FIRST_LOAD_BUDGET_KB = 200;
+/** Budget for the field view's own route code beyond the entry (issue #14: at most 150 KB gzip). */
+const FIELD_BUDGET_KB = 150;
 const dist = path.resolve(process.argv[2] ?? 'dist');
 const manifestPath = path.join(dist, '.vite', 'manifest.json');
 if (!fs.existsSync(manifestPath)) {
@@ -65,4 +67,12 @@ console.log('Each page\'s own chunk with its static imports beyond the entry:');
 for (const r of rows) console.log(r);
 const ok = signInGz <= FIRST_LOAD_BUDGET_KB * 1024;
 console.log(`Before the sign-in page paints: ${kb(signInGz).trim()} KB gzip (budget ${FIRST_LOAD_BUDGET_KB} KB): ${ok ? 'within budget' : 'OVER BUDGET'}`);
-if (!ok) process.exit(1);
+
+// The field view (its frame, survey list and survey page, with everything they import beyond the
+// entry): what a phone fetches to open it, at most FIELD_BUDGET_KB gzip beyond the shell (issue #14).
+const fieldKeys = pages.filter((k) => /src\/app\/routes\/field\//.test(k));
+const fieldOwn = new Set(fieldKeys.flatMap((k) => [...closure(k)]).filter((k) => !entry.has(k)));
+const fieldSize = total(fieldOwn);
+const fieldOk = fieldKeys.length > 0 && fieldSize.gz <= FIELD_BUDGET_KB * 1024;
+console.log(`Field view's own JavaScript beyond the shell (${fieldKeys.length} route chunks, ${fieldOwn.size} files): ${kb(fieldSize.raw).trim()} KB raw, ${kb(fieldSize.gz).trim()} KB gzip (budget ${FIELD_BUDGET_KB} KB): ${fieldOk ? 'within budget' : 'OVER BUDGET'}`);
+if (!ok || !fieldOk) process.exit(1);

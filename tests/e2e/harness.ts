@@ -19,7 +19,7 @@ async function freePort(): Promise<number> {
   });
 }
 
-export type E2eApp = { baseUrl: string; dataDir: string; browser: Browser; stop: () => Promise<void>; newPage: (opts?: { width?: number; height?: number; timezoneId?: string }) => Promise<Page>; serverLog: () => string };
+export type E2eApp = { baseUrl: string; dataDir: string; browser: Browser; stop: () => Promise<void>; newPage: (opts?: { width?: number; height?: number; timezoneId?: string; serviceWorkers?: 'allow' | 'block' }) => Promise<Page>; serverLog: () => string };
 
 /**
  * Starts the built app (`npm run build` must have run: test:e2e does it) on a free port with
@@ -59,7 +59,9 @@ export async function startE2eApp(): Promise<E2eApp> {
     browser,
     serverLog: () => log,
     async newPage(opts = {}) {
-      const context = await browser.newContext({ baseURL: baseUrl, viewport: { width: opts.width ?? 1280, height: opts.height ?? 860 }, ...(opts.timezoneId ? { timezoneId: opts.timezoneId } : {}) });
+      // The app's service worker is blocked unless a test asks for it (the offline test): request
+      // routing in the other tests must see every request the page makes.
+      const context = await browser.newContext({ baseURL: baseUrl, viewport: { width: opts.width ?? 1280, height: opts.height ?? 860 }, serviceWorkers: opts.serviceWorkers ?? 'block', ...(opts.timezoneId ? { timezoneId: opts.timezoneId } : {}) });
       contexts.push(context);
       return context.newPage();
     },
