@@ -209,6 +209,24 @@ describe('measurement conditions', () => {
     expect(repeat.body.alreadyStored).toBe(true);
   });
 
+  it('the report\'s method section prints each visit\'s conditions, the warm-up time used and the readings taken too early', async () => {
+    const s = draftSurvey('Conditions report', { daylightExcluded: true });
+    const sessionKey = key('session');
+    await surveyor.post(`/api/surveys/${s.surveyId}/field/sessions`).send({
+      idempotencyKey: sessionKey, measuredBy: 'Visiting surveyor', startedAt: at(0), lightsOnAt: at(-10), supplyVoltageV: 229, ambientTempC: 18, sky: 'night', blinds: 'closed', lampBurnInHours: 5000, daylightExcluded: true,
+    });
+    await surveyor.post(`/api/surveys/${s.surveyId}/field/records`).send({
+      idempotencyKey: key(), kind: 'typed', point: 'M1', planId: s.planId, xM: 3, yM: 3, probeId: manualProbeId, values: [450], unit: 'lx', recordedAt: at(5), sessionKey,
+    });
+    const pdf = await surveyor.get(`/api/surveys/${s.surveyId}/report.pdf`).buffer(true).parse(binary);
+    const text = await pdfText(pdf.body as Buffer);
+    const method = text.slice(text.indexOf('Method'), text.indexOf('Summary'));
+    expect(method).toContain('Measurement conditions');
+    expect(method).toMatch(/measured by Visiting surveyor; lights on at .*; supply 229 V; ambient 18 °C; night; blinds closed; lamps burnt in 5000 h; daylight excluded\./);
+    expect(method).toContain('at least 30 min after the lights are switched on (warm-up time, common practice');
+    expect(method).toMatch(/1 reading\(s\) taken less than 30 min after the lights went on \(warm-up time, common practice\): M1/);
+  });
+
   it('a record naming a session that was never synced is refused, naming the session', async () => {
     const s = draftSurvey('Unknown session');
     const res = await surveyor.post(`/api/surveys/${s.surveyId}/field/records`).send({ idempotencyKey: key(), kind: 'skip', point: 'X1', reason: 'blocked', recordedAt: at(0), sessionKey: 'never-synced-1' });

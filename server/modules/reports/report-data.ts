@@ -7,6 +7,7 @@ import { complianceOf, surveyVerdicts, type SurveyCompliance } from '../complian
 import { loadCurrentReadings, loadReadingsById, loadUsedCoefficientSets, type UsedCoefficientSet } from '../compliance/compliance-repository';
 import type { JudgedZone, JudgeReading } from '../compliance/judge-zones';
 import type { ReportPhoto } from '../field/field-photos';
+import type { FieldSession } from '@shared/schemas/field';
 
 export type ReportData = {
   organizationName: string;
@@ -21,6 +22,8 @@ export type ReportData = {
   generatedAt: number;
   /** Photos taken in the field (the appendix), with the stored file to embed; absent: none. */
   photos?: ReportPhoto[];
+  /** The conditions of each field visit, and the notes on readings those conditions put in doubt (method section). */
+  fieldConditions?: { sessions: FieldSession[]; warmUpMinutes: number; notes: string[] };
 };
 
 const nameOf = (db: Db, id: number | null) => (id === null ? null : db.select({ name: users.name }).from(users).where(eq(users.id, id)).get()?.name ?? null);

@@ -106,6 +106,7 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx', onPag
     ['Decision rule', c.ruleText],
     ['Installation', c.installationText],
   ]);
+  if (data.fieldConditions) fieldConditionsText(doc, data.fieldConditions, data.site.timeZone);
 
   section(doc, 'Summary');
   const counts = c.counts;
@@ -136,10 +137,12 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx', onPag
     doc.moveDown(0.3).fontSize(8.5).fillColor(MUTED);
     textWithSymbols(doc, 'body', BOUND_FOOTNOTE, null, { width: CONTENT_W });
   }
-  if (c.warnings.length) {
+  // Notes on measurement conditions are printed with the method (above), not twice.
+  const notes = c.warnings.filter((w) => !data.fieldConditions?.notes.includes(w));
+  if (notes.length) {
     doc.moveDown(0.5).font('bold').fontSize(9).fillColor(INK).text('Notes');
     doc.font('body').fontSize(9).fillColor(MUTED);
-    for (const w of c.warnings) textWithSymbols(doc, 'body', `- ${w}`, null, { width: CONTENT_W });
+    for (const w of notes) textWithSymbols(doc, 'body', `- ${w}`, null, { width: CONTENT_W });
   }
   doc.moveDown(0.5).fontSize(8.5).fillColor(MUTED);
   textWithSymbols(doc, 'body', `Decision rule: ${c.ruleText}`, null, { width: CONTENT_W });
@@ -309,6 +312,29 @@ export function formatDateTime(ms: number, timeZone: string): string {
 /** The report's date: shared/datetime's one format, in the site's zone. */
 export function formatDate(ms: number, timeZone: string): string {
   return formatDay(ms, timeZone);
+}
+
+const SKY_TEXT = { overcast: 'overcast', clear: 'clear sky', night: 'night' } as const;
+
+/** Each field visit's conditions, the warm-up time used, and the readings the conditions put in doubt. */
+function fieldConditionsText(doc: PDFKit.PDFDocument, f: NonNullable<ReportData['fieldConditions']>, timeZone: string) {
+  doc.moveDown(0.5).font('bold').fontSize(9.5).fillColor(INK).text('Measurement conditions', MARGIN);
+  doc.font('body').fontSize(9).fillColor(INK);
+  for (const s of f.sessions) {
+    const parts = [
+      `measured by ${s.measuredBy}`,
+      s.lightsOnAt ? `lights on at ${formatDateTime(Date.parse(s.lightsOnAt), timeZone)}` : 'switch-on time not recorded',
+      s.supplyVoltageV !== null ? `supply ${s.supplyVoltageV} V` : null,
+      s.ambientTempC !== null ? `ambient ${s.ambientTempC} °C` : null,
+      s.sky ? SKY_TEXT[s.sky] : null,
+      s.blinds ? `blinds ${s.blinds}` : null,
+      s.lampBurnInHours !== null ? `lamps burnt in ${s.lampBurnInHours} h` : null,
+      s.daylightExcluded ? 'daylight excluded' : 'daylight present',
+    ].filter(Boolean);
+    doc.text(`- Visit from ${formatDateTime(Date.parse(s.startedAt), timeZone)}: ${parts.join('; ')}.${s.note ? ` ${s.note}` : ''}`, { width: CONTENT_W });
+  }
+  doc.text(`Readings are expected at least ${f.warmUpMinutes} min after the lights are switched on (warm-up time, common practice for discharge lamps).`, { width: CONTENT_W });
+  for (const n of f.notes) textWithSymbols(doc, 'body', `- ${n}`, null, { width: CONTENT_W });
 }
 
 /** Photos taken in the field, two to a row, each with its zone, point, time (site zone) and note. */

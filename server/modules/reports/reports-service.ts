@@ -12,6 +12,8 @@ import type { SessionUser } from '@shared/schemas/auth';
 import type { SendReportBody, SendReportResponse } from '@shared/schemas/reports';
 import { currentReadingConditions, findSurveyInOrganization, getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
 import { reportPhotos } from '../field/field-photos';
+import { conditionNotes, sessionsForReport } from '../field/field-service';
+import { WARM_UP_MS } from '@shared/core/field-conditions';
 import { exportColumns } from '../readings/readings-service';
 import { recordAudit } from '../audit/audit-service';
 import { frozenOf, surveyVerdicts, complianceOf } from '../compliance/compliance-service';
@@ -31,7 +33,10 @@ export const reportFilename = (survey: Pick<SurveyRow, 'id' | 'name'> & Partial<
 /** The PDF report of a survey (frozen verdicts once signed off). */
 export async function surveyReportPdf(deps: Deps, survey: SurveyRow, unit: ReportUnit = 'lx'): Promise<FileAnswer> {
   const data = loadReportData(deps.db, survey, deps.clock.now());
-  const content = await renderReportPdf({ ...data, photos: reportPhotos(deps, survey.id) }, unit);
+  const sessions = sessionsForReport(deps.db, survey.id);
+  const judged = data.zones.flatMap((z) => [...z.readings, ...z.wallBandReadings]);
+  const fieldConditions = sessions.length ? { sessions, warmUpMinutes: WARM_UP_MS / 60_000, notes: conditionNotes(deps.db, survey, judged) } : undefined;
+  const content = await renderReportPdf({ ...data, photos: reportPhotos(deps, survey.id), fieldConditions }, unit);
   return { filename: reportFilename(survey, 'pdf'), contentType: 'application/pdf', content };
 }
 
