@@ -2,6 +2,7 @@ import { useMemo, useState } from 'react';
 import { AlertTriangle, CloudOff, Download, RefreshCw, Wifi } from 'lucide-react';
 import { useUnits, formatNumber } from '@/lib/units';
 import { cx } from '@/components/ui/cx';
+import { formatClock } from '@shared/datetime';
 import { ApiRequestError } from '@/lib/api-client';
 import { useFieldSurvey } from '../offline/use-field-survey';
 import { fieldEntries, fieldPoints, nextPoint, zoneProgress, type FieldEntry as Entry, type FieldPoint } from '../field-model';
@@ -163,7 +164,7 @@ export function FieldView({ surveyId, userName }: { surveyId: number; userName: 
 
       {target && state.survey.acceptsRecords && <FieldEntry key={`${target.label}-${target.xM}-${target.yM}`} state={state} target={target} sessionKey={sessionKey} onAdd={f.add} />}
 
-      {selected && <PointHistory point={selected} format={format} onClose={() => setSelectedId(null)} />}
+      {selected && <PointHistory point={selected} format={format} timeZone={state.survey.siteTimeZone} onClose={() => setSelectedId(null)} />}
 
       <section aria-labelledby="points-title">
         <h2 id="points-title" className="text-base font-bold text-ink-950">Points</h2>
@@ -185,7 +186,7 @@ export function FieldView({ surveyId, userName }: { surveyId: number; userName: 
   );
 }
 
-function PointHistory({ point, format, onClose }: { point: FieldPoint; format: (lux: number) => string; onClose: () => void }) {
+function PointHistory({ point, format, timeZone, onClose }: { point: FieldPoint; format: (lux: number) => string; timeZone: string; onClose: () => void }) {
   return (
     <section aria-labelledby="history-title" className="rounded-2xl bg-white p-4 ring-1 ring-ink-300">
       <div className="flex items-center justify-between">
@@ -198,7 +199,7 @@ function PointHistory({ point, format, onClose }: { point: FieldPoint; format: (
             <li key={e.key} className="rounded-lg bg-ink-50 p-3 text-sm text-ink-950">
               <div className="flex flex-wrap justify-between gap-2">
                 <strong>
-                  {e.kind === 'typed' ? `${e.values?.map((v) => formatNumber(v)).join(', ')} ${e.unit}${e.lights ? ` (lights ${e.lights})` : ''}` : e.kind === 'mark' ? 'Measured here (logging meter)' : `Skipped: ${e.skipReason}`}
+                  {e.kind === 'typed' ? `${e.values?.map((v) => formatNumber(v)).join(', ')} ${e.unit}${e.lights ? ` (lights ${e.lights})` : ''}` : e.kind === 'mark' ? `Measured here (logging meter) at ${formatClock(e.recordedAt, timeZone, { seconds: true })}` : `Skipped: ${e.skipReason}`}
                 </strong>
                 <span className={cx('font-semibold', e.sync === 'refused' ? 'text-short-700' : e.sync === 'waiting' ? 'text-unsure-700' : 'text-meets-700')}>{SYNC_LABEL[e.sync]}</span>
               </div>

@@ -11,6 +11,7 @@ import { FormError } from '@/components/ui/form-error';
 import { SelectField, TextField } from '@/components/ui/field';
 import { formatClock } from '@shared/datetime';
 import type { MarkMatchingResult } from '@shared/schemas/imports';
+import { clockOffsetFromAlignment } from '@shared/core/mark-matching';
 import { probeKeys, siteKeys, surveyKeys } from '@/lib/query-keys';
 
 /**
@@ -74,6 +75,7 @@ export function LogUpload({ surveyId, plans, timeZone }: { surveyId: number; pla
         <TextField label="Clock offset (s)" className="w-36" inputMode="decimal" value={offsetS} onChange={(e) => setOffsetS(e.target.value)}
           hint="Added to the meter's times: a meter 90 s slow needs +90." />
       </fieldset>
+      <OffsetFromOneMark onOffset={(s) => setOffsetS(String(s))} />
       {timingProblem && <p role="alert" className="text-sm font-medium text-short-700">{timingProblem}</p>}
       <div className="flex flex-wrap items-end gap-3">
         <div>
@@ -154,5 +156,37 @@ function PlacedByTime({ result, timeZone }: { result: MarkMatchingResult; timeZo
         </div>
       )}
     </section>
+  );
+}
+
+/** Seconds since midnight of an "HH:MM:SS" time input, or null. */
+function secondsOfDay(v: string): number | null {
+  const m = /^(\d{1,2}):(\d{2})(?::(\d{2}))?$/.exec(v);
+  return m ? Number(m[1]) * 3600 + Number(m[2]) * 60 + Number(m[3] ?? 0) : null;
+}
+
+/**
+ * Finding the clock offset by aligning one known mark: the time the field view recorded for a mark
+ * and the meter's own time of the burst taken there (both read as clock times of the same day).
+ */
+function OffsetFromOneMark({ onOffset }: { onOffset: (seconds: number) => void }) {
+  const [markAt, setMarkAt] = useState('');
+  const [burstAt, setBurstAt] = useState('');
+  const mark = secondsOfDay(markAt);
+  const burst = secondsOfDay(burstAt);
+  // Across midnight the nearer of the two days is meant: keep the offset within ±12 h.
+  const raw = mark !== null && burst !== null ? clockOffsetFromAlignment(mark, burst) : null;
+  const offset = raw === null ? null : ((raw + 43_200) % 86_400 + 86_400) % 86_400 - 43_200;
+  return (
+    <details className="text-sm text-ink-800">
+      <summary className="cursor-pointer font-medium">Find the offset from one mark</summary>
+      <div className="mt-2 flex flex-wrap items-end gap-3">
+        <TextField label="Mark's time (field view)" type="time" step={1} className="w-44" value={markAt} onChange={(e) => setMarkAt(e.target.value)} />
+        <TextField label="Meter's time of that burst" type="time" step={1} className="w-44" value={burstAt} onChange={(e) => setBurstAt(e.target.value)} />
+        <Button variant="secondary" disabled={offset === null} onClick={() => offset !== null && onOffset(offset)}>
+          {offset === null ? 'Use this offset' : `Use ${offset >= 0 ? '+' : ''}${offset} s`}
+        </Button>
+      </div>
+    </details>
   );
 }
