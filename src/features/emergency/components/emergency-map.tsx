@@ -6,6 +6,7 @@ import '@geoman-io/leaflet-geoman-free/dist/leaflet-geoman.css';
 import type { Plan } from '@shared/schemas/plans';
 import type { EmergencyElement, ElementVerdict } from '@shared/schemas/emergency';
 import type { PlanPoint } from '@shared/spatial/polygon';
+import { routeStrips } from '@shared/spatial/emergency-points';
 import { PlanMap } from '@/components/plan-map/plan-map';
 import { fromLatLng, toLatLng } from '@/components/plan-map/plan-frame';
 import { EMERGENCY_VERDICT_COLOUR, EMERGENCY_VERDICT_LABELS } from './emergency-verdict';
@@ -35,6 +36,7 @@ export function EmergencyMap({ plan, elements, verdicts, draw, className }: Prop
         const colour = v ? EMERGENCY_VERDICT_COLOUR[v.verdict] : e.kind === 'escape_route' || e.kind === 'safety_equipment' ? ROUTE_COLOUR : AREA_COLOUR;
         const label = `${e.code} ${e.name}${v ? ` · ${EMERGENCY_VERDICT_LABELS[v.verdict]}` : ''}`;
         const positions = e.geometry.map(toLatLng);
+        const strips = e.kind === 'escape_route' && e.widthM !== null ? routeStrips(e.geometry, e.widthM) : [];
         return (
           <span key={e.id}>
             {e.kind === 'escape_route' && (
@@ -42,6 +44,12 @@ export function EmergencyMap({ plan, elements, verdicts, draw, className }: Prop
                 <Tooltip sticky>{label}{e.stair ? ' (stair)' : ''}</Tooltip>
               </Polyline>
             )}
+            {/* A route wider than 2 m: each strip's own centre line, thin and dotted. */}
+            {strips.length > 1 && strips.map((strip) => (
+              <Polyline key={`strip-${strip.index}`} positions={strip.line.map(toLatLng)} pathOptions={{ color: colour, weight: 1.5, dashArray: '2 5' }}>
+                <Tooltip sticky>{`${e.code}: strip ${strip.index} of ${strips.length}, ${Number(strip.widthM.toFixed(2))} m wide`}</Tooltip>
+              </Polyline>
+            ))}
             {(e.kind === 'open_area' || e.kind === 'high_risk_area') && (
               <Polygon positions={positions} pathOptions={{ color: colour, weight: 2, fillOpacity: 0.08, dashArray: e.kind === 'high_risk_area' ? '4 3' : undefined }}>
                 <Tooltip sticky>{label}</Tooltip>
