@@ -1,6 +1,9 @@
 import type { Api } from './http/api';
 import type { Deps } from './deps';
 import type { SeedContext } from './db/seed-context';
+import type { ComputeTask } from './compute/compute-pool';
+import { verdictAggregateTask } from './modules/compliance/verdict-aggregates';
+import { reportPdfTask } from './modules/reports/report-job';
 import { registerHealthRoutes } from './modules/health/health-routes';
 import { registerAuthRoutes } from './modules/auth/auth-routes';
 import { registerUserRoutes } from './modules/users/users-routes';
@@ -46,6 +49,8 @@ export type ServerModule = {
   routes?: (api: Api, deps: Deps) => void;
   jobs?: Job[];
   seed?: SeedStep;
+  /** Heavy work the compute pool's threads may run for this module (server/compute/compute-pool.ts). */
+  computeTasks?: ComputeTask[];
 };
 
 const DAY_MS = 24 * 3600_000;
@@ -79,9 +84,9 @@ export const SERVER_MODULES: ServerModule[] = [
   { name: 'targets', routes: registerTargetRoutes },
   { name: 'organization', routes: registerOrganizationRoutes },
   // The target library and the sign-off of the earlier walk-through.
-  { name: 'compliance', routes: registerComplianceRoutes, seed: seedCompliance },
+  { name: 'compliance', routes: registerComplianceRoutes, seed: seedCompliance, computeTasks: [verdictAggregateTask] },
   { name: 'workflow', routes: registerWorkflowRoutes },
-  { name: 'reports', routes: registerReportRoutes },
+  { name: 'reports', routes: registerReportRoutes, computeTasks: [reportPdfTask] },
   // The field view: records synced from the phone (typed readings join the survey's readings).
   { name: 'field', routes: registerFieldRoutes },
   // The library's emergency lighting on the ground-floor plan, its night test and logbook.

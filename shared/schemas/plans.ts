@@ -113,6 +113,8 @@ export const surveyMapResponseSchema = z.object({
   withoutPlan: z.number().int(),
   /** Readings of this plan whose position lies beyond the plan's edge (or all of them while it has no scale). */
   outsidePlan: z.number().int(),
+  /** When the plan holds more readings than the map draws: how many it holds (the map shows an even sample of them). */
+  sampledFrom: z.number().int().nullable(),
   /** Why nothing is placed (e.g. the plan has no scale yet). */
   notice: z.string().nullable(),
 });

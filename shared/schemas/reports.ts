@@ -16,3 +16,22 @@ export const sendReportResponseSchema = z.object({
   messageId: z.number().int(),
 });
 export type SendReportResponse = z.infer<typeof sendReportResponseSchema>;
+
+export const reportUnitQuerySchema = z.object({ unit: z.enum(['lx', 'fc']).default('lx') });
+
+/** A PDF being built off the request path: poll until done, then fetch the file. */
+export const reportJobStateSchema = z.object({
+  id: z.string(),
+  surveyId: z.number().int(),
+  status: z.enum(['running', 'done', 'failed']),
+  /** 0 to 1. */
+  progress: z.number().min(0).max(1),
+  filename: z.string(),
+  /** Bytes, once done. */
+  size: z.number().int().nullable(),
+  error: z.string().nullable(),
+});
+export type ReportJobState = z.infer<typeof reportJobStateSchema>;
+
+export const reportJobParamsSchema = z.object({ jobId: z.string().uuid('Give the report job id as a UUID') });
+export const reportJobBodySchema = z.object({ unit: z.enum(['lx', 'fc']).default('lx') });

@@ -27,6 +27,12 @@ export const outboxKeys = {
   list: (filters: { status?: string } = {}) => [...outboxKeys.all, 'list', filters] as const,
 };
 
+/** PDF reports being built on the server (polled until done). */
+export const reportJobKeys = {
+  all: ['report-jobs'] as const,
+  detail: (id: string) => [...reportJobKeys.all, id] as const,
+};
+
 export const auditKeys = {
   all: ['audit'] as const,
   list: (filters: { probeId?: number; surveyId?: number; entityType?: string }) => [...auditKeys.all, 'list', filters] as const,

@@ -123,4 +123,8 @@ export const readings = sqliteTable('readings', {
   tempC: real('temp_c'),
   /** Why this reading is left out of its zone's statistics (a hand exclusion, reading_placements); null: included. */
   excludedReason: text('excluded_reason'),
-}, (t) => [index('readings_decode_idx').on(t.decodeId, t.timeMs), index('readings_survey_idx').on(t.surveyId)]);
+}, (t) => [
+  index('readings_decode_idx').on(t.decodeId, t.timeMs), index('readings_survey_idx').on(t.surveyId),
+  // Field readings of a decode are counted and hashed without scanning the logged ones (reading-counts.ts, verdict-aggregates.ts).
+  index('readings_field_record_idx').on(t.fieldRecordId),
+]);

@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray } from 'drizzle-orm';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { plans, zones } from '../../db/schema/plans';
 import { readings } from '../../db/schema/surveys';
@@ -48,15 +48,13 @@ export function loadCurrentReadings(db: Db, survey: Pick<SurveyRow, 'id' | 'acti
   return db.select(readingColumns).from(readings).where(and(...currentReadingConditions(survey))).orderBy(asc(readings.timeMs), asc(readings.id)).all();
 }
 
-/** Readings by id within one survey (a frozen sign-off names the readings it judged). */
+/** Readings by id within one survey (a frozen sign-off names the readings it judged), in time order. */
 export function loadReadingsById(db: Db, surveyId: number, ids: number[]): JudgeReading[] {
   if (ids.length === 0) return [];
-  const out: JudgeReading[] = [];
-  // SQLite limits bound parameters per statement; fetch in chunks.
-  for (let i = 0; i < ids.length; i += 500) {
-    out.push(...db.select(readingColumns).from(readings).where(and(eq(readings.surveyId, surveyId), inArray(readings.id, ids.slice(i, i + 500)))).all());
-  }
-  return out.sort((a, b) => a.timeMs - b.timeMs || a.id - b.id);
+  // One statement for any number of ids: they travel as one JSON parameter (SQLite's json_each).
+  return db.select(readingColumns).from(readings)
+    .where(and(eq(readings.surveyId, surveyId), sql`${readings.id} in (select value from json_each(${JSON.stringify(ids)}))`))
+    .orderBy(asc(readings.timeMs), asc(readings.id)).all();
 }
 
 export type UsedCoefficientSet = {
@@ -67,10 +65,9 @@ export type UsedCoefficientSet = {
   analog?: { rangeLowLux: number; rangeHighLux: number; scale: 'linear' | 'log10'; accuracyPercent: number };
 };
 
-/** The coefficient sets (and their probes) the given readings were decoded with. */
-export function loadUsedCoefficientSets(db: Db, readingsUsed: JudgeReading[]): UsedCoefficientSet[] {
-  const counts = new Map<number, number>();
-  for (const r of readingsUsed) if (r.coefficientSetId !== null) counts.set(r.coefficientSetId, (counts.get(r.coefficientSetId) ?? 0) + 1);
+/** The coefficient sets (and their probes) of the given [set id, readings] counts. */
+export function loadUsedCoefficientSets(db: Db, readingsPerSet: [number, number][]): UsedCoefficientSet[] {
+  const counts = new Map(readingsPerSet);
   if (counts.size === 0) return [];
   return db.select({ set: coefficientSets, probe: probes }).from(coefficientSets).innerJoin(probes, eq(probes.id, coefficientSets.probeId))
     .where(inArray(coefficientSets.id, [...counts.keys()])).orderBy(asc(probes.serial), asc(coefficientSets.version)).all()

@@ -12,18 +12,26 @@ import type { TargetEntry } from '@shared/schemas/targets';
 import { surveyAbilities } from '@shared/survey-abilities';
 import { notFound } from '../../http/errors';
 import { getSurveyRow, installationOf, type SurveyRow } from '../surveys/surveys-service';
-import { installationSummary, maintenanceStatus, type Installation } from '@shared/core/maintained';
+import { installationSummary, maintenanceStatus } from '@shared/core/maintained';
 import type { InstallationInfo } from '@shared/schemas/surveys';
 import { siteConditions } from '../sites/sites-service';
 import { decisionRuleOf } from '../organization/organization-service';
 import { getVisibleTarget, presentTarget } from '../targets/targets-service';
-import { judgeZones, worstFirst, type JudgedZone, type JudgeReading, type JudgeResult } from './judge-zones';
-import { conditionNotes, photosOfZone } from '../field/field-service';
-import { loadCurrentReadings, loadPlacementsOnPlannedPoints, loadPlannedGrids, loadReadingsById, loadSitePlans, loadUsedCoefficientSets, placementKey, type UsedCoefficientSet } from './compliance-repository';
+import type { JudgedZone } from './judge-zones';
+import { loadReadingsById, loadUsedCoefficientSets, type UsedCoefficientSet } from './compliance-repository';
+import { aggregateZoneMembers, coreInstallation, currentAggregate, type StoredZone, type ZoneMembers } from './verdict-aggregates';
+import { photosOfZone } from '../field/field-service';
 
-/** What a sign-off keeps in surveys.frozen: later target, rule or calibration changes never alter it. */
+export { coreInstallation };
+
+/**
+ * What a sign-off keeps in surveys.frozen: later target, rule or calibration changes never alter it.
+ * Version 1 kept each zone's reading ids inline; version 2 keeps them in the aggregate it froze
+ * (verdict_aggregate_zones, named by aggregateId), so the survey row stays small.
+ */
 export type FrozenCompliance = {
-  version: 1;
+  version: 1 | 2;
+  aggregateId?: number;
   frozenAt: number;
   rule: AcceptanceRule;
   ruleText: string;
@@ -32,65 +40,27 @@ export type FrozenCompliance = {
   hasDaylightReference: boolean;
   unassignedPoints: number;
   warnings: string[];
-  zones: JudgedZone[];
+  zones: FrozenZone[];
   targets: TargetEntry[];
   coefficientSets: UsedCoefficientSet[];
   /** New or in service (absent in sign-offs frozen before it was kept: in service). */
   installation?: InstallationInfo;
 };
 
+export type FrozenZone = StoredZone & Partial<Pick<JudgedZone, 'readingIds' | 'wallBandReadingIds' | 'otherPlaneReadingIds' | 'pointDf'>>;
+
 const IN_SERVICE: InstallationInfo = { state: 'in_service', maintenanceFactor: null, parts: null };
 
-/** The core's Installation from the stored or frozen one. */
-export function coreInstallation(info: InstallationInfo): Installation {
-  return info.state === 'new' && info.maintenanceFactor !== null ? { state: 'new', maintenanceFactor: info.maintenanceFactor, parts: info.parts } : { state: 'in_service' };
-}
 
-/** The verdicts as they stand now, from the current readings, zones, targets and the organisation's rule. */
-export function liveCompliance(db: Db, organizationId: number, survey: SurveyRow, rule: AcceptanceRule = decisionRuleOf(db, organizationId)) {
-  const plans = loadSitePlans(db, organizationId, survey.siteId);
-  const allReadings = loadCurrentReadings(db, survey);
-  // Each task reading is judged on the plan its log named (readings.planId); reference readings pair with every plan.
-  const byPlan = new Map<number, JudgeReading[]>(plans.map((p) => [p.planId, []]));
-  let withoutPlan = 0;
-  for (const r of allReadings) {
-    if (r.role !== 'task') continue;
-    const list = r.planId === null ? undefined : byPlan.get(r.planId);
-    if (list) list.push(r);
-    else if (r.xM !== null && plans.length > 0) withoutPlan++;
-  }
-  const reference = allReadings.filter((r) => r.role === 'reference');
-  const daylightExcluded = survey.conditions?.daylightExcluded ?? false;
-  const installation = coreInstallation(installationOf(survey));
-  const plannedGrids = loadPlannedGrids(db, survey.id);
-  const onPlanned = loadPlacementsOnPlannedPoints(db, survey.id);
-  if (onPlanned.size > 0) for (const r of allReadings) r.plannedPointId = onPlanned.get(placementKey(r.point, r.probeId, r.timeMs)) ?? null;
-  const perPlan = plans.map((p) => judgeZones({ zones: p.zones, readings: [...byPlan.get(p.planId)!, ...reference], rule, daylightExcluded, installation, gridRounding: survey.gridRounding, plannedGrids: plannedGrids.workingPlane, plannedSurfacePoints: plannedGrids.surfacePoints }));
-  const unplaced = plans.length === 0 ? allReadings.filter((r) => r.role === 'task').length : withoutPlan;
-  const result: JudgeResult = {
-    zones: worstFirst(perPlan.flatMap((r) => r.zones)),
-    unassignedPoints: perPlan.reduce((n, r) => n + r.unassignedPoints, unplaced),
-    hasDaylightReference: reference.some((r) => r.lux !== null),
-    warnings: [...new Set(perPlan.flatMap((r) => r.warnings))],
-  };
-  result.warnings.push(...conditionNotes(db, survey, allReadings));
-  if (withoutPlan > 0) {
-    result.warnings.unshift(`${withoutPlan} task reading(s) have a position but no plan (the log named none and this site has ${plans.length} plans), so they could not be placed in any zone: give logs a plan column, or choose the plan when uploading.`);
-  }
-  if (plans.length === 0) result.warnings.unshift('This site has no plan with zones yet: draw zones to get verdicts.');
-  if (survey.activeDecodeId === null) result.warnings.unshift('This survey has no decoded readings yet.');
-  return { rule, result, readings: allReadings };
-}
-
-/** Builds the snapshot a sign-off freezes. */
-export function buildFrozen(db: Db, organizationId: number, survey: SurveyRow, at: number): FrozenCompliance {
-  const { rule, result, readings } = liveCompliance(db, organizationId, survey);
-  const targetIds = [...new Set(result.zones.map((z) => z.targetId).filter((id): id is number => id !== null))];
-  const targets = targetIds.map((id) => getVisibleTarget(db, organizationId, id)).filter((t) => t !== undefined).map(presentTarget);
+/** Builds the snapshot a sign-off freezes, from the survey's current aggregate (freeze that aggregate in the same transaction). */
+export async function buildFrozen(db: Db, organizationId: number, survey: SurveyRow, at: number): Promise<FrozenCompliance> {
+  const { id, summary } = await currentAggregate(db, survey, at);
+  const targetIds = [...new Set(summary.zones.map((z) => z.targetId).filter((t): t is number => t !== null))];
+  const targets = targetIds.map((t) => getVisibleTarget(db, organizationId, t)).filter((t) => t !== undefined).map(presentTarget);
   return {
-    version: 1, frozenAt: at, rule, ruleText: RULE_TEXT[rule], gridRule: gridRuleText(survey.gridRounding), decodeId: survey.activeDecodeId,
-    hasDaylightReference: result.hasDaylightReference, unassignedPoints: result.unassignedPoints, warnings: result.warnings,
-    zones: result.zones, targets, coefficientSets: loadUsedCoefficientSets(db, readings), installation: installationOf(survey),
+    version: 2, frozenAt: at, rule: summary.rule, ruleText: RULE_TEXT[summary.rule], gridRule: gridRuleText(survey.gridRounding), decodeId: survey.activeDecodeId, aggregateId: id,
+    hasDaylightReference: summary.hasDaylightReference, unassignedPoints: summary.unassignedPoints, warnings: summary.warnings,
+    zones: summary.zones, targets, coefficientSets: loadUsedCoefficientSets(db, summary.coefficientSetReadings), installation: installationOf(survey),
   };
 }
 
@@ -117,29 +87,41 @@ const siteOf = (db: Db, siteId: number) => db.select({ name: sites.name, timeZon
 const userNameOf = (db: Db, id: number | null) => (id === null ? null : db.select({ name: users.name }).from(users).where(eq(users.id, id)).get()?.name ?? null);
 const isoOrNull = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
 
-const strip = ({ polygon: _p, readingIds: _r, wallBandReadingIds: _w, otherPlaneReadingIds: _o, pointDf: _d, ...zone }: JudgedZone): ZoneCompliance => zone;
+const strip = ({ polygon: _p, readingIds: _r, wallBandReadingIds: _w, otherPlaneReadingIds: _o, pointDf: _d, ...zone }: FrozenZone): ZoneCompliance => zone;
 
-/** The verdicts and judged zones of a survey: frozen if signed off, else live. */
-export function surveyVerdicts(db: Db, survey: SurveyRow) {
+export type SurveyVerdicts = {
+  rule: AcceptanceRule; zones: FrozenZone[]; unassignedPoints: number; hasDaylightReference: boolean; warnings: string[]; installation: InstallationInfo;
+  frozen: FrozenCompliance | null; aggregateId: number | null; coefficientSetReadings: [number, number][] | null;
+};
+
+/** The verdicts and judged zones of a survey: frozen if signed off, else from its current aggregate. */
+export async function surveyVerdicts(db: Db, survey: SurveyRow): Promise<SurveyVerdicts> {
   const frozen = frozenOf(survey);
   if (frozen) {
     return {
       rule: frozen.rule, zones: frozen.zones, unassignedPoints: frozen.unassignedPoints, hasDaylightReference: frozen.hasDaylightReference, warnings: frozen.warnings,
-      installation: frozen.installation ?? IN_SERVICE, frozen,
+      installation: frozen.installation ?? IN_SERVICE, frozen, aggregateId: frozen.aggregateId ?? null, coefficientSetReadings: null,
     };
   }
-  const { rule, result } = liveCompliance(db, survey.organizationId, survey);
+  const { id, summary } = await currentAggregate(db, survey);
   return {
-    rule, zones: result.zones, unassignedPoints: result.unassignedPoints, hasDaylightReference: result.hasDaylightReference, warnings: result.warnings,
-    installation: installationOf(survey), frozen: null,
+    rule: summary.rule, zones: summary.zones, unassignedPoints: summary.unassignedPoints, hasDaylightReference: summary.hasDaylightReference, warnings: summary.warnings,
+    installation: installationOf(survey), frozen: null, aggregateId: id, coefficientSetReadings: summary.coefficientSetReadings,
   };
 }
 
 /** A survey's compliance answer without the caller's abilities (reports and e-mails have no caller). */
 export type SurveyCompliance = Omit<ComplianceResponse, 'abilities'>;
 
+/** The readings a judged zone used (inline in sign-offs frozen before version 2, else in its aggregate). */
+export function zoneMembers(db: Db, v: Pick<SurveyVerdicts, 'aggregateId'>, zone: FrozenZone): ZoneMembers {
+  if (zone.readingIds) return { readingIds: zone.readingIds, wallBandReadingIds: zone.wallBandReadingIds ?? [], otherPlaneReadingIds: zone.otherPlaneReadingIds ?? [], pointDf: zone.pointDf ?? {} };
+  return v.aggregateId === null ? { readingIds: [], wallBandReadingIds: [], otherPlaneReadingIds: [], pointDf: {} } : aggregateZoneMembers(db, v.aggregateId, zone.zoneId);
+}
+
 /** The compliance answer, from verdicts the caller may already hold (so a survey is judged once). */
-export function complianceOf(db: Db, survey: SurveyRow, v: ReturnType<typeof surveyVerdicts> = surveyVerdicts(db, survey)): SurveyCompliance {
+export async function complianceOf(db: Db, survey: SurveyRow, verdicts?: SurveyVerdicts): Promise<SurveyCompliance> {
+  const v = verdicts ?? await surveyVerdicts(db, survey);
   const prev = previousSignedOff(db, survey);
   const prevZones = prev ? frozenOf(prev)?.zones ?? [] : [];
   const zones = v.zones.map((z) => {
@@ -170,21 +152,22 @@ export function complianceOf(db: Db, survey: SurveyRow, v: ReturnType<typeof sur
   };
 }
 
-export function getCompliance(db: Db, user: SessionUser, surveyId: number): ComplianceResponse {
+export async function getCompliance(db: Db, user: SessionUser, surveyId: number): Promise<ComplianceResponse> {
   const survey = getSurveyRow(db, user, surveyId);
-  return { ...complianceOf(db, survey), abilities: surveyAbilities(user, survey) };
+  return { ...await complianceOf(db, survey), abilities: surveyAbilities(user, survey) };
 }
 
 /** One zone with its points (wall-band points shown, marked), statistics, target and source. */
-export function getZoneDetail(db: Db, user: SessionUser, surveyId: number, zoneId: number): ZoneDetailResponse {
+export async function getZoneDetail(db: Db, user: SessionUser, surveyId: number, zoneId: number): Promise<ZoneDetailResponse> {
   const survey = getSurveyRow(db, user, surveyId);
-  const verdicts = surveyVerdicts(db, survey);
-  const compliance = complianceOf(db, survey, verdicts);
+  const verdicts = await surveyVerdicts(db, survey);
+  const compliance = await complianceOf(db, survey, verdicts);
   const zone = compliance.zones.find((z) => z.zoneId === zoneId);
   const judged = verdicts.zones.find((z) => z.zoneId === zoneId);
   if (!zone || !judged) throw notFound('Zone of this survey');
-  const wallBand = new Set(judged.wallBandReadingIds);
-  const pointReadings = loadReadingsById(db, survey.id, [...judged.readingIds, ...judged.wallBandReadingIds, ...(judged.otherPlaneReadingIds ?? [])]);
+  const members = zoneMembers(db, verdicts, judged);
+  const wallBand = new Set(members.wallBandReadingIds);
+  const pointReadings = loadReadingsById(db, survey.id, members.readingIds.concat(members.wallBandReadingIds, members.otherPlaneReadingIds));
   const photos = photosOfZone(db, survey.id, zoneId, pointReadings.map((r) => r.point));
   return {
     surveyId: survey.id, rule: compliance.rule, ruleText: compliance.ruleText, gridRule: compliance.gridRule, frozen: compliance.frozen,
@@ -192,30 +175,31 @@ export function getZoneDetail(db: Db, user: SessionUser, surveyId: number, zoneI
     points: pointReadings.filter((r) => r.xM !== null && r.yM !== null).map((r) => ({
       readingId: r.id, point: r.point, xM: r.xM as number, yM: r.yM as number, timestamp: new Date(r.timeMs).toISOString(),
       lux: r.lux, uLux: r.uLux, luxBound: r.luxBound, flag: r.flag, inWallBand: wallBand.has(r.id), plane: r.plane ?? 'horizontal', azimuthDeg: r.azimuthDeg ?? null,
-      ...(judged.pointDf?.[r.id] !== undefined ? { dfPercent: judged.pointDf[r.id] } : {}),
+      ...(members.pointDf[r.id] !== undefined ? { dfPercent: members.pointDf[r.id] } : {}),
     })),
     photos, siteTimeZone: survey.site.timeZone,
   };
 }
 
 /** Each site the caller may see with its latest survey and that survey's verdict counts. */
-export function sitesOverview(db: Db, user: SessionUser): SitesOverviewResponse {
+export async function sitesOverview(db: Db, user: SessionUser): Promise<SitesOverviewResponse> {
   const siteRows = db.select().from(sites).where(and(...siteConditions(db, user))).orderBy(sites.name).all();
   const orgRule = decisionRuleOf(db, user.organizationId);
-  const items = siteRows.map((site) => {
+  const items = [];
+  for (const site of siteRows) {
     // The latest survey with readings: a fresh empty draft says nothing about the rooms yet.
     // Emergency-lighting surveys are judged on their own page, not against the rooms' targets.
     const latest = db.select().from(surveys)
       .where(and(eq(surveys.siteId, site.id), sql`not exists (select 1 from ${emergencySurveys} where ${emergencySurveys.surveyId} = ${surveys.id})`))
       .orderBy(desc(sql`${surveys.activeDecodeId} is not null`), desc(sql`coalesce(${surveys.startedOn}, '')`), desc(surveys.createdAt), desc(surveys.id)).get();
-    if (!latest) return { siteId: site.id, name: site.name, address: site.address, latestSurvey: null, counts: null, rule: null };
-    const v = surveyVerdicts(db, latest);
-    return {
+    if (!latest) { items.push({ siteId: site.id, name: site.name, address: site.address, latestSurvey: null, counts: null, rule: null }); continue; }
+    const v = await surveyVerdicts(db, latest);
+    items.push({
       siteId: site.id, name: site.name, address: site.address,
       latestSurvey: { id: latest.id, name: latest.name, status: latest.status, startedOn: latest.startedOn },
       counts: countVerdicts(v.zones), rule: v.rule,
-    };
-  });
+    });
+  }
   return { items, rule: orgRule, ruleText: RULE_TEXT[orgRule] };
 }
 
@@ -231,7 +215,7 @@ export function maintenanceOverview(db: Db, user: SessionUser): MaintenanceRespo
   const items: MaintenanceZone[] = [];
   for (const site of siteRows) {
     const signed = db.select().from(surveys).where(and(eq(surveys.siteId, site.id), eq(surveys.status, 'signed_off'))).all();
-    const byZone = new Map<number, { zone: JudgedZone; survey: SurveyRow; timeMs: number; installation: InstallationInfo }[]>();
+    const byZone = new Map<number, { zone: FrozenZone; survey: SurveyRow; timeMs: number; installation: InstallationInfo }[]>();
     for (const s of signed) {
       const frozen = frozenOf(s);
       if (!frozen) continue;

@@ -282,7 +282,7 @@ export function judgeZones(input: {
       reasons.splice(0, 0, ...v.reasons, ...designReasons);
     }
     if (!grid.adequate && stats.validPoints > 0) reasons.push(`${stats.validPoints} of ${grid.required} points the grid asks for (${grid.basis === 'rule' ? ruleText : 'the justified planned grid'}).`);
-    reasons.push(...stats.reasons);
+    for (const r of stats.reasons) reasons.push(r);
     // First among the reasons: the verdict above describes the sky, not the luminaires.
     if (outdoor && z.target && stats.eavg !== null && stats.eavg >= DAYLIGHT_SWAMP_RATIO * z.target.emLux) {
       reasons.unshift(`Measured in daylight: the average is at least ${DAYLIGHT_SWAMP_RATIO} times the ${z.target.emLux} lx target, so it shows the sky, not the electric lighting. Measure again after dark to judge the lighting.`);

@@ -13,6 +13,7 @@ import { boundImportRecord, type ImportProblem, type ImportWarning } from './imp
 import { createBatchWriter } from './batch-writer.mjs';
 import { placeBurstsOnMarks, type MarkMatchingOptions } from '../field/mark-placement';
 import { DEFAULT_MATCH_WINDOW_MS } from '@shared/core/mark-matching';
+import { keepReadingCount } from '../surveys/reading-counts';
 
 export type ImportJob = {
   importId: number;
@@ -210,6 +211,7 @@ async function runImport(deps: Deps, job: ImportJob): Promise<ImportOutcome> {
   deps.db.transaction((tx) => {
     tx.update(logImports).set({ status: 'done', progress: 1, rowsRead: end.rowsRead, readingCount: end.readingCount, placement: end.placement, warnings, errors: [], finishedAt: now })
       .where(eq(logImports.id, job.importId)).run();
+    keepReadingCount(tx, decodeId, job.importId, end.readingCount);
     recordAudit(tx, {
       organizationId: job.organizationId, actorId: job.actorId, entityType: 'log_import', entityId: job.importId, surveyId: job.surveyId, action: 'imported',
       after: { rows: end.rowsRead, readings: end.readingCount, decodeId, placement: end.placement, warnings: end.warningCount }, at: now,

@@ -16,6 +16,7 @@ import { createBatchBuilder } from './batch-format.mjs';
 import { createBatchWriter } from './batch-writer.mjs';
 import { applyPlacements } from '../placements/placements-service';
 import { carryFieldReadings } from '../field/field-service';
+import { keepReadingCount } from '../surveys/reading-counts';
 
 /**
  * Re-decodes every kept sample of a survey's accepted imports with the approved coefficient sets
@@ -37,8 +38,10 @@ export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: n
     const calibration = loadDecodingCalibration(deps.db, actor.organizationId);
     const serialOf = new Map([...calibration.values()].map((c) => [c.probeId, c.serial]));
     let count = 0;
+    const perImport = new Map<number, number>();
     const problems: SampleProblem[] = [];
     for (const imp of imports) {
+      const before = count;
       // The import's own writer: the same readings insert the import used, under the new decode.
       const write = createBatchWriter(deps.db.$client, { importId: imp.id, surveyId: survey.id, decodeId: decode.id });
       const batch = createBatchBuilder();
@@ -61,6 +64,7 @@ export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: n
       }
       decoder.finish();
       flush();
+      perImport.set(imp.id, count - before);
     }
     if (problems.length > 0) {
       throw unprocessable(`The current coefficient sets cannot decode this survey's samples (first: line ${problems[0].line}, ${problems[0].column}: ${problems[0].message}); nothing was changed`, problems);
@@ -73,6 +77,7 @@ export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: n
       // Hand placements and exclusions are kept by point label, probe and time: the new decode's readings get them again.
       applyPlacements(tx, survey.id, decode.id);
       tx.update(surveys).set({ activeDecodeId: decode.id }).where(eq(surveys.id, survey.id)).run();
+      for (const [importId, n] of perImport) keepReadingCount(tx, decode.id, importId, n);
       recordAudit(tx, {
         organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'redecoded',
         before: { decodeId: survey.activeDecodeId }, after: { decodeId: decode.id, readings: count, calibrationLapsed: lapsed }, at: now,

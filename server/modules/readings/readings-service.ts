@@ -1,7 +1,7 @@
 import type { Response } from 'express';
 import { and, asc, desc, eq, sql, type SQL } from 'drizzle-orm';
 import type { Deps } from '../../deps';
-import { readings } from '../../db/schema/surveys';
+import { readings, surveys } from '../../db/schema/surveys';
 import { coefficientSets, probes } from '../../db/schema/calibration';
 import { plans } from '../../db/schema/plans';
 import type { SessionUser } from '@shared/schemas/auth';
@@ -11,6 +11,7 @@ import { toSafeCsvRows } from '@shared/csv-safe';
 import { readingCells, readingColumns, type ExportReading } from '@shared/export-columns';
 import { currentReadingConditions, getSurveyRow } from '../surveys/surveys-service';
 import { decodeBudget } from './stored-budget.mjs';
+import { currentReadingCount } from '../surveys/reading-counts';
 
 const columns = {
   id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, planId: readings.planId, role: readings.role, timeMs: readings.timeMs, probe: probes.serial,
@@ -50,7 +51,10 @@ export function listReadings(db: Deps['db'], user: SessionUser, surveyId: number
   const survey = getSurveyRow(db, user, surveyId);
   if (survey.activeDecodeId === null) return { items: [], total: 0 };
   const where = and(...filters(survey, q));
-  const total = db.select({ n: sql<number>`count(*)` }).from(readings).where(where).get()!.n;
+  // Unfiltered, the total is the kept count (reading-counts.ts) rather than a count over every reading.
+  const total = !q.flag && !q.point
+    ? db.select({ n: currentReadingCount }).from(surveys).where(eq(surveys.id, survey.id)).get()!.n
+    : db.select({ n: sql<number>`count(*)` }).from(readings).where(where).get()!.n;
   const dir = q.order === 'desc' ? desc : asc;
   const rows = db.select(columns).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).where(where)
     .orderBy(dir(SORT_COLUMN[q.sort]), dir(readings.timeMs), asc(readings.id)).limit(q.limit).offset(q.offset).all();

@@ -3,9 +3,9 @@ import type { Db } from '../../db/client';
 import { organizations, users } from '../../db/schema/organizations';
 import { sites } from '../../db/schema/sites';
 import type { SurveyRow } from '../surveys/surveys-service';
-import { complianceOf, surveyVerdicts, type SurveyCompliance } from '../compliance/compliance-service';
-import { loadCurrentReadings, loadReadingsById, loadUsedCoefficientSets, type UsedCoefficientSet } from '../compliance/compliance-repository';
-import type { JudgedZone, JudgeReading } from '../compliance/judge-zones';
+import { complianceOf, surveyVerdicts, zoneMembers, type FrozenZone, type SurveyCompliance } from '../compliance/compliance-service';
+import { loadReadingsById, loadUsedCoefficientSets, type UsedCoefficientSet } from '../compliance/compliance-repository';
+import type { JudgeReading } from '../compliance/judge-zones';
 import type { ReportPhoto } from '../field/field-photos';
 import type { FieldSession } from '@shared/schemas/field';
 
@@ -17,7 +17,7 @@ export type ReportData = {
   signedOffByName: string | null;
   compliance: SurveyCompliance;
   /** Judged zones in the summary's order, with their outlines and the readings they used. */
-  zones: (JudgedZone & { readings: JudgeReading[]; wallBandReadings: JudgeReading[] })[];
+  zones: (FrozenZone & { readings: JudgeReading[]; wallBandReadings: JudgeReading[] })[];
   coefficientSets: UsedCoefficientSet[];
   generatedAt: number;
   /** Photos taken in the field (the appendix), with the stored file to embed; absent: none. */
@@ -28,18 +28,19 @@ export type ReportData = {
 
 const nameOf = (db: Db, id: number | null) => (id === null ? null : db.select({ name: users.name }).from(users).where(eq(users.id, id)).get()?.name ?? null);
 
-/** Everything the PDF and CSV exports show, from the frozen sign-off when there is one. */
-export function loadReportData(db: Db, survey: SurveyRow, now: number): ReportData {
+/** Everything the PDF shows, from the frozen sign-off when there is one (runs on a compute thread). */
+export async function loadReportData(db: Db, survey: SurveyRow, now: number): Promise<ReportData> {
   const site = db.select().from(sites).where(eq(sites.id, survey.siteId)).get()!;
   const org = db.select().from(organizations).where(eq(organizations.id, survey.organizationId)).get()!;
-  const verdicts = surveyVerdicts(db, survey);
-  const compliance = complianceOf(db, survey, verdicts);
+  const verdicts = await surveyVerdicts(db, survey);
+  const compliance = await complianceOf(db, survey, verdicts);
   const byId = new Map(verdicts.zones.map((z) => [z.zoneId, z]));
   const zones = compliance.zones.map((c) => {
     const z = byId.get(c.zoneId)!;
-    return { ...z, change: c.change, readings: loadReadingsById(db, survey.id, z.readingIds), wallBandReadings: loadReadingsById(db, survey.id, z.wallBandReadingIds) };
+    const members = zoneMembers(db, verdicts, z);
+    return { ...z, change: c.change, readings: loadReadingsById(db, survey.id, members.readingIds), wallBandReadings: loadReadingsById(db, survey.id, members.wallBandReadingIds) };
   });
-  const coefficientSets = verdicts.frozen?.coefficientSets ?? loadUsedCoefficientSets(db, loadCurrentReadings(db, survey));
+  const coefficientSets = verdicts.frozen?.coefficientSets ?? loadUsedCoefficientSets(db, verdicts.coefficientSetReadings ?? []);
   return {
     organizationName: org.name,
     site: { name: site.name, address: site.address, timeZone: site.timeZone },

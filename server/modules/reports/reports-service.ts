@@ -1,53 +1,36 @@
-import { and, asc, eq, type SQL } from 'drizzle-orm';
+import type { Response } from 'express';
+import { setImmediate as yieldToEventLoop } from 'node:timers/promises';
+import { and, asc, eq, sql, type SQL } from 'drizzle-orm';
 import type { Deps } from '../../deps';
 import type { Db } from '../../db/client';
 import { readings } from '../../db/schema/surveys';
 import { coefficientSets, probes } from '../../db/schema/calibration';
 import { plans } from '../../db/schema/plans';
-import { toSafeCsv } from '@shared/csv-safe';
+import { toSafeCsv, toSafeCsvRows } from '@shared/csv-safe';
 import { readingCells, readingColumns, statBoundCell, ZONE_COLUMNS, type ExportUnit } from '@shared/export-columns';
 import { VERDICT_LABELS } from '@shared/schemas/compliance';
 import { labelOfUseType } from '@shared/schemas/zones';
 import type { SessionUser } from '@shared/schemas/auth';
 import type { SendReportBody, SendReportResponse } from '@shared/schemas/reports';
 import { currentReadingConditions, findSurveyInOrganization, getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
-import { reportPhotos } from '../field/field-photos';
-import { conditionNotes, sessionsForReport } from '../field/field-service';
-import { WARM_UP_MS } from '@shared/core/field-conditions';
 import { exportColumns } from '../readings/readings-service';
 import { recordAudit } from '../audit/audit-service';
-import { frozenOf, surveyVerdicts, complianceOf } from '../compliance/compliance-service';
-import { loadReportData } from './report-data';
-import { renderReportPdf, type ReportUnit } from './report-pdf';
+import { frozenOf, surveyVerdicts, complianceOf, zoneMembers } from '../compliance/compliance-service';
+import type { ReportUnit } from './report-pdf';
+import { reportFilename, type FileAnswer } from './report-files';
+import { surveyReportPdf } from './report-job';
 
-export type FileAnswer = { filename: string; contentType: string; content: Buffer };
-
-const slug = (s: string) => s.toLowerCase().normalize('NFKD').replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || 'survey';
-/** Signed off: "signed-2026-12-02" (the UTC day of the sign-off); otherwise "provisional", so the two never share a name. */
-const recordTag = (survey: Partial<Pick<SurveyRow, 'status' | 'signedOffAt'>>) =>
-  survey.status === undefined ? '' : survey.status === 'signed_off' && survey.signedOffAt ? `-signed-${new Date(survey.signedOffAt).toISOString().slice(0, 10)}` : '-provisional';
-/** A record with no sign-off (no status given) gets no tag. */
-export const reportFilename = (survey: Pick<SurveyRow, 'id' | 'name'> & Partial<Pick<SurveyRow, 'status' | 'signedOffAt'>>, ext: string, what = 'report') =>
-  `luxtrail-${what}-${survey.id}-${slug(survey.name)}${recordTag(survey)}.${ext}`;
-
-/** The PDF report of a survey (frozen verdicts once signed off). */
-export async function surveyReportPdf(deps: Deps, survey: SurveyRow, unit: ReportUnit = 'lx'): Promise<FileAnswer> {
-  const data = loadReportData(deps.db, survey, deps.clock.now());
-  const sessions = sessionsForReport(deps.db, survey.id);
-  const judged = data.zones.flatMap((z) => [...z.readings, ...z.wallBandReadings]);
-  const fieldConditions = sessions.length ? { sessions, warmUpMinutes: WARM_UP_MS / 60_000, notes: conditionNotes(deps.db, survey, judged) } : undefined;
-  const content = await renderReportPdf({ ...data, photos: reportPhotos(deps, survey.id), fieldConditions }, unit);
-  return { filename: reportFilename(survey, 'pdf'), contentType: 'application/pdf', content };
-}
+export type { FileAnswer };
+export { reportFilename };
 
 export function reportPdfFor(deps: Deps, user: SessionUser, surveyId: number, unit: ReportUnit) {
   return surveyReportPdf(deps, getSurveyRow(deps.db, user, surveyId), unit);
 }
 
 /** The zone table as CSV, lux throughout, full precision, each statistic's bound in its own column (shared/export-columns). */
-export function zonesCsv(db: Db, user: SessionUser, surveyId: number): FileAnswer {
+export async function zonesCsv(db: Db, user: SessionUser, surveyId: number): Promise<FileAnswer> {
   const survey = getSurveyRow(db, user, surveyId);
-  const c = complianceOf(db, survey);
+  const c = await complianceOf(db, survey);
   // One row per zone (check "task_plane"), then one per further check of it (walls, ceiling, cylindrical, the areas around a task).
   const mf = c.installation.maintenanceFactor;
   const rows = c.zones.flatMap((z) => [[
@@ -68,23 +51,47 @@ export function zonesCsv(db: Db, user: SessionUser, surveyId: number): FileAnswe
   return { filename: reportFilename(survey, 'csv', 'zones'), contentType: 'text/csv; charset=utf-8', content: Buffer.from(toSafeCsv(ZONE_COLUMNS, rows), 'utf8') };
 }
 
-/** Every reading the verdicts used (the frozen decode once signed off), with its zone, in the export vocabulary (shared/export-columns). */
-export function readingsCsv(db: Db, user: SessionUser, surveyId: number, unit: ExportUnit = 'lx'): FileAnswer {
+const CSV_PAGE = 5000;
+
+/**
+ * Every reading the verdicts used (the frozen decode once signed off) with its zone, in the export
+ * vocabulary (shared/export-columns), streamed a page at a time (keyset on time and id) and
+ * yielding between pages, so a survey of any size never holds the event loop or the whole file.
+ */
+export async function streamReadingsCsv(db: Db, user: SessionUser, surveyId: number, unit: ExportUnit, res: Response): Promise<void> {
   const survey = getSurveyRow(db, user, surveyId);
-  const v = surveyVerdicts(db, survey);
+  const v = await surveyVerdicts(db, survey);
   const frozen = frozenOf(survey);
   const where: SQL[] | null = frozen
     ? frozen.decodeId === null ? null : [eq(readings.surveyId, survey.id), eq(readings.decodeId, frozen.decodeId)]
     : survey.activeDecodeId === null ? null : currentReadingConditions(survey);
-  const rows = where === null ? [] : db.select(exportColumns).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).leftJoin(plans, eq(plans.id, readings.planId))
-    .leftJoin(coefficientSets, eq(coefficientSets.id, readings.coefficientSetId)).where(and(...where)).orderBy(asc(readings.timeMs), asc(readings.id)).all();
   const zoneOf = new Map<number, { zone: string; inWallBand: boolean }>();
   for (const z of v.zones) {
-    for (const id of z.readingIds) zoneOf.set(id, { zone: z.name, inWallBand: false });
-    for (const id of z.wallBandReadingIds) zoneOf.set(id, { zone: z.name, inWallBand: true });
+    const members = zoneMembers(db, v, z);
+    const inside = { zone: z.name, inWallBand: false };
+    const band = { zone: z.name, inWallBand: true };
+    for (const id of members.readingIds) zoneOf.set(id, inside);
+    for (const id of members.wallBandReadingIds) zoneOf.set(id, band);
+    await yieldToEventLoop();
   }
-  const data = rows.map((r) => readingCells(r, unit, zoneOf.get(r.id) ?? { zone: null, inWallBand: null }));
-  return { filename: reportFilename(survey, 'csv', `readings-${unit}`), contentType: 'text/csv; charset=utf-8', content: Buffer.from(toSafeCsv(readingColumns(unit, true), data), 'utf8') };
+  res.setHeader('Content-Type', 'text/csv; charset=utf-8');
+  res.setHeader('Content-Disposition', `attachment; filename="${reportFilename(survey, 'csv', `readings-${unit}`)}"`);
+  res.setHeader('Cache-Control', 'private, no-store');
+  res.write(`${toSafeCsvRows([readingColumns(unit, true)])}\r\n`);
+  let after = { t: Number.MIN_SAFE_INTEGER, id: 0 };
+  while (where !== null) {
+    const rows = db.select(exportColumns).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).leftJoin(plans, eq(plans.id, readings.planId))
+      .leftJoin(coefficientSets, eq(coefficientSets.id, readings.coefficientSetId))
+      .where(and(...where, sql`(${readings.timeMs} > ${after.t} or (${readings.timeMs} = ${after.t} and ${readings.id} > ${after.id}))`))
+      .orderBy(asc(readings.timeMs), asc(readings.id)).limit(CSV_PAGE).all();
+    if (rows.length === 0) break;
+    const chunk = toSafeCsvRows(rows.map((r) => readingCells(r, unit, zoneOf.get(r.id) ?? { zone: null, inWallBand: null })));
+    if (!res.write(`${chunk}\r\n`)) await new Promise((resolve) => res.once('drain', resolve));
+    const last = rows[rows.length - 1];
+    after = { t: last.timeMs, id: last.id };
+    await yieldToEventLoop();
+  }
+  res.end();
 }
 
 /** The attachment kind a queued message names to have the report PDF built at delivery. */

@@ -1,4 +1,4 @@
-import { and, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
+import { and, desc, eq, getTableColumns, inArray, sql, type SQL } from 'drizzle-orm';
 import type { Deps } from '../../deps';
 import { decodes, logImports, readings, surveys } from '../../db/schema/surveys';
 import { sites } from '../../db/schema/sites';
@@ -14,6 +14,7 @@ import { notFound, refused } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
 import { getSiteRow, siteConditions } from '../sites/sites-service';
 import { getOrganization } from '../organization/organization-service';
+import { currentReadingCount } from './reading-counts';
 
 export type SurveyRow = typeof surveys.$inferSelect;
 type SiteRow = typeof sites.$inferSelect;
@@ -52,9 +53,9 @@ export function currentReadingConditions(survey: Pick<SurveyRow, 'id' | 'activeD
   ];
 }
 
-function readingCount(db: Deps['db'], survey: Pick<SurveyRow, 'id' | 'activeDecodeId'>): number {
-  if (survey.activeDecodeId === null) return 0;
-  return db.select({ n: sql<number>`count(*)` }).from(readings).where(and(...currentReadingConditions(survey))).get()!.n;
+/** A survey's current readings, from the kept counts (reading-counts.ts). */
+function readingCount(db: Deps['db'], survey: Pick<SurveyRow, 'id'>): number {
+  return db.select({ n: currentReadingCount }).from(surveys).where(eq(surveys.id, survey.id)).get()!.n;
 }
 
 /** The survey's installation as the core's Installation and as answered (a new one always carries its MF). */
@@ -89,7 +90,7 @@ export function setInstallation(deps: Deps, actor: SessionUser, surveyId: number
   return present(updated, row.site, readingCount(deps.db, updated));
 }
 
-function present(row: SurveyRow, site: SiteRow, count: number): Survey {
+function present(row: Omit<SurveyRow, 'frozen'>, site: SiteRow, count: number): Survey {
   return {
     installation: installationOf(row),
     id: row.id, siteId: row.siteId, siteName: site.name, siteTimeZone: site.timeZone, name: row.name, startedOn: row.startedOn,
@@ -105,9 +106,11 @@ export function listSurveys(db: Deps['db'], user: SessionUser, filter: { siteId?
   const where = siteConditions(db, user);
   if (filter.siteId) where.push(eq(surveys.siteId, filter.siteId));
   if (filter.status) where.push(eq(surveys.status, filter.status));
-  const rows = db.select({ survey: surveys, site: sites }).from(surveys).innerJoin(sites, eq(sites.id, surveys.siteId))
+  // One query; the reading counts come from the kept counts (reading-counts.ts), and the frozen snapshot is not read.
+  const { frozen: _frozen, ...listed } = getTableColumns(surveys);
+  const rows = db.select({ survey: listed, site: sites, readingCount: currentReadingCount }).from(surveys).innerJoin(sites, eq(sites.id, surveys.siteId))
     .where(and(...where)).orderBy(desc(NEWEST_FIRST), desc(surveys.createdAt), desc(surveys.id)).all();
-  return rows.map((r) => present(r.survey, r.site, readingCount(db, r.survey)));
+  return rows.map((r) => present(r.survey, r.site, r.readingCount));
 }
 
 export function getSurvey(db: Deps['db'], user: SessionUser, surveyId: number): SurveyDetail {

@@ -14,6 +14,7 @@ import { buildFrozen, countVerdicts } from '../compliance/compliance-service';
 import { reportAttachment } from '../reports/reports-service';
 import { freezeEmergency } from '../emergency/emergency-surveys-service';
 import { emergencyReportAttachment, reportLogbook } from '../emergency/emergency-report';
+import { freezeAggregate } from '../compliance/verdict-aggregates';
 import { absoluteUrl, paths } from '@shared/paths';
 
 function userById(db: Db, id: number | null) {
@@ -75,13 +76,14 @@ export function submitSurvey(deps: Deps, actor: SessionUser, surveyId: number, b
  * transaction. The PDF is built from the frozen record when the mail is delivered, so it shows
  * exactly what was signed off and the request waits for neither the PDF nor the mail server.
  */
-export function signOffSurvey(deps: Deps, actor: SessionUser, surveyId: number, body: SignOffBody): WorkflowState {
+export async function signOffSurvey(deps: Deps, actor: SessionUser, surveyId: number, body: SignOffBody): Promise<WorkflowState> {
   const survey = getSurveyRow(deps.db, actor, surveyId);
   assertSurveyAbility(actor, survey, 'signOff');
   const now = deps.clock.now();
+  // Judged off the request's thread (verdict-aggregates.ts); the sign-off then freezes that aggregate.
   // An emergency survey's verdicts and logbook are frozen in the same snapshot (emergency-surveys-service).
   const emergency = freezeEmergency(deps.db, actor, survey, (siteId) => reportLogbook(deps, actor, siteId));
-  const frozen = { ...buildFrozen(deps.db, actor.organizationId, survey, now), ...(emergency ? { emergency } : {}) };
+  const frozen = { ...await buildFrozen(deps.db, actor.organizationId, survey, now), ...(emergency ? { emergency } : {}) };
   const surveyor = surveyorOf(deps.db, survey);
   const to = [...new Set([surveyor?.email, actor.email].filter((e): e is string => !!e))];
   const counts = countVerdicts(frozen.zones);
@@ -89,6 +91,8 @@ export function signOffSurvey(deps: Deps, actor: SessionUser, surveyId: number, 
     const changed = tx.update(surveys).set({ status: 'signed_off', signedOffBy: actor.id, signedOffAt: now, reviewComment: body.comment ?? null, frozen })
       .where(and(eq(surveys.id, survey.id), eq(surveys.status, 'submitted'))).run();
     if (changed.changes !== 1) throw conflict('Someone changed this survey at the same moment; reload it and try again');
+    // The judged zones' readings stay in the aggregate: keep it for good (gone: the verdicts changed meanwhile).
+    if (frozen.aggregateId !== undefined && !freezeAggregate(tx, frozen.aggregateId)) throw conflict('The verdicts changed while the survey was being signed off (a zone, target or the rule was edited); sign it off again');
     recordAudit(tx, {
       organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'signed_off',
       before: { status: survey.status },

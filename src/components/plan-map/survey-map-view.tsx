@@ -140,7 +140,9 @@ export function SurveyMapView({ plan, zones, map, compareWith, zoneFill, zoneLeg
           </select>
         </div>
         <ul className="space-y-1 text-xs text-ink-600">
-          <li>{map.readings.length} point(s) on this plan.</li>
+          {map.sampledFrom === null
+            ? <li>{map.readings.length} point(s) on this plan.</li>
+            : <li>{map.sampledFrom.toLocaleString('en-GB')} points on this plan; the map draws an even sample of {map.readings.length.toLocaleString('en-GB')} of them in time order (the zone figures use every point).</li>}
           {map.withoutPosition > 0 && <li>{map.withoutPosition} reading(s) have no position yet: place them from the list of readings without a place.</li>}
           {map.withoutPlan > 0 && <li>{map.withoutPlan} reading(s) could not be placed: their log names no plan and this site has several (give logs a plan column, or choose the plan when uploading).</li>}
           {map.outsidePlan > 0 && map.notice === null && <li>{map.outsidePlan} reading(s) of this plan lie beyond its edge and are not shown.</li>}

@@ -13,6 +13,14 @@ const unique = () => `${Date.now().toString(36)}_${(n++).toString(36)}`;
 const fixture = (t: TestApp, status: 'draft' | 'submitted' = 'submitted') =>
   buildSurvey(t, { ownerEmail: DEMO.surveyor, status, siteName: `Matrix site ${unique()}`, zones: OFFICE_AND_CORRIDOR, readings: officeAndCorridorReadings() });
 
+/** A report job of the demo organisation, started by its admin (and polled until done when asked). */
+async function reportJob(t: TestApp, done: boolean): Promise<{ id: string }> {
+  const admin = await t.signIn(DEMO.admin);
+  const job = (await admin.post(`/api/surveys/${fixture(t).surveyId}/report-jobs`).send({ unit: 'lx' })).body as { id: string; status: string };
+  for (let state = job; done && state.status === 'running'; state = (await admin.get(`/api/report-jobs/${job.id}`)).body) await new Promise((r) => setTimeout(r, 50));
+  return job;
+}
+
 /** An entry of the demo organisation's own, inserted directly so every role's example has one. */
 function ownTarget(t: TestApp): number {
   const org = userId(t, DEMO.admin).organizationId;
@@ -43,5 +51,8 @@ export const complianceExamples: RouteExamples = {
   'GET /surveys/:id/report.pdf': (t) => ({ path: `/api/surveys/${fixture(t).surveyId}/report.pdf` }),
   'GET /surveys/:id/compliance/zones.csv': (t) => ({ path: `/api/surveys/${fixture(t).surveyId}/compliance/zones.csv` }),
   'GET /surveys/:id/compliance/readings.csv': (t) => ({ path: `/api/surveys/${fixture(t).surveyId}/compliance/readings.csv` }),
+  'POST /surveys/:id/report-jobs': (t) => ({ path: `/api/surveys/${fixture(t).surveyId}/report-jobs`, body: { unit: 'lx' }, okStatus: 202 }),
+  'GET /report-jobs/:jobId': async (t) => ({ path: `/api/report-jobs/${(await reportJob(t, false)).id}` }),
+  'GET /report-jobs/:jobId/file': async (t) => ({ path: `/api/report-jobs/${(await reportJob(t, true)).id}/file` }),
   'POST /surveys/:id/report/send': (t) => ({ path: `/api/surveys/${fixture(t).surveyId}/report/send`, body: { recipients: ['board@fernmoor.test'] }, okStatus: 202 }),
 };
