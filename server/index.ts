@@ -7,6 +7,7 @@ import { createApp } from './app';
 import { seedIfEmpty } from './db/seed';
 import { startJobs } from './jobs';
 import { prepareStart } from './start-up';
+import { closeComputePools } from './compute/compute-pool';
 
 async function main() {
   const dev = process.argv.includes('--dev');
@@ -40,6 +41,7 @@ async function main() {
     console.log(`${signal} received: finishing open requests and closing`);
     server.close(async () => {
       await stopJobs();
+      await closeComputePools();
       await closeVite();
       db.$client.close();
       process.exit(0);
