@@ -168,6 +168,25 @@ describe('placing readings by hand', () => {
     expect(text).toContain(reason);
   });
 
+  it('an exclusion, a placement and their undoing, without a re-decode, each change the kept verdicts at once (they join the aggregate\'s inputs)', async () => {
+    const { surveyId } = await plannedSurvey();
+    await uploadAndWait(t, admin, surveyId, labelLog(600));
+    const office = async () => (await admin.get(`/api/surveys/${surveyId}/compliance`)).body.zones.find((z: { name: string }) => z.name === 'Office 1') as { points: number; excludedPoints?: number };
+    const before = await office();
+    expect(before.excludedPoints).toBeUndefined();
+    const a1 = (await readingsOf(surveyId)).find((r) => r.point === 'OF1-A1')!;
+    await admin.put(`/api/surveys/${surveyId}/readings/${a1.id}/exclusion`).send({ excluded: true, reason: 'A person shadowed the probe' }).expect(200);
+    const excluded = await office();
+    expect(excluded.excludedPoints).toBe(1);
+    expect(excluded.points).toBe(before.points - 1);
+    await admin.put(`/api/surveys/${surveyId}/readings/${a1.id}/exclusion`).send({ excluded: false, reason: 'The shadow was elsewhere' }).expect(200);
+    expect(await office()).toMatchObject({ points: before.points });
+    // A reading without a place, placed by hand inside the office, joins its points.
+    const [unplaced] = (await admin.get(`/api/surveys/${surveyId}/unplaced`)).body.groups[0].readings;
+    await admin.put(`/api/surveys/${surveyId}/readings/${unplaced.id}/placement`).send({ planId, xM: 6, yM: 6 }).expect(200);
+    expect((await office()).points).toBe(before.points + 1);
+  });
+
   it('a signed-off survey refuses placements and exclusions; another organisation gets 404', async () => {
     const { surveyId } = await plannedSurvey();
     await uploadAndWait(t, admin, surveyId, labelLog(400));
