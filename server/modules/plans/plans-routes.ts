@@ -1,11 +1,10 @@
 import type { Api } from '../../http/api';
 import type { Deps } from '../../deps';
 import { idParamsSchema } from '@shared/schemas/common';
-import { createPlanFieldsSchema, PLAN_IMAGE_MAX_BYTES, planListResponseSchema, planSchema, surveyMapQuerySchema, surveyMapResponseSchema, updatePlanBodySchema } from '@shared/schemas/plans';
+import { createPlanFieldsSchema, PLAN_IMAGE_MAX_BYTES, planListResponseSchema, planSchema, updatePlanBodySchema } from '@shared/schemas/plans';
 import { singleFileUpload } from '../../http/upload';
 import { sendHashedFile } from '../../http/send-file';
 import { createPlan, deletePlan, getPlan, listPlans, planImage, replacePlanImage, updatePlan } from './plans-service';
-import { surveyMap } from './survey-map-service';
 
 export function registerPlanRoutes(api: Api, deps: Deps) {
   api.route({ method: 'get', path: '/sites/:id/plans', access: 'sites.read', tag: 'plans', summary: 'Plans of a site', params: idParamsSchema, response: planListResponseSchema },
@@ -38,6 +37,4 @@ export function registerPlanRoutes(api: Api, deps: Deps) {
     // The image URL carries the hash (a new image is a new URL): revalidation is cheap.
     ({ user, params, req, res }) => sendHashedFile(req, res, planImage(deps, user, params.id), 3600));
 
-  api.route({ method: 'get', path: '/surveys/:id/map', access: 'surveys.read', tag: 'plans', summary: 'A survey\'s readings on a plan, with zone and wall-band marks and zone averages', params: idParamsSchema, query: surveyMapQuerySchema, response: surveyMapResponseSchema },
-    ({ user, params, query }) => surveyMap(deps.db, user, params.id, query.planId));
 }

@@ -9,8 +9,8 @@ import type { MapReading, MapZoneSummary, SurveyMapResponse } from '@shared/sche
 import { createZoneAssigner } from '@shared/spatial/zone-assignment';
 import { notFound, unprocessable } from '../../http/errors';
 import { siteScope } from '../users/users-service';
-import { findVisiblePlan, planExtent } from './plans-service';
-import { currentAggregate } from '../compliance/verdict-aggregates';
+import { findVisiblePlan, planExtent } from '../plans/plans-service';
+import { currentAggregate } from './verdict-aggregates';
 
 function findVisibleSurvey(db: Db, user: SessionUser, surveyId: number) {
   const survey = db.select().from(surveys).where(and(eq(surveys.id, surveyId), eq(surveys.organizationId, user.organizationId))).get();
