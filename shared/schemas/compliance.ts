@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { fieldPhotoSchema } from './field';
+import { fieldPhotoSchema, zoneNoteSchema } from './field';
 import { READING_PLANES } from '../core/planes';
 import { DECISION_RULES } from './organization';
 import { TARGET_CONFIDENCE } from './targets';
@@ -195,6 +195,8 @@ export const zoneDetailResponseSchema = z.object({
   points: z.array(zonePointSchema),
   /** Photos taken in the field of this zone or of one of its points. */
   photos: z.array(fieldPhotoSchema),
+  /** Notes written on this zone in the field view, oldest first. */
+  notes: z.array(zoneNoteSchema),
   /** The site's IANA time zone (photo times are shown in it). */
   siteTimeZone: z.string(),
 });

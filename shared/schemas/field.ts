@@ -51,7 +51,13 @@ export const fieldRecordBodySchema = z.discriminatedUnion('kind', [
   }),
   z.object({ idempotencyKey: idempotencyKeySchema, kind: z.literal('mark'), ...placeFields, probeId: z.number().int().positive().nullable().optional() }),
   z.object({ idempotencyKey: idempotencyKeySchema, kind: z.literal('skip'), ...placeFields, reason: singleLineText(z.string().trim().min(1, 'Say why the point was skipped').max(500)) }),
+  // A written note on a whole zone (what no single point shows: a failed luminaire, glare, a blocked window).
+  z.object({
+    idempotencyKey: idempotencyKeySchema, kind: z.literal('zone_note'), zoneId: z.number().int().positive(),
+    note: multiLineText(z.string().trim().min(1, 'Write the note').max(1000)), sessionKey: placeFields.sessionKey, recordedAt: isoDateTimeSchema,
+  }),
 ]).superRefine((v, ctx) => {
+  if (v.kind === 'zone_note') return;
   if ((v.xM == null) !== (v.yM == null)) ctx.addIssue({ code: 'custom', path: ['yM'], message: 'Give both xM and yM, or neither' });
   if (v.xM != null && v.planId == null && v.plannedPointId == null) ctx.addIssue({ code: 'custom', path: ['planId'], message: 'A position needs its plan' });
 });
@@ -62,9 +68,12 @@ export const fieldWarningSchema = z.object({ code: z.string(), message: z.string
 export const fieldRecordSchema = z.object({
   id: z.number().int(),
   idempotencyKey: z.string(),
-  kind: z.enum(['typed', 'mark', 'skip']),
+  kind: z.enum(['typed', 'mark', 'skip', 'zone_note']),
   sessionId: z.number().int().nullable(),
+  /** The point's label; for a zone note, the zone's name when it was written. */
   point: z.string(),
+  /** The zone a zone note is about; null for point records. */
+  zoneId: z.number().int().nullable(),
   plannedPointId: z.number().int().nullable(),
   planId: z.number().int().nullable(),
   xM: z.number().nullable(),
@@ -84,6 +93,10 @@ export const fieldRecordSchema = z.object({
 export type FieldRecord = z.infer<typeof fieldRecordSchema>;
 
 /** 201 when stored now, 200 when the key was already stored (the same record comes back). */
+/** A zone note as the zone's verdict page shows it. */
+export const zoneNoteSchema = z.object({ id: z.number().int(), note: z.string(), recordedAt: z.string() });
+export type ZoneNote = z.infer<typeof zoneNoteSchema>;
+
 export const fieldRecordResponseSchema = z.object({ record: fieldRecordSchema, alreadyStored: z.boolean() });
 
 export const fieldSessionSchema = z.object({

@@ -17,8 +17,8 @@ type FieldStateJson = {
   zones: { id: number; planId: number; name: string }[];
   plannedPoints: { id: number; zoneId: number | null; label: string }[];
   probes: { id: number; serial: string; kind: string }[];
-  records: { id: number; kind: string; point: string; idempotencyKey: string; recordedAt: string; reading: { lux: number } | null }[];
-  photos: { id: number; point: string | null; zoneId: number | null }[];
+  records: { id: number; kind: string; point: string; zoneId: number | null; note: string | null; idempotencyKey: string; recordedAt: string; reading: { lux: number } | null }[];
+  photos: { id: number; point: string | null; zoneId: number | null; note: string | null }[];
 };
 
 /** The app's API from the signed-in page (same cookies and Origin as the page). */
@@ -62,6 +62,7 @@ describe('field view at phone size', () => {
     await signInAs(page, 'surveyor@luxtrail.test');
     const { surveyId, zoneId, labels } = await surveyWithPlannedPoints(page, 'Winter evening check 2026');
     expect(labels.length).toBeGreaterThan(1);
+    const zoneName = (await apiJson<FieldStateJson>(page.request, 'get', `/api/surveys/${surveyId}/field`)).zones.find((z) => z.id === zoneId)!.name;
 
     await page.goto(`/field/surveys/${surveyId}`);
     await page.getByRole('heading', { name: 'Winter evening check 2026' }).waitFor({ timeout: 60_000 });
@@ -95,9 +96,18 @@ describe('field view at phone size', () => {
       await page.getByRole('status').filter({ hasText: `Saved 1 value at ${t.label}` }).waitFor({ timeout: 10_000 });
     }
     const png = await sharp({ create: { width: 64, height: 48, channels: 3, background: { r: 200, g: 180, b: 40 } } }).png().toBuffer();
-    await page.locator('input[type=file][accept="image/*"]').setInputFiles({ name: 'luminaire.png', mimeType: 'image/png', buffer: png });
+    await page.getByLabel('Photo', { exact: true }).setInputFiles({ name: 'luminaire.png', mimeType: 'image/png', buffer: png });
     await page.getByRole('status').filter({ hasText: `Photo kept for ${typed[1].label}` }).waitFor();
-    await expect.poll(() => page.getByTestId('waiting-count').innerText()).toMatch(/^[34] waiting to sync$/);
+    // A note and a photo on the whole zone (the selected point's zone is the current one), also offline.
+    await expect.poll(() => page.getByLabel('Zone', { exact: true }).locator('option:checked').innerText()).toBe(zoneName);
+    await page.getByLabel(/^Note on the zone/).fill('Two downlights by the door are out');
+    await page.getByRole('button', { name: 'Save zone note' }).click();
+    await page.getByRole('status').filter({ hasText: `Note kept for ${zoneName}` }).waitFor({ timeout: 10_000 });
+    await page.getByLabel(/^Note on the zone/).fill('Door side of the zone');
+    await page.getByLabel('Zone photo').setInputFiles({ name: 'door.png', mimeType: 'image/png', buffer: png });
+    await page.getByRole('status').filter({ hasText: `Photo kept for ${zoneName}` }).waitFor({ timeout: 10_000 });
+    await expect.poll(() => page.getByTestId('zone-items').getByText('Waiting to sync').count()).toBe(2);
+    await expect.poll(() => page.getByTestId('waiting-count').innerText()).toMatch(/^[56] waiting to sync$/);
     await expect.poll(() => progress.innerText()).toBe(`2 of ${labels.length}`);
     await page.screenshot({ path: path.join(screenshotDir(), 'field-offline-390.png'), fullPage: true });
 
@@ -110,13 +120,19 @@ describe('field view at phone size', () => {
     expect(typedRecords.map((r) => r.point).sort()).toEqual(typed.map((t) => t.label).sort());
     expect(new Set(typedRecords.map((r) => r.idempotencyKey)).size).toBe(typedRecords.length);
     expect(typedRecords.map((r) => r.reading?.lux).sort()).toEqual(typed.map((t) => t.lux).sort());
-    expect(state.photos).toHaveLength(1);
-    expect(state.photos[0]).toMatchObject({ point: typed[1].label, zoneId });
+    expect(state.photos).toHaveLength(2);
+    expect(state.photos.find((p) => p.point !== null)).toMatchObject({ point: typed[1].label, zoneId });
+    expect(state.photos.find((p) => p.point === null)).toMatchObject({ zoneId, note: 'Door side of the zone' });
+    const zoneNotes = state.records.filter((r) => r.kind === 'zone_note');
+    expect(zoneNotes).toHaveLength(1);
+    expect(zoneNotes[0]).toMatchObject({ zoneId, note: 'Two downlights by the door are out' });
 
     // Judged in their zone: the zone's verdict page lists both points with their values, and the photo.
     await page.goto(`/compliance/surveys/${surveyId}/zones/${zoneId}`);
     for (const t of typed) await page.getByRole('rowheader', { name: t.label, exact: true }).first().waitFor({ timeout: 60_000 });
     await page.getByRole('img', { name: new RegExp(`Photo at ${typed[1].label}`) }).waitFor();
+    await page.getByRole('img', { name: `Photo at ${zoneName}: Door side of the zone` }).waitFor();
+    await page.getByRole('list', { name: 'Notes on the zone' }).getByText('Two downlights by the door are out').waitFor();
     await page.screenshot({ path: path.join(screenshotDir(), 'field-zone-photos-390.png'), fullPage: true });
   });
 
@@ -169,5 +185,49 @@ describe('field view at phone size', () => {
     // The field view now shows the two marked points measured by the log's readings.
     const after = await apiJson<PlannedJson>(page.request, 'get', `/api/surveys/${surveyId}/planned-points`);
     for (const label of marked) expect(after.items.find((p) => p.label === label)?.readingCount).toBe(1);
+  });
+
+  it('fits 360 px phones and 820 px tablets: no sideways scroll, main controls on screen and at least 44 px tall', async () => {
+    for (const width of [360, 820]) {
+      const viewport = { width, height: width < 600 ? 780 : 1180 };
+      const page = await app.newPage(viewport);
+      await signInAs(page, 'surveyor@luxtrail.test');
+      const { surveyId, labels } = await surveyWithPlannedPoints(page, 'Winter evening check 2026');
+      await page.goto(`/field/surveys/${surveyId}`);
+      await page.getByRole('heading', { level: 1 }).waitFor({ timeout: 60_000 });
+      await page.getByTestId(`point-state-${labels[0]}`).waitFor({ timeout: 30_000 });
+
+      const checkLayout = async (what: string) => {
+        const widths = await page.evaluate(() => ({ scroll: document.documentElement.scrollWidth, client: document.documentElement.clientWidth }));
+        expect(widths.scroll, `${what} at ${width} px scrolls sideways`).toBeLessThanOrEqual(widths.client);
+      };
+      /** On screen horizontally (after scrolling into view) and at least 44 px tall (WCAG 2.5.5 target size). */
+      const checkControl = async (name: string, control: ReturnType<Page['getByRole']>) => {
+        await control.scrollIntoViewIfNeeded();
+        const box = await control.boundingBox();
+        expect(box, `${name} at ${width} px is not shown`).not.toBeNull();
+        expect(box!.height, `${name} at ${width} px`).toBeGreaterThanOrEqual(44);
+        expect(box!.x, `${name} at ${width} px`).toBeGreaterThanOrEqual(0);
+        expect(box!.x + box!.width, `${name} at ${width} px`).toBeLessThanOrEqual(width + 0.5);
+      };
+
+      await checkLayout('the field view');
+      await checkControl('the waiting count', page.getByTestId('waiting-count') as ReturnType<Page['getByRole']>);
+      await checkControl('"Take offline"', page.getByRole('button', { name: /Take offline|Refresh offline copy/ }));
+      await checkControl('the first point', page.getByRole('button').filter({ has: page.getByTestId(`point-state-${labels[0]}`) }));
+      await checkControl('the zone choice', page.getByLabel('Zone', { exact: true }));
+      await checkControl('"Save zone note"', page.getByRole('button', { name: 'Save zone note' }));
+
+      // With a point chosen: the entry's tabs, big value field and save button.
+      await page.getByTestId(`point-state-${labels[0]}`).click();
+      await page.getByRole('heading', { name: `Point ${labels[0]}` }).waitFor();
+      await checkLayout('the point entry');
+      await checkControl('the value field', page.getByLabel(/^Value/));
+      await checkControl('"Save reading"', page.getByRole('button', { name: 'Save reading' }));
+      await checkControl('the "Here now" tab', page.getByRole('tab', { name: 'Here now' }));
+      await checkControl('the point photo', page.locator('label').filter({ has: page.getByLabel('Photo', { exact: true }) }) as ReturnType<Page['getByRole']>);
+      await page.screenshot({ path: path.join(screenshotDir(), `field-${width}.png`), fullPage: true });
+      await page.close();
+    }
   });
 });

@@ -348,9 +348,63 @@ describe('planned points in the field', () => {
     const pdf = await surveyor.get(`/api/surveys/${s.surveyId}/report.pdf`).buffer(true).parse(binary);
     expect(pdf.status).toBe(200);
     const text = await pdfText(pdf.body as Buffer);
-    expect(text).toContain('Appendix: photos from the field');
+    expect(text).toContain('Appendix: photos and notes from the field');
     expect(text).toContain(`Field office · point ${p.label}`);
     expect(text).toContain('Luminaire L3 with a dead tube');
+  });
+});
+
+describe('notes and photos on a whole zone', () => {
+  it('a zone note and a zone photo sync once each (idempotency keys) and show on the zone detail and in the report appendix beside the point photos', async () => {
+    const s = buildSurvey(t, { ownerEmail: DEMO.surveyor, surveyName: 'Zone notes', status: 'draft', zones: OFFICE, readings: [{ x: 4, y: 3, lux: 520, point: 'R1' }] });
+    const note = { idempotencyKey: key('znote'), kind: 'zone_note', zoneId: s.zoneIds.office, note: 'Two luminaires over the window row are out', recordedAt: at(1) };
+    const first = await surveyor.post(`/api/surveys/${s.surveyId}/field/records`).send(note);
+    const again = await surveyor.post(`/api/surveys/${s.surveyId}/field/records`).send(note);
+    expect([first.status, again.status]).toEqual([201, 200]);
+    expect(again.body).toMatchObject({ alreadyStored: true, record: { id: first.body.record.id, kind: 'zone_note', zoneId: s.zoneIds.office, point: 'Field office', reading: null } });
+    expect(t.db.select().from(fieldRecords).where(eq(fieldRecords.surveyId, s.surveyId)).all()).toHaveLength(1);
+    // A zone note makes no reading: the zone is still judged on its one logged point.
+    expect(t.db.select().from(readings).where(eq(readings.surveyId, s.surveyId)).all()).toHaveLength(1);
+
+    const img = await sharp({ create: { width: 800, height: 600, channels: 3, background: '#5080a0' } }).jpeg().toBuffer();
+    const photoKey = key('zphoto');
+    const sendPhoto = () => surveyor.post(`/api/surveys/${s.surveyId}/field/photos`).attach('file', img, { filename: 'window-row.jpg', contentType: 'image/jpeg' })
+      .field('idempotencyKey', photoKey).field('takenAt', at(2)).field('zoneId', String(s.zoneIds.office)).field('note', 'Window row from the door');
+    const p1 = await sendPhoto();
+    const p2 = await sendPhoto();
+    expect([p1.status, p2.status]).toEqual([201, 200]);
+    expect(p2.body.photo).toMatchObject({ id: p1.body.photo.id, zoneId: s.zoneIds.office, point: null, plannedPointId: null });
+
+    const zone = await surveyor.get(`/api/surveys/${s.surveyId}/zones/${s.zoneIds.office}/compliance`);
+    expect(zone.status).toBe(200);
+    expect(zone.body.notes).toEqual([{ id: first.body.record.id, note: 'Two luminaires over the window row are out', recordedAt: at(1) }]);
+    expect(zone.body.photos.map((x: { id: number }) => x.id)).toEqual([p1.body.photo.id]);
+    // The field view's state carries the note for the phone; the point list ignores it (no point named "Field office").
+    const state = await surveyor.get(`/api/surveys/${s.surveyId}/field`);
+    expect(state.body.records.filter((r: { kind: string }) => r.kind === 'zone_note')).toHaveLength(1);
+
+    const pdf = await surveyor.get(`/api/surveys/${s.surveyId}/report.pdf`).buffer(true).parse(binary);
+    expect(pdf.status).toBe(200);
+    const text = await pdfText(pdf.body as Buffer);
+    expect(text).toContain('Appendix: photos and notes from the field');
+    expect(text).toContain('Window row from the door');
+    expect(text).toContain('Notes on zones');
+    expect(text).toContain('Two luminaires over the window row are out');
+  });
+
+  it('refuses a zone of another site (422 naming zoneId), an empty note (400) and a note after sign-off (409); nothing is stored', async () => {
+    const s = draftSurvey('Zone note refusals');
+    const other = buildSurvey(t, { ownerEmail: DEMO.surveyor, surveyName: 'Elsewhere', siteName: 'Elsewhere', status: 'draft', zones: OFFICE, readings: [] });
+    const wrong = await surveyor.post(`/api/surveys/${s.surveyId}/field/records`).send({ idempotencyKey: key(), kind: 'zone_note', zoneId: other.zoneIds.office, note: 'x', recordedAt: at(0) });
+    expect(wrong.status).toBe(422);
+    expect(wrong.body.error.message).toMatch(new RegExp(`Zone ${other.zoneIds.office} is not a zone of this survey's site`));
+    const empty = await surveyor.post(`/api/surveys/${s.surveyId}/field/records`).send({ idempotencyKey: key(), kind: 'zone_note', zoneId: s.zoneIds.office, note: '   ', recordedAt: at(0) });
+    expect(empty.status).toBe(400);
+    expect(empty.body.error.message).toMatch(/note/);
+    t.db.update(surveys).set({ status: 'signed_off', signedOffAt: t.clock.now(), signedOffBy: userId(t, DEMO.facility_manager).id }).where(eq(surveys.id, s.surveyId)).run();
+    const late = await surveyor.post(`/api/surveys/${s.surveyId}/field/records`).send({ idempotencyKey: key(), kind: 'zone_note', zoneId: s.zoneIds.office, note: 'Too late', recordedAt: at(0) });
+    expect(late.status).toBe(409);
+    expect(t.db.select().from(fieldRecords).where(eq(fieldRecords.surveyId, s.surveyId)).all()).toHaveLength(0);
   });
 });
 

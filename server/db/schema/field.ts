@@ -30,18 +30,21 @@ export const fieldSessions = sqliteTable('field_sessions', {
 /**
  * What the surveyor recorded at a point on site: values typed from a meter that does not log
  * ('typed', kept as typed with their unit; the reading they make lives in `readings` with
- * field_record_id), a "measured here now" mark for a logging meter ('mark'), or a point skipped
- * with a reason ('skip'). `lights` marks half of a lights-on/off pair.
+ * field_record_id), a "measured here now" mark for a logging meter ('mark'), a point skipped
+ * with a reason ('skip'), or a written note on a whole zone ('zone_note': zone_id set, `point`
+ * holds the zone's name as it was then). `lights` marks half of a lights-on/off pair.
  */
 export const fieldRecords = sqliteTable('field_records', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   organizationId: integer('organization_id').notNull().references(() => organizations.id),
   surveyId: integer('survey_id').notNull().references(() => surveys.id),
   idempotencyKey: text('idempotency_key').notNull(),
-  kind: text('kind', { enum: ['typed', 'mark', 'skip'] }).notNull(),
+  kind: text('kind', { enum: ['typed', 'mark', 'skip', 'zone_note'] }).notNull(),
   sessionId: integer('session_id').references(() => fieldSessions.id),
   point: text('point').notNull(),
   plannedPointId: integer('planned_point_id'),
+  /** The zone a zone note is about (null for point records). */
+  zoneId: integer('zone_id').references(() => zones.id, { onDelete: 'set null' }),
   planId: integer('plan_id').references(() => plans.id),
   xM: real('x_m'),
   yM: real('y_m'),

@@ -20,7 +20,7 @@ import { getVisibleTarget, presentTarget } from '../targets/targets-service';
 import type { JudgedZone } from './judge-zones';
 import { loadReadingsById, loadUsedCoefficientSets, type UsedCoefficientSet } from './compliance-repository';
 import { aggregateZoneMembers, coreInstallation, currentAggregate, type StoredZone, type ZoneMembers } from './verdict-aggregates';
-import { photosOfZone } from '../field/field-service';
+import { notesOfZone, photosOfZone } from '../field/field-service';
 
 export { coreInstallation };
 
@@ -177,7 +177,7 @@ export async function getZoneDetail(db: Db, user: SessionUser, surveyId: number,
       lux: r.lux, uLux: r.uLux, luxBound: r.luxBound, flag: r.flag, inWallBand: wallBand.has(r.id), plane: r.plane ?? 'horizontal', azimuthDeg: r.azimuthDeg ?? null,
       ...(members.pointDf[r.id] !== undefined ? { dfPercent: members.pointDf[r.id] } : {}),
     })),
-    photos, siteTimeZone: survey.site.timeZone,
+    photos, notes: notesOfZone(db, survey.id, zoneId), siteTimeZone: survey.site.timeZone,
   };
 }
 

@@ -4,8 +4,8 @@ import crypto from 'node:crypto';
 import sharp, { type OutputInfo } from 'sharp';
 import { and, asc, eq } from 'drizzle-orm';
 import type { Deps } from '../../deps';
-import { fieldPhotos } from '../../db/schema/field';
-import { zones, plans } from '../../db/schema/plans';
+import { fieldPhotos, fieldRecords } from '../../db/schema/field';
+import { zones } from '../../db/schema/plans';
 import { storedFiles } from '../../db/schema/organizations';
 import type { SessionUser } from '@shared/schemas/auth';
 import { fieldPhotoFieldsSchema, type FieldPhoto } from '@shared/schemas/field';
@@ -13,7 +13,7 @@ import { badRequest, notFound, unprocessable } from '../../http/errors';
 import { keepUploadedFile, sniffFile, storedPath } from '../../lib/file-store';
 import { recordAudit } from '../audit/audit-service';
 import { getSurveyRow } from '../surveys/surveys-service';
-import { assertSurveyAcceptsFieldRecords, plannedPointOfSurvey, presentPhoto } from './field-service';
+import { assertSurveyAcceptsFieldRecords, plannedPointOfSurvey, presentPhoto, zoneOfSurveySite } from './field-service';
 
 /** A photo upload may be at most this large before shrinking (413 beyond; phone cameras give 3-12 MB). */
 export const FIELD_PHOTO_MAX_BYTES = 20 * 1024 * 1024;
@@ -37,10 +37,7 @@ export async function storeFieldPhoto(deps: Deps, user: SessionUser, surveyId: n
   const earlier = deps.db.select().from(fieldPhotos).where(and(eq(fieldPhotos.surveyId, survey.id), eq(fieldPhotos.idempotencyKey, fields.idempotencyKey))).get();
   if (earlier) return { photo: presentPhoto(earlier), alreadyStored: true };
   assertSurveyAcceptsFieldRecords(survey);
-  if (fields.zoneId !== undefined) {
-    const z = deps.db.select({ id: zones.id, siteId: plans.siteId }).from(zones).innerJoin(plans, eq(plans.id, zones.planId)).where(eq(zones.id, fields.zoneId)).get();
-    if (!z || z.siteId !== survey.siteId) throw unprocessable(`Zone ${fields.zoneId} is not a zone of this survey's site`, [{ path: 'zoneId', message: 'not on this site' }]);
-  }
+  if (fields.zoneId !== undefined) zoneOfSurveySite(deps.db, survey, fields.zoneId);
   // A photo of a planned point belongs to that point's zone (unless the phone named a zone).
   const planned = fields.plannedPointId !== undefined ? plannedPointOfSurvey(deps.db, user, survey, fields.plannedPointId) : null;
   const zoneId = fields.zoneId ?? planned?.zoneId ?? null;
@@ -90,4 +87,14 @@ export function reportPhotos(deps: Deps, surveyId: number): ReportPhoto[] {
     .innerJoin(storedFiles, eq(storedFiles.id, fieldPhotos.fileId)).leftJoin(zones, eq(zones.id, fieldPhotos.zoneId))
     .where(eq(fieldPhotos.surveyId, surveyId)).orderBy(asc(fieldPhotos.takenAt), asc(fieldPhotos.id)).all()
     .map((r) => ({ zoneName: r.zoneName, point: r.photo.point, note: r.photo.note, takenAt: r.photo.takenAt, filePath: storedPath(deps, r.sha256), widthPx: r.photo.widthPx, heightPx: r.photo.heightPx }));
+}
+
+/** A note on a whole zone as the report's appendix prints it. */
+export type ReportZoneNote = { zoneName: string; note: string; recordedAt: number };
+
+/** The survey's zone notes for the report's appendix, in the order written (the zone's current name, else the one it had then). */
+export function reportZoneNotes(db: Deps['db'], surveyId: number): ReportZoneNote[] {
+  return db.select({ r: fieldRecords, zoneName: zones.name }).from(fieldRecords).leftJoin(zones, eq(zones.id, fieldRecords.zoneId))
+    .where(and(eq(fieldRecords.surveyId, surveyId), eq(fieldRecords.kind, 'zone_note'))).orderBy(asc(fieldRecords.timeMs), asc(fieldRecords.id)).all()
+    .map(({ r, zoneName }) => ({ zoneName: zoneName ?? r.point, note: r.note ?? '', recordedAt: r.timeMs }));
 }

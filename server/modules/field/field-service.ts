@@ -10,7 +10,7 @@ import { plannedPoints } from '../../db/schema/grids';
 import { fieldPhotos, fieldRecords, fieldSessions } from '../../db/schema/field';
 import type { SessionUser } from '@shared/schemas/auth';
 import { WORKED_ON_STATUSES } from '@shared/survey-abilities';
-import { fieldRecordBodySchema, fieldSessionBodySchema, type FieldPhoto, type FieldRecord, type FieldRecordBody, type FieldSession, type FieldSessionBody, type FieldState } from '@shared/schemas/field';
+import { fieldRecordBodySchema, fieldSessionBodySchema, type FieldPhoto, type FieldRecord, type FieldRecordBody, type FieldSession, type FieldSessionBody, type FieldState, type ZoneNote } from '@shared/schemas/field';
 import { typedReading, type ManualMeter } from '@shared/core/typed-readings';
 import { MAX_PAIR_GAP_MS, pairedSubtraction } from '@shared/core/paired-daylight';
 import { conditionWarnings, WARM_UP_MS, type SessionConditions } from '@shared/core/field-conditions';
@@ -140,11 +140,11 @@ function presentRecords(db: Db | Tx, survey: SurveyRow, rows: FieldRecordRow[]):
     const rd = readingOf.get(r.id);
     const paired = rd?.note?.startsWith('paired:') ?? false;
     return {
-      id: r.id, idempotencyKey: r.idempotencyKey, kind: r.kind, sessionId: r.sessionId, point: r.point, plannedPointId: r.plannedPointId, planId: r.planId, xM: r.xM, yM: r.yM,
+      id: r.id, idempotencyKey: r.idempotencyKey, kind: r.kind, sessionId: r.sessionId, point: r.point, zoneId: r.zoneId, plannedPointId: r.plannedPointId, planId: r.planId, xM: r.xM, yM: r.yM,
       probeId: r.probeId, probeSerial: r.probeId === null ? null : serials.get(r.probeId) ?? null, values: r.values, unit: r.unit, lights: r.lights, reason: r.reason, note: r.note,
       recordedAt: iso(r.timeMs),
       reading: rd && rd.lux !== null ? { id: rd.id, lux: rd.lux, uLux: rd.uLux ?? 0, n: rd.sampleCount, paired } : null,
-      warnings: r.kind === 'skip' ? [] : conditionWarnings(r.timeMs, sessionConditions(sessionOf(r, sessions)), { daylightExcluded }, { paired: paired || r.lights === 'off' }),
+      warnings: r.kind === 'skip' || r.kind === 'zone_note' ? [] : conditionWarnings(r.timeMs, sessionConditions(sessionOf(r, sessions)), { daylightExcluded }, { paired: paired || r.lights === 'off' }),
     };
   });
 }
@@ -189,6 +189,15 @@ export function recordFieldRecord(deps: Deps, user: SessionUser, surveyId: numbe
       const s = tx.select({ id: fieldSessions.id }).from(fieldSessions).where(and(eq(fieldSessions.surveyId, survey.id), eq(fieldSessions.idempotencyKey, body.sessionKey))).get();
       if (!s) throw unprocessable(`Session ${body.sessionKey} is not recorded on this survey: sync the session's conditions first`, [{ path: 'sessionKey', message: 'unknown session' }]);
       sessionId = s.id;
+    }
+    if (body.kind === 'zone_note') {
+      const zone = zoneOfSurveySite(tx, survey, body.zoneId);
+      const created = tx.insert(fieldRecords).values({
+        organizationId: user.organizationId, surveyId: survey.id, idempotencyKey: body.idempotencyKey, kind: 'zone_note', sessionId, point: zone.name, zoneId: zone.id,
+        planId: zone.planId, note: body.note, timeMs, createdBy: user.id, createdAt: now,
+      }).returning().get();
+      recordAudit(tx, { organizationId: user.organizationId, actorId: user.id, entityType: 'field_record', entityId: created.id, surveyId: survey.id, action: 'recorded', after: body, at: now });
+      return created;
     }
     const place = resolvePlace(tx, user, survey, body);
     let probe: ProbeRow | null = null;
@@ -278,6 +287,13 @@ function resolvePlace(tx: Tx, user: SessionUser, survey: SurveyRow & { site: { i
   return { plannedPointId: null as number | null, planId: body.planId ?? null, xM: body.xM ?? null, yM: body.yM ?? null, point: body.point };
 }
 
+/** A zone on a plan of the survey's site (422 otherwise, naming zoneId). */
+export function zoneOfSurveySite(db: Db | Tx, survey: Pick<SurveyRow, 'siteId'>, zoneId: number) {
+  const z = db.select({ id: zones.id, name: zones.name, planId: zones.planId, siteId: plans.siteId }).from(zones).innerJoin(plans, eq(plans.id, zones.planId)).where(eq(zones.id, zoneId)).get();
+  if (!z || z.siteId !== survey.siteId) throw unprocessable(`Zone ${zoneId} is not a zone of this survey's site`, [{ path: 'zoneId', message: 'not on this site' }]);
+  return z;
+}
+
 /** A planned point of this survey: 404 unless it belongs to the user's organisation, 422 when it is another survey's. */
 export function plannedPointOfSurvey(db: Db | Tx, user: SessionUser, survey: Pick<SurveyRow, 'id' | 'name'>, plannedPointId: number) {
   const row = db.select({ p: plannedPoints, organizationId: sites.organizationId }).from(plannedPoints)
@@ -334,6 +350,13 @@ export function photosOfZone(db: Db, surveyId: number, zoneId: number, pointLabe
   return db.select().from(fieldPhotos).where(eq(fieldPhotos.surveyId, surveyId)).orderBy(asc(fieldPhotos.takenAt), asc(fieldPhotos.id)).all()
     .filter((p) => p.zoneId === zoneId || (p.zoneId === null && p.point !== null && labels.has(p.point.trim().toLowerCase())))
     .map(presentPhoto);
+}
+
+/** The survey's notes written on a zone in the field view, oldest first. */
+export function notesOfZone(db: Db, surveyId: number, zoneId: number): ZoneNote[] {
+  return db.select().from(fieldRecords).where(and(eq(fieldRecords.surveyId, surveyId), eq(fieldRecords.kind, 'zone_note'), eq(fieldRecords.zoneId, zoneId)))
+    .orderBy(asc(fieldRecords.timeMs), asc(fieldRecords.id)).all()
+    .map((r) => ({ id: r.id, note: r.note ?? '', recordedAt: iso(r.timeMs) }));
 }
 
 export { assertAccepts as assertSurveyAcceptsFieldRecords };

@@ -6,7 +6,7 @@ import type { SurveyRow } from '../surveys/surveys-service';
 import { complianceOf, surveyVerdicts, zoneMembers, type FrozenZone, type SurveyCompliance } from '../compliance/compliance-service';
 import { loadReadingsById, loadUsedCoefficientSets, type UsedCoefficientSet } from '../compliance/compliance-repository';
 import type { JudgeReading } from '../compliance/judge-zones';
-import type { ReportPhoto } from '../field/field-photos';
+import type { ReportPhoto, ReportZoneNote } from '../field/field-photos';
 import type { FieldSession } from '@shared/schemas/field';
 
 export type ReportData = {
@@ -22,6 +22,8 @@ export type ReportData = {
   generatedAt: number;
   /** Photos taken in the field (the appendix), with the stored file to embed; absent: none. */
   photos?: ReportPhoto[];
+  /** Notes written on whole zones in the field (the same appendix); absent: none. */
+  zoneNotes?: ReportZoneNote[];
   /** The conditions of each field visit, and the notes on readings those conditions put in doubt (method section). */
   fieldConditions?: { sessions: FieldSession[]; warmUpMinutes: number; notes: string[] };
 };

@@ -11,7 +11,7 @@ import type { SurveyRow } from '../surveys/surveys-service';
 import { getSurveyRow } from '../surveys/surveys-service';
 import { loadReportData } from './report-data';
 import { reportFilename, type FileAnswer } from './report-files';
-import { reportPhotos, type ReportPhoto } from '../field/field-photos';
+import { reportPhotos, reportZoneNotes, type ReportPhoto } from '../field/field-photos';
 import { conditionNotes, sessionsForReport } from '../field/field-service';
 import { WARM_UP_MS } from '@shared/core/field-conditions';
 import type { FieldSession } from '@shared/schemas/field';
@@ -33,7 +33,7 @@ async function buildReportPdf(db: Db, input: ReportPdfInput, progress: (f: numbe
   const judged = data.zones.flatMap((z) => z.readings.concat(z.wallBandReadings));
   const fieldConditions = input.sessions.length ? { sessions: input.sessions, warmUpMinutes: WARM_UP_MS / 60_000, notes: conditionNotes(db, survey, judged) } : undefined;
   progress(0.4);
-  const pdf = await renderReportPdf({ ...data, photos: input.photos, fieldConditions }, input.unit, (done, total) => progress(0.4 + 0.6 * (done / Math.max(1, total))));
+  const pdf = await renderReportPdf({ ...data, photos: input.photos, zoneNotes: reportZoneNotes(db, survey.id), fieldConditions }, input.unit, (done, total) => progress(0.4 + 0.6 * (done / Math.max(1, total))));
   return new Uint8Array(pdf.buffer, pdf.byteOffset, pdf.byteLength);
 }
 

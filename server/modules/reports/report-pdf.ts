@@ -229,7 +229,7 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx', onPag
   doc.font('body').fontSize(10).fillColor(INK);
   for (const caution of REPORT_CAUTIONS) doc.text(`- ${caution}`, { width: CONTENT_W }).moveDown(0.2);
 
-  if (data.photos?.length) photoAppendix(doc, data.photos, data.site.timeZone);
+  if (data.photos?.length || data.zoneNotes?.length) fieldAppendix(doc, data.photos ?? [], data.zoneNotes ?? [], data.site.timeZone);
 
   // Footer on every page.
   const range = doc.bufferedPageRange();
@@ -337,10 +337,13 @@ function fieldConditionsText(doc: PDFKit.PDFDocument, f: NonNullable<ReportData[
   for (const n of f.notes) textWithSymbols(doc, 'body', `- ${n}`, null, { width: CONTENT_W });
 }
 
-/** Photos taken in the field, two to a row, each with its zone, point, time (site zone) and note. */
-function photoAppendix(doc: PDFKit.PDFDocument, photos: NonNullable<ReportData['photos']>, timeZone: string) {
+/**
+ * Photos taken in the field, two to a row, each with its zone, point, time (site zone) and note;
+ * then the notes written on whole zones.
+ */
+function fieldAppendix(doc: PDFKit.PDFDocument, photos: NonNullable<ReportData['photos']>, zoneNotes: NonNullable<ReportData['zoneNotes']>, timeZone: string) {
   doc.addPage();
-  section(doc, 'Appendix: photos from the field', true);
+  section(doc, 'Appendix: photos and notes from the field', true);
   const gap = 16;
   const cellW = (CONTENT_W - gap) / 2;
   const imageH = 190;
@@ -359,6 +362,14 @@ function photoAppendix(doc: PDFKit.PDFDocument, photos: NonNullable<ReportData['
   }
   doc.x = MARGIN;
   doc.y = col === 0 ? rowY : rowY + imageH + captionH + 8;
+  if (zoneNotes.length === 0) return;
+  if (photos.length) section(doc, 'Notes on zones');
+  for (const n of zoneNotes) {
+    if (doc.y > A4.height - MARGIN - 40) doc.addPage();
+    doc.font('bold').fontSize(9).fillColor(INK).text(`${n.zoneName} · ${formatDateTime(n.recordedAt, timeZone)}`, MARGIN, doc.y, { width: CONTENT_W });
+    textWithSymbols(doc, 'body', n.note, null, { width: CONTENT_W });
+    doc.moveDown(0.4);
+  }
 }
 
 export function section(doc: PDFKit.PDFDocument, title: string, first = false) {

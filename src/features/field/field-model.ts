@@ -46,13 +46,14 @@ export function fieldEntries(state: FieldState | null, outbox: readonly OutboxIt
   const seen = new Set<string>();
   for (const r of state?.records ?? []) {
     seen.add(r.idempotencyKey);
+    if (r.kind === 'zone_note') continue;
     out.push({
       key: r.idempotencyKey, kind: r.kind, point: r.point, plannedPointId: r.plannedPointId, planId: r.planId, xM: r.xM, yM: r.yM, recordedAt: r.recordedAt,
       sync: 'synced', reason: null, values: r.values, unit: r.unit, lights: r.lights, skipReason: r.reason, reading: r.reading, warnings: r.warnings,
     });
   }
   for (const item of outbox) {
-    if (item.kind !== 'record' || seen.has(item.key)) continue;
+    if (item.kind !== 'record' || item.body.kind === 'zone_note' || seen.has(item.key)) continue;
     const b = item.body;
     out.push({
       key: item.key, kind: b.kind, point: b.point, plannedPointId: b.plannedPointId ?? null, planId: b.planId ?? null, xM: b.xM ?? null, yM: b.yM ?? null,
@@ -111,4 +112,32 @@ export function zoneProgress(state: FieldState | null, points: readonly FieldPoi
     const mine = points.filter((p) => p.zoneId === z.id);
     return { zoneId: z.id, name: z.name, planId: z.planId, total: mine.length, done: mine.filter((p) => p.state !== 'todo').length, skipped: mine.filter((p) => p.state === 'skipped').length };
   }).filter((z) => z.total > 0);
+}
+
+/** A note or photo on a whole zone, from the server or waiting on the phone. */
+export type ZoneItem = { key: string; kind: 'note' | 'photo'; note: string | null; at: string; sync: SyncState; reason: string | null; url: string | null };
+
+/** The zone's own notes and photos (not those of its points), oldest first; a key never twice. */
+export function zoneItems(state: FieldState | null, outbox: readonly OutboxItem[], zoneId: number): ZoneItem[] {
+  const out: ZoneItem[] = [];
+  const seen = new Set<string>();
+  for (const r of state?.records ?? []) {
+    if (r.kind !== 'zone_note' || r.zoneId !== zoneId) continue;
+    seen.add(r.idempotencyKey);
+    out.push({ key: r.idempotencyKey, kind: 'note', note: r.note, at: r.recordedAt, sync: 'synced', reason: null, url: null });
+  }
+  for (const p of state?.photos ?? []) {
+    if (p.zoneId !== zoneId || p.plannedPointId !== null || p.point !== null) continue;
+    seen.add(p.idempotencyKey);
+    out.push({ key: p.idempotencyKey, kind: 'photo', note: p.note, at: p.takenAt, sync: 'synced', reason: null, url: p.url });
+  }
+  for (const item of outbox) {
+    if (seen.has(item.key)) continue;
+    if (item.kind === 'record' && item.body.kind === 'zone_note' && item.body.zoneId === zoneId) {
+      out.push({ key: item.key, kind: 'note', note: item.body.note, at: item.body.recordedAt, sync: item.state, reason: item.reason, url: null });
+    } else if (item.kind === 'photo' && item.body.zoneId === zoneId && !item.body.point && !item.body.plannedPointId) {
+      out.push({ key: item.key, kind: 'photo', note: item.body.note ?? null, at: item.body.takenAt, sync: item.state, reason: item.reason, url: null });
+    }
+  }
+  return out.sort((a, b) => a.at.localeCompare(b.at));
 }

@@ -43,19 +43,33 @@ export function ZoneComplianceRoute() {
               {d.points.length === 0 ? <EmptyState title="No readings in this zone" /> : <ZonePointsTable detail={d} />}
             </Card>
             <Card>
-              <CardHeader title="Photos from the field" description="Taken on site with the field view, of this zone or of one of its points (location removed unless the surveyor kept it)." />
+              <CardHeader title="Photos and notes from the field" description="Taken and written on site with the field view, on this zone or one of its points (photo locations removed unless the surveyor kept them)." />
               <CardBody>
-                {d.photos.length === 0 ? <EmptyState title="No photos of this zone" /> : (
-                  <ul className="grid grid-cols-2 gap-3 sm:grid-cols-3">
-                    {d.photos.map((p) => (
-                      <li key={p.id} className="flex flex-col gap-1">
-                        <a href={p.url} target="_blank" rel="noreferrer" className="block overflow-hidden rounded-lg ring-1 ring-ink-200 focus:ring-2 focus:ring-lamp-500">
-                          <img src={p.url} alt={`Photo at ${p.point ?? d.zone.name}${p.note ? `: ${p.note}` : ''}`} width={p.widthPx} height={p.heightPx} loading="lazy" className="h-auto w-full object-cover" />
-                        </a>
-                        <span className="text-sm text-ink-700">{p.point ?? 'Zone'} · {formatDateTime(p.takenAt, d.siteTimeZone)}{p.note ? ` · ${p.note}` : ''}</span>
-                      </li>
-                    ))}
-                  </ul>
+                {d.photos.length === 0 && d.notes.length === 0 ? <EmptyState title="No photos or notes of this zone" /> : (
+                  <div className="flex flex-col gap-4">
+                    {d.photos.length > 0 && (
+                      <ul className="grid grid-cols-2 gap-3 sm:grid-cols-3">
+                        {d.photos.map((p) => (
+                          <li key={p.id} className="flex flex-col gap-1">
+                            <a href={p.url} target="_blank" rel="noreferrer" className="block overflow-hidden rounded-lg ring-1 ring-ink-200 focus:ring-2 focus:ring-lamp-500">
+                              <img src={p.url} alt={`Photo at ${p.point ?? d.zone.name}${p.note ? `: ${p.note}` : ''}`} width={p.widthPx} height={p.heightPx} loading="lazy" className="h-auto w-full object-cover" />
+                            </a>
+                            <span className="text-sm text-ink-700">{p.point ?? 'Zone'} · {formatDateTime(p.takenAt, d.siteTimeZone)}{p.note ? ` · ${p.note}` : ''}</span>
+                          </li>
+                        ))}
+                      </ul>
+                    )}
+                    {d.notes.length > 0 && (
+                      <ul aria-label="Notes on the zone" className="flex flex-col gap-2">
+                        {d.notes.map((n) => (
+                          <li key={n.id} className="rounded-lg bg-ink-50 p-3 text-sm text-ink-950">
+                            <span className="font-semibold">{formatDateTime(n.recordedAt, d.siteTimeZone)}</span>
+                            <p className="mt-1 whitespace-pre-line">{n.note}</p>
+                          </li>
+                        ))}
+                      </ul>
+                    )}
+                  </div>
                 )}
               </CardBody>
             </Card>

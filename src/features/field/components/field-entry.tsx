@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Camera, Check, MapPin, Plus, SkipForward, X } from 'lucide-react';
+import { Check, MapPin, Plus, SkipForward, X } from 'lucide-react';
 import type { FieldState } from '@shared/schemas/field';
 import { typedValueProblem } from '@shared/core/typed-readings';
 import { footcandlesToLux } from '@shared/core/units';
@@ -7,6 +7,7 @@ import { useUnits, formatNumber } from '@/lib/units';
 import { cx } from '@/components/ui/cx';
 import type { OutboxItem } from '../offline/field-db';
 import { newKey, outboxRecord } from '../offline/field-db';
+import { PhotoPicker } from './photo-picker';
 
 const BIG = 'min-h-11 rounded-xl px-4 text-base font-semibold';
 const INPUT = 'block w-full min-h-11 rounded-xl border-0 bg-white px-3 text-base text-ink-950 ring-2 ring-inset ring-ink-400 focus:ring-4 focus:ring-lamp-500';
@@ -200,13 +201,7 @@ export function FieldEntry({ state, target, sessionKey, onAdd }: {
       )}
 
       <div className="mt-4 flex flex-wrap items-center gap-3 border-t border-ink-200 pt-3">
-        <label className={cx(BIG, 'flex cursor-pointer items-center gap-2 bg-ink-100 text-ink-950')}>
-          <Camera className="h-5 w-5" aria-hidden />Photo
-          <input type="file" accept="image/*" capture="environment" className="sr-only" onChange={(e) => { const f = e.target.files?.[0]; if (f) void addPhoto(f); e.target.value = ''; }} />
-        </label>
-        <label className="flex min-h-11 items-center gap-2 text-sm text-ink-900">
-          <input type="checkbox" className="h-5 w-5" checked={keepLocation} onChange={(e) => setKeepLocation(e.target.checked)} />Keep the photo's location
-        </label>
+        <PhotoPicker label="Photo" keepLocation={keepLocation} onKeepLocation={setKeepLocation} onFile={(f) => void addPhoto(f)} />
       </div>
 
       {problem && <p role="alert" className="mt-3 rounded-lg bg-short-50 p-3 text-sm font-semibold text-short-700">{problem}</p>}

@@ -5,10 +5,11 @@ import { cx } from '@/components/ui/cx';
 import { formatClock } from '@shared/datetime';
 import { ApiRequestError } from '@/lib/api-client';
 import { useFieldSurvey } from '../offline/use-field-survey';
-import { fieldEntries, fieldPoints, nextPoint, zoneProgress, type FieldEntry as Entry, type FieldPoint } from '../field-model';
+import { fieldEntries, fieldPoints, nextPoint, zoneItems, zoneProgress, type FieldEntry as Entry, type FieldPoint } from '../field-model';
 import { FieldPlan } from './field-plan';
 import { FieldEntry, type PointTarget } from './field-entry';
 import { FieldConditions } from './field-conditions';
+import { FieldZoneNotes } from './field-zone-notes';
 
 const STATE_LABEL = { todo: 'To do', measured: 'Measured', skipped: 'Skipped' } as const;
 const SYNC_LABEL = { synced: 'Synced', waiting: 'Waiting to sync', refused: 'Refused' } as const;
@@ -28,6 +29,7 @@ export function FieldView({ surveyId, userName }: { surveyId: number; userName: 
   const [sessionKey, setSessionKey] = useState<string | null>(() => localStorage.getItem(sessionStorageKey(surveyId)));
   const [showConditions, setShowConditions] = useState(false);
   const [offlineError, setOfflineError] = useState<string | null>(null);
+  const [zoneChoice, setZoneChoice] = useState<{ zoneId: number; forPoint: string | null } | null>(null);
 
   const entries = useMemo(() => fieldEntries(f.state, f.outbox), [f.state, f.outbox]);
   const points = useMemo(() => fieldPoints(f.state, entries), [f.state, entries]);
@@ -54,6 +56,9 @@ export function FieldView({ surveyId, userName }: { surveyId: number; userName: 
   const target: PointTarget | null = selected
     ? { label: selected.label, plannedPointId: selected.plannedPointId, planId: selected.planId, xM: selected.xM, yM: selected.yM }
     : free && freeLabel.trim() ? { label: freeLabel.trim(), plannedPointId: null, planId: plan?.id ?? null, xM: free.xM, yM: free.yM } : null;
+
+  // The current zone: the one the surveyor chose, else the selected point's, else the next point's, else the shown plan's first.
+  const zoneId = (zoneChoice && zoneChoice.forPoint === selectedId ? zoneChoice.zoneId : null) ?? selected?.zoneId ?? next?.zoneId ?? state.zones.find((z) => z.planId === plan?.id)?.id ?? state.zones[0]?.id ?? null;
 
   const takeOffline = async () => {
     setOfflineError(null);
@@ -95,7 +100,7 @@ export function FieldView({ surveyId, userName }: { surveyId: number; userName: 
           <ul className="mt-2 flex flex-col gap-2">
             {refused.map((i) => (
               <li key={i.key} className="flex flex-wrap items-center justify-between gap-2 rounded-lg bg-white p-3 text-sm text-ink-950">
-                <span><strong>{i.kind === 'session' ? 'Conditions' : i.kind === 'photo' ? `Photo ${i.body.point ?? ''}` : `${i.body.kind === 'typed' ? 'Reading' : i.body.kind === 'mark' ? 'Mark' : 'Skip'} at ${i.body.point}`}</strong>: {i.reason}</span>
+                <span><strong>{i.kind === 'session' ? 'Conditions' : i.kind === 'photo' ? `Photo ${i.body.point ?? ''}` : i.body.kind === 'zone_note' ? 'Zone note' : `${i.body.kind === 'typed' ? 'Reading' : i.body.kind === 'mark' ? 'Mark' : 'Skip'} at ${i.body.point}`}</strong>: {i.reason}</span>
                 <button type="button" className="min-h-11 rounded-lg px-3 font-semibold text-short-700 ring-2 ring-inset ring-short-600" onClick={() => void f.discard(i.key)}>Discard</button>
               </li>
             ))}
@@ -163,6 +168,10 @@ export function FieldView({ surveyId, userName }: { surveyId: number; userName: 
       )}
 
       {target && state.survey.acceptsRecords && <FieldEntry key={`${target.label}-${target.xM}-${target.yM}`} state={state} target={target} sessionKey={sessionKey} onAdd={f.add} />}
+
+      {zoneId !== null && (
+        <FieldZoneNotes state={state} zoneId={zoneId} onZone={(id) => setZoneChoice({ zoneId: id, forPoint: selectedId })} items={zoneItems(state, f.outbox, zoneId)} sessionKey={sessionKey} onAdd={f.add} />
+      )}
 
       {selected && <PointHistory point={selected} format={format} timeZone={state.survey.siteTimeZone} onClose={() => setSelectedId(null)} />}
 

@@ -1,0 +1,1 @@
+ALTER TABLE `field_records` ADD `zone_id` integer REFERENCES zones(id) ON DELETE set null;
