@@ -64,3 +64,23 @@ export type PageName = keyof typeof paths;
 export function absoluteUrl(publicUrl: string, path: string): string {
   return `${publicUrl.replace(/\/+$/, '')}${path}`;
 }
+
+/**
+ * Files the API serves for the browser to open or save (downloads, plan images): the one place
+ * their addresses are spelled, used by the client's links and by the server's answers. JSON
+ * endpoints are called through the client's `api` helper from one file per endpoint.
+ */
+export const apiFiles = {
+  planImage: (planId: Id, sha256: string) => `/api/plans/${planId}/image${query({ v: sha256.slice(0, 16) })}`,
+  surveyReadingsCsv: (surveyId: Id, unit: 'lux' | 'fc') => `/api/surveys/${surveyId}/readings.csv${query({ unit })}`,
+  surveyReportPdf: (surveyId: Id, unit: 'lx' | 'fc') => `/api/surveys/${surveyId}/report.pdf${query({ unit })}`,
+  surveyZonesCsv: (surveyId: Id) => `/api/surveys/${surveyId}/compliance/zones.csv`,
+  surveyVerdictReadingsCsv: (surveyId: Id) => `/api/surveys/${surveyId}/compliance/readings.csv`,
+  walkSheetPdf: (surveyId: Id) => `/api/surveys/${surveyId}/walk-sheet.pdf`,
+  plannedPointsCsv: (surveyId: Id) => `/api/surveys/${surveyId}/planned-points.csv`,
+  emergencyReportPdf: (surveyId: Id, unit: 'lx' | 'fc') => `/api/emergency/surveys/${surveyId}/report.pdf${query({ unit })}`,
+  benchRunFile: (benchRunId: Id) => `/api/bench-runs/${benchRunId}/file`,
+  certificate: (coefficientSetId: Id) => `/api/coefficient-sets/${coefficientSetId}/certificate`,
+  outboxAttachment: (attachmentId: Id) => `/api/outbox/attachments/${attachmentId}`,
+  reportJobFile: (jobId: Id) => `/api/report-jobs/${jobId}/file`,
+} as const;

@@ -5,6 +5,10 @@ import type { EmergencyPass } from './emergency';
 
 export const EMERGENCY_TEST_KINDS = ['functional', 'full_duration'] as const;
 export type EmergencyTestKind = (typeof EMERGENCY_TEST_KINDS)[number];
+export const EMERGENCY_TEST_RESULTS = ['pass', 'fail'] as const;
+export type EmergencyTestResult = (typeof EMERGENCY_TEST_RESULTS)[number];
+/** A test reminder's reason: due within the warning window, or past due. Stored codes. */
+export const TEST_REMINDER_STATES = ['due_soon', 'overdue'] as const;
 
 /**
  * How often each test is due. Defaults: a functional test every 30 days and a full-duration
@@ -14,13 +18,13 @@ export type EmergencyTestKind = (typeof EMERGENCY_TEST_KINDS)[number];
 export interface TestSchedule { functionalEveryDays: number; fullDurationEveryMonths: number }
 export const DEFAULT_TEST_SCHEDULE: TestSchedule = { functionalEveryDays: 30, fullDurationEveryMonths: 12 };
 
-export interface LogbookEntryLike { kind: EmergencyTestKind; testedOn: string; result: 'pass' | 'fail' }
+export interface LogbookEntryLike { kind: EmergencyTestKind; testedOn: string; result: EmergencyTestResult }
 
 export interface TestDue {
   kind: EmergencyTestKind;
   /** The latest test that counts for this kind, or null. */
   lastTestedOn: string | null;
-  lastResult: 'pass' | 'fail' | null;
+  lastResult: EmergencyTestResult | null;
   /** Due date, or null when no test was ever recorded (due now). */
   dueOn: string | null;
   state: 'ok' | 'due_soon' | 'overdue' | 'never_tested';

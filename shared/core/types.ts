@@ -66,8 +66,13 @@ export interface CoefficientSet {
 
 export type ReadingFlag = 'ok' | 'over_range' | 'under_range' | 'fault' | 'calibration_lapsed' | 'low_confidence';
 
-/** 'lower': the true value is at least lux; 'upper': at most lux. */
-export type LuxBound = 'exact' | 'lower' | 'upper';
+/** 'lower': the true value is at least lux; 'upper': at most lux. Stored codes. */
+export const LUX_BOUNDS = ['exact', 'lower', 'upper'] as const;
+export type LuxBound = (typeof LUX_BOUNDS)[number];
+
+/** A reading of the task (judged) or of the reference probe (daylight, drift). Stored codes. */
+export const READING_ROLES = ['task', 'reference'] as const;
+export type ReadingRole = (typeof READING_ROLES)[number];
 
 /**
  * meter_class: a hand-held meter's class limit (DIN 5032-7) standing in for a certificate;

@@ -3,6 +3,10 @@ import { singleLineText } from './text';
 import { ROLES } from '../roles';
 import { emailSchema, passwordSchema } from './common';
 
+/** What a one-time e-mailed token is for. Stored codes. */
+export const TOKEN_PURPOSES = ['invite', 'reset'] as const;
+export type TokenPurpose = (typeof TOKEN_PURPOSES)[number];
+
 export const loginBodySchema = z.object({
   email: emailSchema,
   password: z.string().min(1, 'Enter your password').max(200),
@@ -40,6 +44,6 @@ export const tokenInfoResponseSchema = z.object({
   email: z.string(),
   name: z.string(),
   organizationName: z.string(),
-  purpose: z.enum(['invite', 'reset']),
+  purpose: z.enum(TOKEN_PURPOSES),
 });
 export type TokenInfo = z.infer<typeof tokenInfoResponseSchema>;

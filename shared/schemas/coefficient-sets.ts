@@ -3,6 +3,8 @@ import { multiLineText, singleLineText } from './text';
 import { isoDateTimeSchema } from './common';
 
 export const COEFFICIENT_SET_STATUSES = ['draft', 'approved'] as const;
+/** A calibration reminder's reason: due within the warning window, or past due. Stored codes. */
+export const CALIBRATION_REMINDER_KINDS = ['due_soon', 'overdue'] as const;
 
 export const gainCoefficientsSchema = z.object({
   code: z.number().int().min(0).max(65535),
@@ -77,7 +79,7 @@ export const CERTIFICATE_MAX_BYTES = 10 * 1024 * 1024;
 
 export const reminderRunResponseSchema = z.object({
   messagesSent: z.number().int(),
-  reminded: z.array(z.object({ probeId: z.number().int(), serial: z.string(), kind: z.enum(['due_soon', 'overdue']), dueDate: z.string() })),
+  reminded: z.array(z.object({ probeId: z.number().int(), serial: z.string(), kind: z.enum(CALIBRATION_REMINDER_KINDS), dueDate: z.string() })),
   skippedRecentlyReminded: z.array(z.string()),
 });
 export type ReminderRunResponse = z.infer<typeof reminderRunResponseSchema>;

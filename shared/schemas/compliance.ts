@@ -1,9 +1,10 @@
 import { z } from 'zod';
 import { fieldPhotoSchema, zoneNoteSchema } from './field';
+import { LUX_BOUNDS } from '../core/types';
 import { READING_PLANES } from '../core/planes';
 import { DECISION_RULES } from './organization';
 import { TARGET_CONFIDENCE } from './targets';
-import { installationInfoSchema, SURVEY_STATUSES, surveyAbilitiesSchema } from './surveys';
+import { INSTALLATION_STATES, installationInfoSchema, SURVEY_STATUSES, surveyAbilitiesSchema } from './surveys';
 
 export const VERDICTS = ['meets', 'falls_short', 'inconclusive', 'not_assessed'] as const;
 export type ZoneVerdict = (typeof VERDICTS)[number];
@@ -174,7 +175,7 @@ export const zonePointSchema = z.object({
   timestamp: z.string(),
   lux: z.number().nullable(),
   uLux: z.number().nullable(),
-  luxBound: z.enum(['exact', 'lower', 'upper']),
+  luxBound: z.enum(LUX_BOUNDS),
   flag: z.string(),
   /** In the wall band: shown, left out of the statistics. */
   inWallBand: z.boolean(),
@@ -237,7 +238,7 @@ export const maintenanceZoneSchema = z.object({
   reachesTargetOn: z.string().nullable(),
   reason: z.string(),
   /** The zone's signed-off values, oldest first. */
-  trend: z.array(z.object({ surveyId: z.number().int(), surveyName: z.string(), date: z.string(), eavg: z.number(), verdict: z.enum(VERDICTS), installation: z.enum(['in_service', 'new']) })),
+  trend: z.array(z.object({ surveyId: z.number().int(), surveyName: z.string(), date: z.string(), eavg: z.number(), verdict: z.enum(VERDICTS), installation: z.enum(INSTALLATION_STATES) })),
 });
 export type MaintenanceZone = z.infer<typeof maintenanceZoneSchema>;
 export const maintenanceResponseSchema = z.object({ rule: z.string(), items: z.array(maintenanceZoneSchema) });

@@ -1,10 +1,11 @@
 import { z } from 'zod';
 import { multiLineText, singleLineText } from './text';
+import { LUX_BOUNDS } from '../core/types';
 import {
   EMERGENCY_ELEMENT_KINDS, EMERGENCY_PASSES, EMERGENCY_POINT_ROLES, EMERGENCY_SCOPES,
   type EmergencyCheck, type EmergencyCriteriaSet,
 } from '../core/emergency';
-import { EMERGENCY_TEST_KINDS } from '../core/emergency-schedule';
+import { EMERGENCY_TEST_KINDS, EMERGENCY_TEST_RESULTS } from '../core/emergency-schedule';
 
 export const ELEMENT_KIND_LABELS: Record<(typeof EMERGENCY_ELEMENT_KINDS)[number], string> = {
   escape_route: 'Escape route',
@@ -172,7 +173,7 @@ export const checkResultSchema = z.object({
 });
 export const pointResultSchema = z.object({
   label: z.string(), role: z.enum(EMERGENCY_POINT_ROLES), pass: z.enum(EMERGENCY_PASSES), lux: z.number().nullable(),
-  luxBound: z.enum(['exact', 'lower', 'upper']), uLux: z.number(), flag: z.string(), limitLux: z.number().nullable(), verdict: verdictEnum,
+  luxBound: z.enum(LUX_BOUNDS), uLux: z.number(), flag: z.string(), limitLux: z.number().nullable(), verdict: verdictEnum,
   xM: z.number().nullable(), yM: z.number().nullable(), readingId: z.number().int(),
 });
 
@@ -182,7 +183,7 @@ export const elementVerdictSchema = z.object({
   verdict: verdictEnum,
   checks: z.array(checkResultSchema),
   points: z.array(pointResultSchema),
-  worstPoint: z.object({ label: z.string(), pass: z.enum(EMERGENCY_PASSES), lux: z.number(), luxBound: z.enum(['exact', 'lower', 'upper']), uLux: z.number() }).nullable(),
+  worstPoint: z.object({ label: z.string(), pass: z.enum(EMERGENCY_PASSES), lux: z.number(), luxBound: z.enum(LUX_BOUNDS), uLux: z.number() }).nullable(),
   reasons: z.array(z.string()),
   response: responseTimesBodySchema.nullable(),
   /** Planned points with no reading in a pass. */
@@ -238,7 +239,7 @@ export const logbookEntryBodySchema = z.object({
   kind: z.enum(EMERGENCY_TEST_KINDS),
   testedOn: z.iso.date({ message: 'Use a date such as 2026-11-20' }),
   testedBy: singleLineText(z.string().trim().min(1, 'Say who tested').max(120)),
-  result: z.enum(['pass', 'fail']),
+  result: z.enum(EMERGENCY_TEST_RESULTS),
   /** Fittings that failed (codes or locations), one per entry. */
   failedFittings: z.array(singleLineText(z.string().trim().min(1).max(120))).max(500).default([]),
   remarks: multiLineText(z.string().trim().max(2000)).default(''),
@@ -248,12 +249,12 @@ export type LogbookEntryBody = z.input<typeof logbookEntryBodySchema>;
 
 export const logbookEntrySchema = z.object({
   id: z.number().int(), siteId: z.number().int(), kind: z.enum(EMERGENCY_TEST_KINDS), testedOn: z.string(), testedBy: z.string(),
-  result: z.enum(['pass', 'fail']), failedFittings: z.array(z.string()), remarks: z.string(), recordedByName: z.string().nullable(), createdAt: z.string(),
+  result: z.enum(EMERGENCY_TEST_RESULTS), failedFittings: z.array(z.string()), remarks: z.string(), recordedByName: z.string().nullable(), createdAt: z.string(),
 });
 export type LogbookEntry = z.infer<typeof logbookEntrySchema>;
 
 export const testDueSchema = z.object({
-  kind: z.enum(EMERGENCY_TEST_KINDS), lastTestedOn: z.string().nullable(), lastResult: z.enum(['pass', 'fail']).nullable(),
+  kind: z.enum(EMERGENCY_TEST_KINDS), lastTestedOn: z.string().nullable(), lastResult: z.enum(EMERGENCY_TEST_RESULTS).nullable(),
   dueOn: z.string().nullable(), state: z.enum(['ok', 'due_soon', 'overdue', 'never_tested']), daysOverdue: z.number().int(),
 });
 export type TestDueDto = z.infer<typeof testDueSchema>;

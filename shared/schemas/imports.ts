@@ -2,6 +2,14 @@ import { z } from 'zod';
 
 export const IMPORT_STATUSES = ['queued', 'running', 'done', 'failed'] as const;
 
+/**
+ * How a stored block of samples is laid out (`sample_blocks.encoding`): 'f64' the slots before
+ * readings had planes, 'f64p' with plane and azimuth (what imports write now), 'json' blocks
+ * moved from the earlier one-row-per-sample table. Stored codes: a new layout gets a new code.
+ */
+export const SAMPLE_ENCODINGS = ['f64', 'f64p', 'json'] as const;
+export type SampleEncoding = (typeof SAMPLE_ENCODINGS)[number];
+
 /** One problem with a log file: where (line in the file, column) and what is wrong with which value. */
 export const importProblemSchema = z.object({
   /** 1 is the header row; 0 means the file as a whole. */

@@ -3,6 +3,11 @@ import { GRID_ROUNDINGS, GRID_LAYOUTS, GRID_SURFACES, PLANNED_PLANES, WALL_HEIGH
 import { mapReadingSchema } from './plans';
 import { multiLineText } from './text';
 
+/** A planned point from the grid generator, or one added by hand. Stored codes. */
+export const POINT_ORIGINS = ['generated', 'added'] as const;
+/** A hand placement: 'placed' at a position, 'unplaced' (no position), 'as_logged' (the log's position, only an exclusion recorded). Stored codes. */
+export const PLACEMENT_STATES = ['placed', 'unplaced', 'as_logged'] as const;
+
 export { GRID_ROUNDINGS, GRID_LAYOUTS, GRID_SURFACES };
 
 export const GRID_ROUNDING_LABELS: Record<(typeof GRID_ROUNDINGS)[number], string> = {
@@ -87,7 +92,7 @@ export const plannedPointSchema = z.object({
   heightM: z.number().nullable(),
   /** A wall point's facing, degrees clockwise from the plan's up. */
   azimuthDeg: z.number().nullable(),
-  origin: z.enum(['generated', 'added']),
+  origin: z.enum(POINT_ORIGINS),
   /** Readings of the current decode that name this point (label) or were placed on it. */
   readingCount: z.number().int(),
 });

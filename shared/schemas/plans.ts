@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { singleLineText } from './text';
+import { LUX_BOUNDS, READING_ROLES } from '../core/types';
 
 /** Largest plan image accepted, bytes; larger plans are better exported at a lower resolution. */
 export const PLAN_IMAGE_MAX_BYTES = 25 * 1024 * 1024;
@@ -72,11 +73,11 @@ export const mapReadingSchema = z.object({
   point: z.string(),
   xM: z.number(),
   yM: z.number(),
-  role: z.enum(['task', 'reference']),
+  role: z.enum(READING_ROLES),
   lux: z.number().nullable(),
   /** Expanded uncertainty U (k = 2), lux. */
   uLux: z.number().nullable(),
-  luxBound: z.enum(['exact', 'lower', 'upper']),
+  luxBound: z.enum(LUX_BOUNDS),
   flag: readingFlag,
   timestamp: z.string(),
   probe: z.string(),

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { LUX_BOUNDS, READING_ROLES } from '../core/types';
 import { READING_PLANES } from '../core/planes';
 import { singleLineText } from './text';
 import type { ReadingFlag as CoreReadingFlag } from '../core/types';
@@ -40,14 +41,14 @@ export const readingSchema = z.object({
   yM: z.number().nullable(),
   /** The plan xM, yM refer to; null when the log did not say and the site has several plans. */
   planId: z.number().int().nullable(),
-  role: z.enum(['task', 'reference']),
+  role: z.enum(READING_ROLES),
   timestamp: z.string(),
   probe: z.string(),
   /** Lux; for over/under range the bound (see luxBound); null for a fault. */
   lux: z.number().nullable(),
   /** Expanded uncertainty U (k = 2), lux. */
   uLux: z.number().nullable(),
-  luxBound: z.enum(['exact', 'lower', 'upper']),
+  luxBound: z.enum(LUX_BOUNDS),
   flag: z.enum(READING_FLAGS),
   gainCode: z.number().int().nullable(),
   samples: z.number().int(),
@@ -73,7 +74,7 @@ export type ReadingsResponse = z.infer<typeof readingsResponseSchema>;
 
 /** The walk over time, thinned for a chart: every flagged reading is kept. */
 export const readingSeriesSchema = z.object({
-  items: z.array(z.object({ t: z.number(), lux: z.number().nullable(), gainCode: z.number().int().nullable(), flag: z.enum(READING_FLAGS), role: z.enum(['task', 'reference']), point: z.string() })),
+  items: z.array(z.object({ t: z.number(), lux: z.number().nullable(), gainCode: z.number().int().nullable(), flag: z.enum(READING_FLAGS), role: z.enum(READING_ROLES), point: z.string() })),
   total: z.number().int(),
 });
 export type ReadingSeries = z.infer<typeof readingSeriesSchema>;
@@ -87,7 +88,7 @@ export type RedecodeResponse = z.infer<typeof redecodeResponseSchema>;
 export const decodedValueSchema = z.object({
   lux: z.number().nullable(),
   uLux: z.number().nullable(),
-  luxBound: z.enum(['exact', 'lower', 'upper']),
+  luxBound: z.enum(LUX_BOUNDS),
   flag: z.enum(READING_FLAGS),
   coefficientSetId: z.number().int().nullable(),
   coefficientSetVersion: z.number().int().nullable(),

@@ -4,6 +4,8 @@ import { GRID_ROUNDINGS } from '../spatial/measurement-grid';
 import { multiLineText, singleLineText } from './text';
 
 export const SURVEY_STATUSES = ['draft', 'submitted', 'signed_off', 'returned'] as const;
+/** A survey of an installation in service, or a new one (judged against maintained values via MF). Stored codes. */
+export const INSTALLATION_STATES = ['in_service', 'new'] as const;
 export type SurveyStatus = (typeof SURVEY_STATUSES)[number];
 
 /** What a person may do with a survey now; decided by shared/survey-abilities.ts, carried in survey answers. */
@@ -48,7 +50,7 @@ export type InstallationInput = z.infer<typeof installationSchema>;
 
 /** As stored and answered: the factor is always given for a new installation. */
 export const installationInfoSchema = z.object({
-  state: z.enum(['in_service', 'new']),
+  state: z.enum(INSTALLATION_STATES),
   maintenanceFactor: z.number().nullable(),
   parts: mfPartsSchema.nullable(),
 });

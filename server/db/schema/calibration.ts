@@ -2,7 +2,7 @@ import { METER_CLASSES } from '@shared/core/typed-readings';
 import { sqliteTable, integer, text, real, uniqueIndex, index } from 'drizzle-orm/sqlite-core';
 import { organizations, users, storedFiles } from './organizations';
 import { ANALOG_SCALES, PROBE_KINDS, PROBE_STATUSES } from '@shared/schemas/probes';
-import { COEFFICIENT_SET_STATUSES } from '@shared/schemas/coefficient-sets';
+import { CALIBRATION_REMINDER_KINDS, COEFFICIENT_SET_STATUSES } from '@shared/schemas/coefficient-sets';
 
 export type GainStepRow = { code: number; nominalGain: number };
 /** uDarkCounts: standard uncertainty of the dark offset, counts (from a bench fit); absent: the core's default. */
@@ -67,6 +67,6 @@ export const coefficientSets = sqliteTable('coefficient_sets', {
 export const calibrationReminders = sqliteTable('calibration_reminders', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   probeId: integer('probe_id').notNull().references(() => probes.id),
-  kind: text('kind', { enum: ['due_soon', 'overdue'] }).notNull(),
+  kind: text('kind', { enum: CALIBRATION_REMINDER_KINDS }).notNull(),
   sentAt: integer('sent_at').notNull(),
 }, (t) => [index('reminders_probe_idx').on(t.probeId, t.sentAt)]);

@@ -4,7 +4,7 @@ import { logImports, surveys } from './surveys';
 import { sites } from './sites';
 import { plans } from './plans';
 import type { EmergencyCheck, EmergencyPass } from '@shared/core/emergency';
-import { EMERGENCY_TEST_KINDS } from '@shared/core/emergency-schedule';
+import { EMERGENCY_TEST_KINDS, EMERGENCY_TEST_RESULTS, TEST_REMINDER_STATES } from '@shared/core/emergency-schedule';
 import { EQUIPMENT_KINDS, SYSTEM_TYPES } from '@shared/schemas/emergency';
 import { EMERGENCY_ELEMENT_KINDS, EMERGENCY_PASSES } from '@shared/core/emergency';
 
@@ -73,7 +73,7 @@ export const emergencyTests = sqliteTable('emergency_tests', {
   /** Calendar date in the site's time zone. */
   testedOn: text('tested_on').notNull(),
   testedBy: text('tested_by').notNull(),
-  result: text('result', { enum: ['pass', 'fail'] }).notNull(),
+  result: text('result', { enum: EMERGENCY_TEST_RESULTS }).notNull(),
   failedFittings: text('failed_fittings', { mode: 'json' }).$type<string[]>().notNull(),
   remarks: text('remarks').notNull(),
   recordedBy: integer('recorded_by').references(() => users.id),
@@ -92,7 +92,7 @@ export const emergencyTestReminders = sqliteTable('emergency_test_reminders', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   siteId: integer('site_id').notNull().references(() => sites.id),
   kind: text('kind', { enum: EMERGENCY_TEST_KINDS }).notNull(),
-  state: text('state', { enum: ['due_soon', 'overdue'] }).notNull(),
+  state: text('state', { enum: TEST_REMINDER_STATES }).notNull(),
   sentAt: integer('sent_at').notNull(),
 }, (t) => [index('emergency_test_reminders_site_idx').on(t.siteId, t.sentAt)]);
 

@@ -4,6 +4,7 @@ import { surveys } from './surveys';
 import { plans, zones } from './plans';
 import { probes } from './calibration';
 import { GRID_LAYOUTS, GRID_ROUNDINGS, GRID_SURFACES, PLANNED_PLANES } from '@shared/spatial/measurement-grid';
+import { PLACEMENT_STATES, POINT_ORIGINS } from '@shared/schemas/planned-points';
 
 export type GeneratedPoint = { label: string; xM: number; yM: number };
 
@@ -51,7 +52,7 @@ export const plannedPoints = sqliteTable('planned_points', {
   heightM: real('height_m'),
   /** Direction a wall point's sensor faces, degrees clockwise from the plan's up; null elsewhere. */
   azimuthDeg: real('azimuth_deg'),
-  origin: text('origin', { enum: ['generated', 'added'] }).notNull(),
+  origin: text('origin', { enum: POINT_ORIGINS }).notNull(),
   createdAt: integer('created_at').notNull(),
 }, (t) => [uniqueIndex('planned_points_label_uq').on(t.surveyId, t.labelKey), index('planned_points_plan_idx').on(t.surveyId, t.planId)]);
 
@@ -67,7 +68,7 @@ export const readingPlacements = sqliteTable('reading_placements', {
   point: text('point').notNull(),
   probeId: integer('probe_id').notNull().references(() => probes.id),
   timeMs: integer('time_ms').notNull(),
-  state: text('state', { enum: ['placed', 'unplaced', 'as_logged'] }).notNull(),
+  state: text('state', { enum: PLACEMENT_STATES }).notNull(),
   planId: integer('plan_id').references(() => plans.id),
   xM: real('x_m'),
   yM: real('y_m'),

@@ -5,11 +5,14 @@ import { sqliteTable, integer, text, index } from 'drizzle-orm/sqlite-core';
  * change that needs it, so the work survives a crash after the commit; the runner retries with
  * back-off until `maxAttempts`, then marks it failed.
  */
+/** A job's state. Stored codes; the server alone reads them, so this is their one home. */
+export const JOB_STATUSES = ['queued', 'running', 'done', 'failed'] as const;
+
 export const jobs = sqliteTable('jobs', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   name: text('name').notNull(),
   data: text('data', { mode: 'json' }).notNull(),
-  status: text('status', { enum: ['queued', 'running', 'done', 'failed'] }).notNull().default('queued'),
+  status: text('status', { enum: JOB_STATUSES }).notNull().default('queued'),
   attempts: integer('attempts').notNull().default(0),
   maxAttempts: integer('max_attempts').notNull(),
   runAt: integer('run_at').notNull(),

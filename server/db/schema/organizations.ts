@@ -1,7 +1,9 @@
 import { sqliteTable, integer, text, blob, primaryKey, index } from 'drizzle-orm/sqlite-core';
 import type { Role } from '@shared/roles';
-import { USER_STATUSES } from '@shared/schemas/users';
+import { OUTBOX_STATUSES, USER_STATUSES } from '@shared/schemas/users';
 import { DECISION_RULES } from '@shared/schemas/organization';
+import { TOKEN_PURPOSES } from '@shared/schemas/auth';
+import { GRID_ROUNDINGS } from '@shared/core/zone-stats';
 
 /** Times are stored as integer milliseconds since the epoch (UTC) throughout. */
 export const organizations = sqliteTable('organizations', {
@@ -10,7 +12,7 @@ export const organizations = sqliteTable('organizations', {
   /** Decision rule for verdicts: simple acceptance or guarded by U (ILAC-G8:2019). */
   decisionRule: text('decision_rule', { enum: DECISION_RULES }).notNull().default('guarded'),
   /** Default rounding of EN 12464-1 grid points per side for new surveys (shared/core GridRounding). */
-  gridRounding: text('grid_rounding', { enum: ['next_higher', 'nearest'] }).notNull().default('next_higher'),
+  gridRounding: text('grid_rounding', { enum: GRID_ROUNDINGS }).notNull().default('next_higher'),
   createdAt: integer('created_at').notNull(),
 });
 
@@ -35,7 +37,7 @@ export const userSites = sqliteTable('user_sites', {
 export const tokens = sqliteTable('tokens', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   userId: integer('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
-  purpose: text('purpose', { enum: ['invite', 'reset'] }).notNull(),
+  purpose: text('purpose', { enum: TOKEN_PURPOSES }).notNull(),
   tokenHash: text('token_hash').notNull().unique(),
   expiresAt: integer('expires_at').notNull(),
   usedAt: integer('used_at'),
@@ -63,7 +65,7 @@ export const outboxMessages = sqliteTable('outbox_messages', {
   text: text('text').notNull(),
   html: text('html'),
   createdAt: integer('created_at').notNull(),
-  status: text('status', { enum: ['queued', 'sent', 'failed'] }).notNull().default('sent'),
+  status: text('status', { enum: OUTBOX_STATUSES }).notNull().default('sent'),
   attempts: integer('attempts').notNull().default(0),
   lastError: text('last_error'),
   /** When the runner tries again after a failed attempt (null when not waiting). */

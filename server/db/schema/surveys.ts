@@ -3,8 +3,10 @@ import { organizations, users, storedFiles } from './organizations';
 import { probes } from './calibration';
 import { plans } from './plans';
 import { sites } from './sites';
-import { SURVEY_STATUSES } from '@shared/schemas/surveys';
-import { IMPORT_STATUSES } from '@shared/schemas/imports';
+import { INSTALLATION_STATES, SURVEY_STATUSES } from '@shared/schemas/surveys';
+import { IMPORT_STATUSES, SAMPLE_ENCODINGS } from '@shared/schemas/imports';
+import { LUX_BOUNDS, READING_ROLES } from '@shared/core/types';
+import { GRID_ROUNDINGS } from '@shared/core/zone-stats';
 import { READING_FLAGS } from '@shared/schemas/readings';
 import { READING_PLANES } from '@shared/core/planes';
 
@@ -22,7 +24,7 @@ export const surveys = sqliteTable('surveys', {
   conditions: text('conditions', { mode: 'json' }).$type<SurveyConditions>(),
   status: text('status', { enum: SURVEY_STATUSES }).notNull().default('draft'),
   /** A new installation is judged against Em / MF; one in service against Em. */
-  installation: text('installation', { enum: ['in_service', 'new'] }).notNull().default('in_service'),
+  installation: text('installation', { enum: INSTALLATION_STATES }).notNull().default('in_service'),
   maintenanceFactor: real('maintenance_factor'),
   mfParts: text('mf_parts', { mode: 'json' }).$type<MaintenanceFactorParts>(),
   /** The decode whose readings are current; earlier decodes stay recorded. */
@@ -35,7 +37,7 @@ export const surveys = sqliteTable('surveys', {
   /** What a sign-off was judged against: targets, rule, coefficient sets, verdicts. */
   frozen: text('frozen', { mode: 'json' }),
   /** The grid rounding this survey is planned and judged with (the organisation's default when created). */
-  gridRounding: text('grid_rounding', { enum: ['next_higher', 'nearest'] }).notNull().default('next_higher'),
+  gridRounding: text('grid_rounding', { enum: GRID_ROUNDINGS }).notNull().default('next_higher'),
   createdBy: integer('created_by').references(() => users.id),
   createdAt: integer('created_at').notNull(),
 }, (t) => [index('surveys_site_idx').on(t.siteId), index('surveys_org_idx').on(t.organizationId)]);
@@ -81,7 +83,7 @@ export const sampleBlocks = sqliteTable('sample_blocks', {
   surveyId: integer('survey_id').notNull(),
   firstLine: integer('first_line').notNull(),
   rowCount: integer('row_count').notNull(),
-  encoding: text('encoding', { enum: ['f64', 'f64p', 'json'] }).notNull(),
+  encoding: text('encoding', { enum: SAMPLE_ENCODINGS }).notNull(),
   strings: text('strings'),
   data: blob('data', { mode: 'buffer' }).notNull(),
 }, (t) => [index('sample_blocks_import_idx').on(t.importId)]);
@@ -99,7 +101,7 @@ export const readings = sqliteTable('readings', {
   yM: real('y_m'),
   /** The plan x_m, y_m refer to (from its samples); null: the reading cannot be placed. */
   planId: integer('plan_id').references((): AnySQLiteColumn => plans.id),
-  role: text('role', { enum: ['task', 'reference'] }).notNull(),
+  role: text('role', { enum: READING_ROLES }).notNull(),
   /** Where the sensor faced: the horizontal working plane, a vertical plane (with azimuthDeg), a wall or a ceiling. */
   plane: text('plane', { enum: READING_PLANES }).notNull().default('horizontal'),
   /** Direction a vertical reading faced, degrees clockwise from the plan's +y axis. */
@@ -108,7 +110,7 @@ export const readings = sqliteTable('readings', {
   probeId: integer('probe_id').notNull().references(() => probes.id),
   lux: real('lux'),
   uLux: real('u_lux'),
-  luxBound: text('lux_bound', { enum: ['exact', 'lower', 'upper'] }).notNull(),
+  luxBound: text('lux_bound', { enum: LUX_BOUNDS }).notNull(),
   flag: text('flag', { enum: READING_FLAGS }).notNull(),
   gainCode: integer('gain_code'),
   sampleCount: integer('sample_count').notNull(),

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import type { Api } from '../../http/api';
 import type { Deps } from '../../deps';
 import { idParamsSchema } from '@shared/schemas/common';
+import { EMERGENCY_TEST_KINDS, TEST_REMINDER_STATES } from '@shared/core/emergency-schedule';
 import {
   createEmergencySurveyBodySchema, criteriaSetBodySchema, criteriaSetKeyParamsSchema, criteriaSetListSchema, criteriaSetSchema, elementResponseParamsSchema,
   emergencyElementBodySchema, emergencyElementListSchema, emergencyElementSchema, emergencySurveyListQuerySchema, emergencySurveyListSchema,
@@ -15,7 +16,7 @@ import { addLogbookEntry, scheduleOf, setSchedule, siteLogbook, testsDueOverview
 import { runEmergencyTestReminders } from './test-reminders-service';
 import { emergencyReportPdf, registerEmergencyReportAttachment } from './emergency-report';
 
-const reminderRunSchema = z.object({ messagesSent: z.number().int(), reminded: z.array(z.object({ siteId: z.number().int(), kind: z.enum(['functional', 'full_duration']), state: z.enum(['due_soon', 'overdue']), dueOn: z.string() })) });
+const reminderRunSchema = z.object({ messagesSent: z.number().int(), reminded: z.array(z.object({ siteId: z.number().int(), kind: z.enum(EMERGENCY_TEST_KINDS), state: z.enum(TEST_REMINDER_STATES), dueOn: z.string() })) });
 
 /** Emergency lighting: elements on plans, criteria sets, emergency surveys and verdicts, the test logbook, the report. */
 export function registerEmergencyRoutes(api: Api, deps: Deps) {

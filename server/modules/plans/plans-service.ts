@@ -14,6 +14,7 @@ import { conflict, notFound, unprocessable } from '../../http/errors';
 import { keepUploadedFile, sniffFile, storedPath } from '../../lib/file-store';
 import { recordAudit } from '../audit/audit-service';
 import { siteScope } from '../users/users-service';
+import { apiFiles } from '@shared/paths';
 
 type PlanRow = typeof plans.$inferSelect;
 
@@ -48,7 +49,7 @@ function presentPlans(db: Db, rows: PlanRow[]): Plan[] {
       id: r.id, siteId: r.siteId, name: r.name, widthPx: r.widthPx, heightPx: r.heightPx, metresPerPixel: r.metresPerPixel,
       widthM: extent?.widthM ?? null, heightM: extent?.heightM ?? null,
       // The content hash in the address: a replaced image is a new URL, so no cache shows the old one.
-      imageUrl: `/api/plans/${r.id}/image?v=${file.sha256.slice(0, 16)}`, imageSha256: file.sha256, contentType: file.contentType,
+      imageUrl: apiFiles.planImage(r.id, file.sha256), imageSha256: file.sha256, contentType: file.contentType,
       zoneCount: counts.find((c) => c.planId === r.id)?.n ?? 0,
       createdAt: new Date(r.createdAt).toISOString(),
     };

@@ -2,7 +2,8 @@ import { Link, useNavigate, useParams } from 'react-router';
 import { AlertTriangle, FileDown } from 'lucide-react';
 import { can } from '@shared/policy';
 import { useCurrentUser } from '@/app/current-user';
-import { benchRunFileUrl, useBenchRun } from '@/features/calibration/api/get-bench-run';
+import { useBenchRun } from '@/features/calibration/api/get-bench-run';
+import { apiFiles } from '@shared/paths';
 import { useProbe } from '@/features/calibration/api/get-probe';
 import { BenchFitCharts, BenchFitTable } from '@/features/calibration/components/bench-fit-view';
 import { BenchDraftForm } from '@/features/calibration/components/bench-draft-form';
@@ -29,7 +30,7 @@ export function BenchRunRoute() {
             <>
               <PageHeader eyebrow={<Link to={paths.probe.to(r.probeId)} className="hover:underline">{probe.data?.serial ?? 'Probe'}</Link>}
                 title={`Bench run #${r.id}`} description={`${r.filename} · ${r.rowCount} rows · uploaded by ${r.createdBy ?? 'unknown'} on ${formatInstant(r.createdAt)} · tref ${r.options.tRefMs} ms, reference u rel ${(r.options.referenceURel * 100).toFixed(2)} %`}
-                actions={<a href={benchRunFileUrl(r.id)} className="inline-flex items-center gap-2 rounded-lg bg-white px-4 py-2 text-sm font-medium text-ink-900 ring-1 ring-inset ring-ink-200 hover:bg-ink-50"><FileDown className="h-4 w-4" aria-hidden />Raw file</a>} />
+                actions={<a href={apiFiles.benchRunFile(r.id)} className="inline-flex items-center gap-2 rounded-lg bg-white px-4 py-2 text-sm font-medium text-ink-900 ring-1 ring-inset ring-ink-200 hover:bg-ink-50"><FileDown className="h-4 w-4" aria-hidden />Raw file</a>} />
               <div className="space-y-6">
                 {r.issues.length > 0 && (
                   <div role="status" className="rounded-lg bg-lamp-50 p-4 text-sm text-lamp-900 ring-1 ring-inset ring-lamp-200">

@@ -1,5 +1,5 @@
 import { Link, useParams } from 'react-router';
-import { paths } from '@shared/paths';
+import { apiFiles, paths } from '@shared/paths';
 import { FileDown } from 'lucide-react';
 import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { Page, PageHeader } from '@/components/ui/page';
@@ -32,7 +32,7 @@ export function EmergencySurveyRoute() {
         {(s) => (
           <>
             <PageHeader eyebrow={<Link to={paths.emergency.to()} className="underline">Emergency lighting</Link>} title={s.name} description={`${s.siteName} · ${s.status.replace('_', ' ')}`}
-              actions={<a className="inline-flex items-center gap-2 rounded-lg bg-ink-900 px-3 py-2 text-sm font-medium text-white" href={`/api/emergency/surveys/${s.surveyId}/report.pdf?unit=${unit}`} download><FileDown className="h-4 w-4" aria-hidden />Report (PDF)</a>} />
+              actions={<a className="inline-flex items-center gap-2 rounded-lg bg-ink-900 px-3 py-2 text-sm font-medium text-white" href={apiFiles.emergencyReportPdf(s.surveyId, unit)} download><FileDown className="h-4 w-4" aria-hidden />Report (PDF)</a>} />
             <div className="space-y-6">
               <EmergencyCaution />
               <SurveySummary survey={s} />

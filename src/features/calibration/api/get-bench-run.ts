@@ -6,6 +6,3 @@ import { benchRunKeys } from '@/lib/query-keys';
 export const getBenchRun = (id: number) => api.get<BenchRunDetailDto>(`/bench-runs/${id}`);
 export const benchRunQueryOptions = (id: number) => queryOptions({ queryKey: benchRunKeys.detail(id), queryFn: () => getBenchRun(id) });
 export const useBenchRun = (id: number) => useQuery(benchRunQueryOptions(id));
-
-/** The raw bench file as uploaded. */
-export const benchRunFileUrl = (id: number) => `/api/bench-runs/${id}/file`;

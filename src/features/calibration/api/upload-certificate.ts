@@ -9,9 +9,6 @@ export const uploadCertificate = ({ id, file }: { id: number; file: File }) => {
   return api.upload<CoefficientSetDto>(`/coefficient-sets/${id}/certificate`, form);
 };
 
-/** Where the certificate PDF downloads from (a plain link: the browser handles the file). */
-export const certificateUrl = (id: number) => `/api/coefficient-sets/${id}/certificate`;
-
 export function useUploadCertificate() {
   const invalidate = useInvalidateCalibration();
   return useMutation({ mutationFn: uploadCertificate, onSuccess: (s) => invalidate(s.probeId) });

@@ -7,7 +7,8 @@ import { ConfirmAction } from '@/components/ui/confirm-action';
 import { FormError } from '@/components/ui/form-error';
 import { useApproveCoefficientSet } from '../api/approve-coefficient-set';
 import { useDiscardCoefficientSet } from '../api/discard-coefficient-set';
-import { certificateUrl, useUploadCertificate } from '../api/upload-certificate';
+import { useUploadCertificate } from '../api/upload-certificate';
+import { apiFiles } from '@shared/paths';
 import { GainCoefficientsTable } from './gain-coefficients-table';
 import { formatDueDate, formatInstant, sig } from './format';
 
@@ -39,7 +40,7 @@ function SetCard({ set, userId, canWrite, canApprove }: { set: CoefficientSetDto
         </div>
         <div className="flex flex-wrap gap-2">
           {set.certificate && (
-            <a href={certificateUrl(set.id)} className="inline-flex items-center gap-1.5 rounded-lg px-2.5 py-1.5 text-sm font-medium text-ink-700 ring-1 ring-inset ring-ink-200 hover:bg-ink-50">
+            <a href={apiFiles.certificate(set.id)} className="inline-flex items-center gap-1.5 rounded-lg px-2.5 py-1.5 text-sm font-medium text-ink-700 ring-1 ring-inset ring-ink-200 hover:bg-ink-50">
               <FileDown className="h-4 w-4" aria-hidden />Certificate PDF
             </a>
           )}

@@ -9,7 +9,7 @@ import { SelectField, TextField } from '@/components/ui/field';
 import { Badge } from '@/components/ui/badge';
 import { FormError } from '@/components/ui/form-error';
 import { useCreatePlannedPoint, useDeletePlannedPoint, useGenerateGrid, useJustifyGrid, useMovePlannedPoint } from '../api/edit-planned-points';
-import { plannedPointsCsvUrl, walkSheetUrl } from '../api/walk-sheet-links';
+import { apiFiles } from '@shared/paths';
 
 type Props = {
   surveyId: number;
@@ -47,10 +47,10 @@ export function GridPanel({ surveyId, planId, zones, data, editable, selected, o
       <CardHeader title="Planned points" description={`${pointsHere.length} planned on this plan, ${pointsHere.filter((p) => p.readingCount > 0).length} with a reading. ${data.roundingText}.`} />
       <CardBody className="space-y-4">
         {data.items.length > 0 && <div className="flex flex-wrap gap-2">
-          <a className="inline-flex items-center gap-2 rounded-lg bg-white px-2.5 py-1.5 text-sm font-medium ring-1 ring-inset ring-ink-200 hover:bg-ink-50" href={walkSheetUrl(surveyId)} download data-testid="walk-sheet-link">
+          <a className="inline-flex items-center gap-2 rounded-lg bg-white px-2.5 py-1.5 text-sm font-medium ring-1 ring-inset ring-ink-200 hover:bg-ink-50" href={apiFiles.walkSheetPdf(surveyId)} download data-testid="walk-sheet-link">
             <FileText className="h-4 w-4" aria-hidden />Walk sheet (PDF)
           </a>
-          <a className="inline-flex items-center gap-2 rounded-lg bg-white px-2.5 py-1.5 text-sm font-medium ring-1 ring-inset ring-ink-200 hover:bg-ink-50" href={plannedPointsCsvUrl(surveyId)} download>
+          <a className="inline-flex items-center gap-2 rounded-lg bg-white px-2.5 py-1.5 text-sm font-medium ring-1 ring-inset ring-ink-200 hover:bg-ink-50" href={apiFiles.plannedPointsCsv(surveyId)} download>
             <Download className="h-4 w-4" aria-hidden />Planned points (CSV)
           </a>
         </div>}

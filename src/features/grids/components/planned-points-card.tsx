@@ -1,11 +1,10 @@
 import type { ReactNode } from 'react';
 import { Link } from 'react-router';
 import { Download, FileText, MapPin } from 'lucide-react';
-import { paths } from '@shared/paths';
+import { apiFiles, paths } from '@shared/paths';
 import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { QueryState } from '@/components/ui/states';
 import { usePlannedPoints } from '../api/get-planned-points';
-import { plannedPointsCsvUrl, walkSheetUrl } from '../api/walk-sheet-links';
 import type { PlannedPoint } from '@shared/schemas/planned-points';
 
 const LINK = 'inline-flex items-center gap-2 rounded-lg bg-white px-2.5 py-1.5 text-sm font-medium ring-1 ring-inset ring-ink-200 hover:bg-ink-50';
@@ -20,8 +19,8 @@ export function PlannedPointsCard({ surveyId, plans }: { surveyId: number; plans
         description="The measurement grid of each zone (EN 12464-1), planned on the survey map."
         // The walk sheet and CSV exist once points are planned (409 before).
         actions={(query.data?.items.length ?? 0) > 0 && <>
-          <a className={LINK} href={walkSheetUrl(surveyId)} download data-testid="walk-sheet-link"><FileText className="h-4 w-4" aria-hidden />Walk sheet (PDF)</a>
-          <a className={LINK} href={plannedPointsCsvUrl(surveyId)} download><Download className="h-4 w-4" aria-hidden />CSV</a>
+          <a className={LINK} href={apiFiles.walkSheetPdf(surveyId)} download data-testid="walk-sheet-link"><FileText className="h-4 w-4" aria-hidden />Walk sheet (PDF)</a>
+          <a className={LINK} href={apiFiles.plannedPointsCsv(surveyId)} download><Download className="h-4 w-4" aria-hidden />CSV</a>
         </>}
       />
       <CardBody>

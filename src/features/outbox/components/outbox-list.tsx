@@ -3,6 +3,7 @@ import { AlertTriangle, CheckCircle2, Clock, Paperclip } from 'lucide-react';
 import type { OutboxMessage, OutboxStatus } from '@shared/schemas/users';
 import { cx } from '@/components/ui/cx';
 import { formatDateTime } from '@shared/datetime';
+import { apiFiles } from '@shared/paths';
 import { Badge, type Tone } from '@/components/ui/badge';
 
 const STATUS: Record<OutboxStatus, { label: string; tone: Tone; icon: ReactNode }> = {
@@ -57,7 +58,7 @@ export function OutboxList({ messages }: { messages: OutboxMessage[] }) {
                   <ul className="mt-3 flex flex-wrap gap-2">
                     {m.attachments.map((a) => (
                       <li key={a.id}>
-                        <a href={`/api/outbox/attachments/${a.id}`} className="inline-flex items-center gap-1 rounded-md bg-ink-100 px-2 py-1 text-xs font-medium text-ink-800 hover:bg-ink-200">
+                        <a href={apiFiles.outboxAttachment(a.id)} className="inline-flex items-center gap-1 rounded-md bg-ink-100 px-2 py-1 text-xs font-medium text-ink-800 hover:bg-ink-200">
                           <Paperclip className="h-3.5 w-3.5" aria-hidden />{a.filename} <span className="text-ink-500">({Math.ceil(a.size / 1024)} KiB)</span>
                         </a>
                       </li>

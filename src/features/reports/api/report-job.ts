@@ -17,5 +17,3 @@ export const reportJobQueryOptions = (id: string) => queryOptions({
 });
 export const useReportJob = (id: string | null) => useQuery({ ...reportJobQueryOptions(id ?? ''), enabled: id !== null });
 
-/** Where a finished job's PDF downloads from. */
-export const reportJobFileUrl = (id: string) => `/api/report-jobs/${id}/file`;

@@ -21,7 +21,7 @@ import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { ConfirmAction } from '@/components/ui/confirm-action';
 import { FormError } from '@/components/ui/form-error';
 import { QueryState } from '@/components/ui/states';
-import { paths } from '@shared/paths';
+import { apiFiles, paths } from '@shared/paths';
 
 function Summary({ survey }: { survey: SurveyDetail }) {
   const flagged = READING_FLAGS.filter((f) => f !== 'ok' && survey.flagCounts[f]);
@@ -124,7 +124,7 @@ export function SurveyPage({ surveyId, role, sitePlans, plannedPoints }: {
                 <CardHeader
                   title="Readings"
                   description="U is the expanded uncertainty (k = 2, about 95 %). ≥ marks an over-range lower bound, ≤ an under-range upper bound."
-                  actions={<a className="inline-flex items-center gap-2 rounded-lg bg-white px-2.5 py-1.5 text-sm font-medium ring-1 ring-inset ring-ink-200 hover:bg-ink-50" href={`/api/surveys/${s.id}/readings.csv?unit=${units.unit === 'fc' ? 'fc' : 'lux'}`} download><Download className="h-4 w-4" aria-hidden />Export CSV ({units.label})</a>}
+                  actions={<a className="inline-flex items-center gap-2 rounded-lg bg-white px-2.5 py-1.5 text-sm font-medium ring-1 ring-inset ring-ink-200 hover:bg-ink-50" href={apiFiles.surveyReadingsCsv(s.id, units.unit === 'fc' ? 'fc' : 'lux')} download><Download className="h-4 w-4" aria-hidden />Export CSV ({units.label})</a>}
                 />
                 <ReadingsTable surveyId={s.id} timeZone={s.siteTimeZone} />
               </Card>
