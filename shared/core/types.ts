@@ -64,7 +64,9 @@ export interface CoefficientSet {
   approved?: boolean;
 }
 
-export type ReadingFlag = 'ok' | 'over_range' | 'under_range' | 'fault' | 'calibration_lapsed' | 'low_confidence';
+/** A reading's flag. Stored codes (readings.flag and the index in a batch's numbers): append only. */
+export const READING_FLAGS = ['ok', 'over_range', 'under_range', 'fault', 'calibration_lapsed', 'low_confidence'] as const;
+export type ReadingFlag = (typeof READING_FLAGS)[number];
 
 /** 'lower': the true value is at least lux; 'upper': at most lux. Stored codes. */
 export const LUX_BOUNDS = ['exact', 'lower', 'upper'] as const;
@@ -75,10 +77,12 @@ export const READING_ROLES = ['task', 'reference'] as const;
 export type ReadingRole = (typeof READING_ROLES)[number];
 
 /**
+ * The parts an uncertainty budget can have, in the order the core lists them (and stores them).
  * meter_class: a hand-held meter's class limit (DIN 5032-7) standing in for a certificate;
  * repeatability: the spread of several values typed at one point (standard deviation of their mean).
  */
-export type BudgetPartName = 'calibration' | 'quantisation' | 'dark_offset' | 'temperature' | 'transmitter' | 'meter_class' | 'repeatability';
+export const BUDGET_PART_NAMES = ['calibration', 'quantisation', 'dark_offset', 'temperature', 'transmitter', 'meter_class', 'repeatability'] as const;
+export type BudgetPartName = (typeof BUDGET_PART_NAMES)[number];
 
 /** One relative standard uncertainty (k = 1) of a reading's budget. */
 export interface BudgetPart {

@@ -1,14 +1,7 @@
 import { z } from 'zod';
-import { LUX_BOUNDS, READING_ROLES } from '../core/types';
+import { LUX_BOUNDS, READING_FLAGS, READING_ROLES, type ReadingFlag } from '../core/types';
 import { READING_PLANES } from '../core/planes';
 import { singleLineText } from './text';
-import type { ReadingFlag as CoreReadingFlag } from '../core/types';
-
-export const READING_FLAGS = ['ok', 'over_range', 'under_range', 'fault', 'calibration_lapsed', 'low_confidence'] as const;
-export type ReadingFlag = (typeof READING_FLAGS)[number];
-// The API's flags are the core's flags: the compiler refuses a flag added on one side only.
-type SameFlags<A, B> = [A] extends [B] ? ([B] extends [A] ? true : never) : never;
-export const FLAGS_MATCH_CORE: SameFlags<ReadingFlag, CoreReadingFlag> = true;
 
 export const READING_FLAG_LABELS: Record<ReadingFlag, string> = {
   ok: 'OK',

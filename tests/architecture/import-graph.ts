@@ -23,8 +23,7 @@ export function importGraph(root: string, dirs: string[]): Map<string, string[]>
       if (!spec) continue;
       const resolved = ts.resolveModuleName(spec, file, options, ts.sys).resolvedModule?.resolvedFileName;
       if (!resolved) continue;
-      // A hand-written declaration file beside a .mjs stands for that module.
-      const target = path.resolve(resolved.replace(/\.d\.mts$/, '.mjs'));
+      const target = path.resolve(resolved);
       if (inside.has(target)) deps.add(target);
     }
     graph.set(file, [...deps]);

@@ -19,3 +19,16 @@ describe('database enums come from the shared constants', () => {
     expect(typed, `columns with a typed list in ${file}`).toEqual([]);
   });
 });
+
+// The import's threads used to be plain JavaScript with hand-written .d.mts types repeating the
+// stored codes; they are TypeScript bundled at first use (import-runner.ts), one source for both.
+describe('no hand-written JavaScript twins of TypeScript modules', () => {
+  const walk = (dir: string): string[] => fs.readdirSync(dir, { withFileTypes: true })
+    .flatMap((e) => (e.isDirectory() ? walk(path.join(dir, e.name)) : [path.join(dir, e.name)]));
+  it.each(['server', 'shared', 'src'])('%s/ holds no .mjs, .cjs, .js or .d.mts module', (dir) => {
+    const root = path.resolve(__dirname, '../..', dir);
+    const files = walk(root);
+    expect(files.filter((f) => f.endsWith('.ts')).length).toBeGreaterThan(10);
+    expect(files.filter((f) => /\.(mjs|cjs|js|d\.mts)$/.test(f)).map((f) => path.relative(root, f))).toEqual([]);
+  });
+});

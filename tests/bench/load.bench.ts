@@ -13,8 +13,8 @@ import os from 'node:os';
 import path from 'node:path';
 import Database from 'better-sqlite3';
 import { PNG } from 'pngjs';
-import { createBatchBuilder } from '../../server/modules/imports/batch-format.mjs';
-import { createBatchWriter } from '../../server/modules/imports/batch-writer.mjs';
+import { createBatchBuilder } from '../../server/modules/imports/batch-format';
+import { createBatchWriter } from '../../server/modules/imports/batch-writer';
 import { addBenchProbes, benchProbes, pct, peakRssMb, resetPeakRss, startBenchServer, writeBenchLog } from './bench-server';
 
 const SHORT = process.argv.includes('--short');

@@ -6,10 +6,10 @@ import { drizzle } from 'drizzle-orm/better-sqlite3';
 import { migrate } from 'drizzle-orm/better-sqlite3/migrator';
 import { describe, it, expect, afterAll } from 'vitest';
 import { schema, type Db } from '@server/db/client';
-import { createBatchBuilder, fillReadingValues, unpackF64Block, PLANE_SAMPLE_WIDTH, READING_WIDTH, SAMPLE_WIDTH } from '@server/modules/imports/batch-format.mjs';
+import { createBatchBuilder, fillReadingValues, unpackF64Block, PLANE_SAMPLE_WIDTH, READING_WIDTH, SAMPLE_WIDTH } from '@server/modules/imports/batch-format';
 import { pagesOfSamples, unpackSampleBlock } from '@server/modules/imports/sample-blocks';
 import type { DecodedReading, LogSample } from '@server/modules/imports/log-decoder';
-import { encodeBudget } from '@server/modules/readings/stored-budget.mjs';
+import { encodeBudget } from '@server/modules/readings/stored-budget';
 
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'luxtrail-blocks-'));
 afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { decodeBudget, encodeBudget } from '@server/modules/readings/stored-budget.mjs';
+import { decodeBudget, encodeBudget } from '@server/modules/readings/stored-budget';
 import type { BudgetPart } from '@shared/core/types';
 
 describe('stored uncertainty budget', () => {

@@ -5,9 +5,8 @@ import { plans } from './plans';
 import { sites } from './sites';
 import { INSTALLATION_STATES, SURVEY_STATUSES } from '@shared/schemas/surveys';
 import { IMPORT_STATUSES, SAMPLE_ENCODINGS } from '@shared/schemas/imports';
-import { LUX_BOUNDS, READING_ROLES } from '@shared/core/types';
+import { LUX_BOUNDS, READING_FLAGS, READING_ROLES } from '@shared/core/types';
 import { GRID_ROUNDINGS } from '@shared/core/zone-stats';
-import { READING_FLAGS } from '@shared/schemas/readings';
 import { READING_PLANES } from '@shared/core/planes';
 
 export type SurveyConditions = { daylightExcluded: boolean; pairedDaylight?: boolean; notes?: string };
@@ -74,7 +73,7 @@ export const decodes = sqliteTable('decodes', {
  * An import's accepted samples, kept for re-decoding, a batch to a row in file order (one row per
  * batch, not per sample, keeps a million-row import's writes short). `encoding` says how `data`
  * holds them: 'f64', the batch's Float64Array with `strings` its text table
- * (server/modules/imports/batch-format.mjs) before readings had planes; 'f64p', the same with plane and azimuth added; 'json', a flat JSON array of the SAMPLE_SLOTS
+ * (server/modules/imports/batch-format.ts) before readings had planes; 'f64p', the same with plane and azimuth added; 'json', a flat JSON array of the SAMPLE_SLOTS
  * values per sample (blocks migration 0003 made from the earlier one-row-per-sample table).
  */
 export const sampleBlocks = sqliteTable('sample_blocks', {

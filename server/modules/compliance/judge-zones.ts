@@ -8,7 +8,7 @@ import type { BudgetPart, LuxBound, Reading, ReadingFlag } from '@shared/core/ty
 import { createZoneAssigner, type ZoneKind } from '@shared/spatial/zone-assignment';
 import type { TargetConfidence } from '@shared/schemas/targets';
 import type { ZoneCompliance, ZoneVerdict } from '@shared/schemas/compliance';
-import { decodeBudget } from '../readings/stored-budget.mjs';
+import { decodeBudget } from '../readings/stored-budget';
 import { designValue } from '@shared/core/illuminance-scale';
 import { installationText, limitFor, type Installation } from '@shared/core/maintained';
 import {

@@ -19,7 +19,7 @@ import { isDecodeError } from '@shared/core/errors';
 import { conflict, notFound, unprocessable } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
 import { getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
-import { decodeBudget, encodeBudget } from '../readings/stored-budget.mjs';
+import { decodeBudget, encodeBudget } from '../readings/stored-budget';
 import { listPlans } from '../plans/plans-service';
 import { listProbes } from '../probes/probes-service';
 import { loadDecodingCalibration } from '../probes/probe-calibration';

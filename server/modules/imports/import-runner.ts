@@ -10,7 +10,8 @@ import { loadDecodingCalibration } from '../probes/probe-calibration';
 import { recordAudit } from '../audit/audit-service';
 import type { WorkerToMain } from './log-parser';
 import { boundImportRecord, type ImportProblem, type ImportWarning } from './import-record';
-import { createBatchWriter } from './batch-writer.mjs';
+import { createBatchWriter } from './batch-writer';
+import type { WriterData } from './import-writer';
 import { placeBurstsOnMarks, type MarkMatchingOptions } from '../field/mark-placement';
 import { DEFAULT_MATCH_WINDOW_MS } from '@shared/core/mark-matching';
 import { keepReadingCount } from '../surveys/reading-counts';
@@ -56,25 +57,30 @@ const PARSE_YOUNG_GENERATION_MB = 24;
 const WRITER_YOUNG_GENERATION_MB = 32;
 
 /**
- * The parse worker's code: import-worker.ts and what it imports bundled into one CommonJS script
- * (esbuild, once per process), so the thread runs without a TypeScript loader and its hooks thread
- * under tsx (server), vitest (tests) and the benchmark alike.
+ * A thread's code: its TypeScript entry and what it imports bundled into one CommonJS script
+ * (esbuild, once per process and entry), so the thread runs without a TypeScript loader and its
+ * hooks thread under tsx (server), vitest (tests) and the benchmark alike. The native SQLite
+ * driver stays outside the bundle (the writer loads it with createRequire).
  */
-let workerCode: Promise<string> | null = null;
-function bundledWorkerCode(): Promise<string> {
-  workerCode ??= esbuild.build({
-    entryPoints: [fileURLToPath(new URL('./import-worker.ts', import.meta.url))],
-    bundle: true, platform: 'node', format: 'cjs', target: 'node20', write: false, logLevel: 'silent',
-  }).then((r) => r.outputFiles[0].text, (err: unknown) => {
-    workerCode = null;
-    throw err;
-  });
-  return workerCode;
+const bundles = new Map<string, Promise<string>>();
+function bundledThreadCode(entry: 'import-worker.ts' | 'import-writer.ts'): Promise<string> {
+  let code = bundles.get(entry);
+  if (!code) {
+    code = esbuild.build({
+      entryPoints: [fileURLToPath(new URL(`./${entry}`, import.meta.url))],
+      bundle: true, platform: 'node', format: 'cjs', target: 'node20', write: false, logLevel: 'silent', external: ['better-sqlite3'],
+    }).then((r) => r.outputFiles[0].text, (err: unknown) => {
+      bundles.delete(entry);
+      throw err;
+    });
+    bundles.set(entry, code);
+  }
+  return code;
 }
 
 async function getWorker(): Promise<Worker> {
   if (worker) return worker;
-  const code = await bundledWorkerCode();
+  const code = await bundledThreadCode('import-worker.ts');
   if (worker) return worker;
   worker = new Worker(code, { eval: true, execArgv: [], resourceLimits: { maxYoungGenerationSizeMb: PARSE_YOUNG_GENERATION_MB } });
   const w = worker;
@@ -85,13 +91,17 @@ async function getWorker(): Promise<Worker> {
 
 /** Writer threads by database file; an in-memory database (tests) is written on the main thread. */
 const writers = new Map<string, Worker>();
-function getWriter(deps: Deps): Worker | null {
+async function getWriter(deps: Deps): Promise<Worker | null> {
   const client = deps.db.$client;
   if (client.memory) return null;
   let w = writers.get(client.name);
   if (w) return w;
-  // Plain JavaScript: no TypeScript loader inherited from the server's --import (execArgv).
-  w = new Worker(new URL('./import-writer.mjs', import.meta.url), { workerData: { databasePath: client.name }, execArgv: [], resourceLimits: { maxYoungGenerationSizeMb: WRITER_YOUNG_GENERATION_MB } });
+  const code = await bundledThreadCode('import-writer.ts');
+  w = writers.get(client.name);
+  if (w) return w;
+  const workerData: WriterData = { databasePath: client.name, resolveFrom: fileURLToPath(import.meta.url) };
+  // No TypeScript loader inherited from the server's --import (execArgv).
+  w = new Worker(code, { eval: true, workerData, execArgv: [], resourceLimits: { maxYoungGenerationSizeMb: WRITER_YOUNG_GENERATION_MB } });
   writers.set(client.name, w);
   w.on('exit', () => writers.delete(client.name));
   w.unref();
@@ -145,10 +155,10 @@ function ensureActiveDecode(deps: Deps, job: ImportJob): { decodeId: number; cre
 async function runImport(deps: Deps, job: ImportJob): Promise<ImportOutcome> {
   // First, so a worker that cannot start leaves nothing behind to undo.
   const w = await getWorker();
+  const writer = await getWriter(deps);
   const { decodeId, created } = ensureActiveDecode(deps, job);
   deps.db.update(logImports).set({ status: 'running', progress: 0 }).where(eq(logImports.id, job.importId)).run();
   const target = { importId: job.importId, surveyId: job.surveyId, decodeId };
-  const writer = getWriter(deps);
   const write = writer ? null : createBatchWriter(deps.db.$client, target);
   const calibration = loadDecodingCalibration(deps.db, job.organizationId);
   w.ref();

@@ -5,11 +5,11 @@
 // (back-pressure), and the end is reported only after every batch is committed.
 import { parentPort, type MessagePort } from 'node:worker_threads';
 import { parseLogFile, type ParseLogInput, type WorkerToMain } from './log-parser';
-import type { BatchProgress } from './batch-writer.mjs';
-import { transferOf, type Batch } from './batch-format.mjs';
+import type { WriterMessage } from './import-writer';
+import { transferOf } from './batch-format';
 
-/** The messages of import-writer.mjs's port. */
-type WriterBatch = { type: 'batch'; batch: Batch; progress?: BatchProgress };
+/** The messages of import-writer.ts's port. */
+type WriterBatch = Extract<WriterMessage, { type: 'batch' }>;
 type WriterAck = { type: 'ack'; error?: string };
 
 if (!parentPort) throw new Error('import-worker.ts must run in a worker thread');

@@ -4,7 +4,7 @@ import { READING_PLANES, type ReadingPlane } from '../../../shared/core/planes';
 import type { DecodingCalibration } from '../probes/probe-calibration';
 import { createLogDecoder, type DecodedReading, type LogSample } from './log-decoder';
 import { createTimestampParser } from './log-time';
-import { createBatchBuilder, type Batch } from './batch-format.mjs';
+import { createBatchBuilder, type Batch } from './batch-format';
 import { createProblemCollector, type ImportProblem, type ImportWarning } from './import-record';
 
 /** The log format's columns (README, "Survey logs and the log format"). */

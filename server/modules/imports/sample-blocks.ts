@@ -1,11 +1,13 @@
 import { and, asc, eq, gt } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { sampleBlocks } from '../../db/schema/surveys';
-import { ROLES, SAMPLE_SLOTS, SAMPLE_WIDTH, unpackF64Block, type StoredSample } from './batch-format.mjs';
+import { READING_ROLES } from '@shared/core/types';
+import type { SampleEncoding } from '@shared/schemas/imports';
+import { SAMPLE_SLOTS, SAMPLE_WIDTH, unpackF64Block, type StoredSample } from './batch-format';
 
 export type { StoredSample };
 
-type Block = { id: number; rowCount: number; encoding: 'f64' | 'f64p' | 'json'; strings: string | null; data: Buffer };
+type Block = { id: number; rowCount: number; encoding: SampleEncoding; strings: string | null; data: Buffer };
 
 /** A 'json' block (made by migration 0003): one flat array of SAMPLE_SLOTS values per sample. */
 function unpackJsonBlock(data: Buffer, rowCount: number): StoredSample[] {
@@ -14,7 +16,7 @@ function unpackJsonBlock(data: Buffer, rowCount: number): StoredSample[] {
   const out: StoredSample[] = new Array(rowCount);
   for (let r = 0; r < rowCount; r++) {
     const s = { ...Object.fromEntries(SAMPLE_SLOTS.map((slot, i) => [slot, flat[r * SAMPLE_WIDTH + i]])), plane: 'horizontal', azimuthDeg: null } as StoredSample;
-    if (!(ROLES as readonly string[]).includes(s.role)) throw new Error(`gives sample ${r} the role "${String(s.role)}"`);
+    if (!(READING_ROLES as readonly string[]).includes(s.role)) throw new Error(`gives sample ${r} the role "${String(s.role)}"`);
     out[r] = s;
   }
   return out;

@@ -10,7 +10,7 @@ import { readingsQuerySchema, type ReadingsQuery } from '@shared/schemas/reading
 import { toSafeCsvRows } from '@shared/csv-safe';
 import { readingCells, readingColumns, type ExportReading } from '@shared/export-columns';
 import { currentReadingConditions, getSurveyRow } from '../surveys/surveys-service';
-import { decodeBudget } from './stored-budget.mjs';
+import { decodeBudget } from './stored-budget';
 import { currentReadingCount } from '../surveys/reading-counts';
 
 const columns = {

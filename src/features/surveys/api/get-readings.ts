@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, queryString } from '@/lib/api-client';
-import type { ReadingFlag, ReadingsResponse } from '@shared/schemas/readings';
+import type { ReadingsResponse } from '@shared/schemas/readings';
+import type { ReadingFlag } from '@shared/core/types';
 import { surveyKeys } from '@/lib/query-keys';
 
 export type ReadingsFilter = { flag?: ReadingFlag; point?: string; sort: 'time' | 'point' | 'lux' | 'flag' | 'probe'; order: 'asc' | 'desc' };

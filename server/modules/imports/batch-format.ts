@@ -3,15 +3,19 @@
 // NaN), text as indices into the batch's table of distinct strings. The arrays are transferred,
 // not copied, between threads, and a batch's sample array is stored as it is (a sample block),
 // so neither thread spends time cloning or re-encoding millions of values.
-// Plain JavaScript for the writer thread (no TypeScript loader there); types in batch-format.d.mts.
-import { BUDGET_PARTS, encodeBudgetSlots } from '../readings/stored-budget.mjs';
+// Bundled into the writer thread with what it imports (import-runner.ts), as the parse worker is.
+import { LUX_BOUNDS, READING_FLAGS, READING_ROLES } from '@shared/core/types';
+import { READING_PLANES } from '@shared/core/planes';
+import type { SampleEncoding } from '@shared/schemas/imports';
+import { BUDGET_PARTS, encodeBudgetSlots } from '../readings/stored-budget';
+import type { LogSample, DecodedReading } from './log-decoder';
 
 /** A sample's slots in a stored block of encoding 'f64' (and 'json'): blocks written before readings had planes. */
 export const SAMPLE_SLOTS = ['line', 'timeMs', 'probeId', 'point', 'gainCode', 'counts', 'ma', 'volts', 'intMs', 'tempC', 'xM', 'yM', 'planId', 'role', 'note'];
 /** A sample's slots in a batch's samples array and in a stored block of encoding 'f64p' (what imports write now): plane and azimuth added. */
 export const PLANE_SAMPLE_SLOTS = [...SAMPLE_SLOTS, 'plane', 'azimuthDeg'];
 /** The encoding a builder's sample arrays are stored under. */
-export const SAMPLE_ENCODING = 'f64p';
+export const SAMPLE_ENCODING: SampleEncoding = 'f64p';
 /** A reading's slots in a batch's readings array: its budget, one uRel per BUDGET_PARTS entry, then plane and azimuth, then the raw evidence behind it. */
 export const READING_SLOTS = ['point', 'xM', 'yM', 'planId', 'role', 'timeMs', 'probeId', 'lux', 'uLux', 'luxBound', 'flag', 'gainCode', 'samples', 'chosenSample', 'coefficientSetId', 'note',
   ...BUDGET_PARTS.map((name) => `budget.${name}`), 'plane', 'azimuthDeg', 'rawCounts', 'rawSignal', 'intMs', 'tempC'];
@@ -22,30 +26,59 @@ export const SAMPLE_WIDTH = SAMPLE_SLOTS.length;
 export const PLANE_SAMPLE_WIDTH = PLANE_SAMPLE_SLOTS.length;
 export const READING_WIDTH = READING_SLOTS.length;
 
-/** Stored codes of the enumerations (their index); append only, stored blocks keep them. */
-export const ROLES = ['task', 'reference'];
-export const LUX_BOUNDS = ['exact', 'lower', 'upper'];
-export const FLAGS = ['ok', 'over_range', 'under_range', 'fault', 'calibration_lapsed', 'low_confidence'];
-export const PLANES = ['horizontal', 'vertical', 'wall', 'ceiling'];
+/**
+ * The enumerations travel and are stored as their index in the shared lists (READING_ROLES,
+ * LUX_BOUNDS, READING_FLAGS, READING_PLANES): those lists are append only, stored blocks keep them.
+ */
+const ROLES = READING_ROLES;
+const FLAGS = READING_FLAGS;
+const PLANES = READING_PLANES;
 
-const codeOf = (list, value, what) => {
+const codeOf = <T extends string>(list: readonly T[], value: T, what: string): number => {
   const i = list.indexOf(value);
   if (i < 0) throw new Error(`batch: unknown ${what} "${value}"`);
   return i;
 };
 
-const orNaN = (v) => (v === null || v === undefined ? NaN : v);
+const orNaN = (v: number | null | undefined): number => (v === null || v === undefined ? NaN : v);
+
+/** One batch of accepted rows as it travels between threads. */
+export type Batch = {
+  sampleRows: number;
+  readingRows: number;
+  samples: Float64Array;
+  readings: Float64Array;
+  strings: string[];
+};
+
+export type BatchBuilder = {
+  readonly sampleRows: number;
+  readonly readingRows: number;
+  addSample(s: LogSample, probeId: number): void;
+  addReading(r: DecodedReading): void;
+  take(): Batch;
+  clear(): void;
+};
+
+/** A kept sample as stored: the probe by id, nulls where the log gave nothing. */
+export type StoredSample = {
+  line: number; timeMs: number; probeId: number; point: string;
+  gainCode: number | null; counts: number | null; ma: number | null; volts: number | null;
+  intMs: number | null; tempC: number | null; xM: number | null; yM: number | null;
+  planId: number | null; role: (typeof READING_ROLES)[number]; note: string | null;
+  plane: (typeof READING_PLANES)[number]; azimuthDeg: number | null;
+};
 
 /** Collects one batch; take() hands it over (its arrays are then the receiver's) and starts the next. */
-export function createBatchBuilder(capacityRows = 2048) {
+export function createBatchBuilder(capacityRows = 2048): BatchBuilder {
   let samples = new Float64Array(capacityRows * PLANE_SAMPLE_WIDTH);
   let readings = new Float64Array(capacityRows * READING_WIDTH);
   let sampleRows = 0;
   let readingRows = 0;
-  let strings = [];
-  let indexOfString = new Map();
+  let strings: string[] = [];
+  let indexOfString = new Map<string, number>();
 
-  const stringIndex = (s) => {
+  const stringIndex = (s: string | null | undefined): number => {
     if (s === null || s === undefined) return NaN;
     let i = indexOfString.get(s);
     if (i === undefined) {
@@ -55,7 +88,7 @@ export function createBatchBuilder(capacityRows = 2048) {
     }
     return i;
   };
-  const grow = (arr, needed) => {
+  const grow = (arr: Float64Array<ArrayBuffer>, needed: number): Float64Array<ArrayBuffer> => {
     if (needed <= arr.length) return arr;
     const next = new Float64Array(Math.max(needed, arr.length * 2));
     next.set(arr);
@@ -66,7 +99,7 @@ export function createBatchBuilder(capacityRows = 2048) {
     get sampleRows() { return sampleRows; },
     get readingRows() { return readingRows; },
     /** s: the sample as LogSample, with the probe by id. */
-    addSample(s, probeId) {
+    addSample(s: LogSample, probeId: number) {
       samples = grow(samples, (sampleRows + 1) * PLANE_SAMPLE_WIDTH);
       let o = sampleRows * PLANE_SAMPLE_WIDTH;
       samples[o++] = s.line;
@@ -89,7 +122,7 @@ export function createBatchBuilder(capacityRows = 2048) {
       sampleRows++;
     },
     /** r: a DecodedReading. */
-    addReading(r) {
+    addReading(r: DecodedReading) {
       readings = grow(readings, (readingRows + 1) * READING_WIDTH);
       let o = readingRows * READING_WIDTH;
       readings[o++] = stringIndex(r.point);
@@ -121,7 +154,7 @@ export function createBatchBuilder(capacityRows = 2048) {
     },
     /** The batch so far, its arrays trimmed to length (transferOf gives the transfer list); the builder starts empty. */
     take() {
-      const batch = {
+      const batch: Batch = {
         sampleRows, readingRows,
         samples: samples.slice(0, sampleRows * PLANE_SAMPLE_WIDTH),
         readings: readings.slice(0, readingRows * READING_WIDTH),
@@ -144,15 +177,15 @@ export function createBatchBuilder(capacityRows = 2048) {
 }
 
 /** The ArrayBuffers of a batch, for postMessage's transfer list. */
-export const transferOf = (batch) => [batch.samples.buffer, batch.readings.buffer];
+export const transferOf = (batch: Batch): ArrayBuffer[] => [batch.samples.buffer as ArrayBuffer, batch.readings.buffer as ArrayBuffer];
 
-const valueOrNull = (x) => (x === x ? x : null);
+const valueOrNull = (x: number): number | null => (x === x ? x : null);
 
 /**
  * Writes readings from..to-1 of a batch into out as SQL values in the readings insert's order
  * (READING_SLOTS, the budget slots made its stored text, before the note); returns the number of values written.
  */
-export function fillReadingValues(batch, from, to, out) {
+export function fillReadingValues(batch: Batch, from: number, to: number, out: unknown[]): number {
   const { readings, strings } = batch;
   let k = 0;
   for (let r = from; r < to; r++) {
@@ -189,12 +222,12 @@ export function fillReadingValues(batch, from, to, out) {
  * A stored block's samples (the batch's samples array as bytes, and its strings) back as values.
  * encoding 'f64p' holds plane and azimuth; 'f64' blocks (written before) are horizontal readings.
  */
-export function unpackF64Block(data, strings, rowCount, encoding = 'f64') {
+export function unpackF64Block(data: Uint8Array, strings: readonly string[], rowCount: number, encoding: Exclude<SampleEncoding, 'json'> = 'f64'): StoredSample[] {
   const width = encoding === 'f64p' ? PLANE_SAMPLE_WIDTH : SAMPLE_WIDTH;
   if (data.byteLength !== rowCount * width * 8) throw new Error(`holds ${data.byteLength} bytes, not ${rowCount} samples of ${width} numbers`);
   // A copy: a Buffer from SQLite need not be 8-byte aligned.
   const f = new Float64Array(new Uint8Array(data).buffer);
-  const out = new Array(rowCount);
+  const out = new Array<StoredSample>(rowCount);
   for (let r = 0, o = 0; r < rowCount; r++, o += width) {
     const note = f[o + 14];
     out[r] = {
