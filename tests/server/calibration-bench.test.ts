@@ -7,7 +7,7 @@ import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
 import { benchRuns } from '@server/db/schema/calibration';
 import { storedFiles } from '@server/db/schema/organizations';
 import { storedPath } from '@server/lib/file-store';
-import { benchCsv, createCountingProbe, manualDraftBody, manualGains, probeIdBySerial, TINY_PDF } from './calibration-factories';
+import { benchCsv, createCountingProbe, manualDraftBody, manualGains, probeIdBySerial, TINY_PDF } from './support/factories';
 
 let t: TestApp;
 let cal: TestClient;

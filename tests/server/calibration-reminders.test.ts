@@ -5,7 +5,7 @@ import { coefficientSets } from '@server/db/schema/calibration';
 import { serverJobs } from '@server/jobs';
 import { loadDecodingCalibration } from '@server/modules/probes/probe-calibration';
 import { createCoefficientSelector, isCalibrationLapsed } from '@shared/core/coefficient-sets';
-import { createCountingProbe, manualDraftBody, probeIdBySerial } from './calibration-factories';
+import { createCountingProbe, manualDraftBody, probeIdBySerial } from './support/factories';
 
 const DAY = 86_400_000;
 let t: TestApp;

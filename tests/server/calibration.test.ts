@@ -4,7 +4,7 @@ import { createTestApp, DEMO, type TestApp } from './helpers';
 import { auditEvents } from '@server/db/schema/organizations';
 import { coefficientSets } from '@server/db/schema/calibration';
 import { loadDecodingCalibration } from '@server/modules/probes/probe-calibration';
-import { countingProbeBody, createCountingProbe, manualDraftBody, probeIdBySerial, uniqueSerial, FOUR_GAINS } from './calibration-factories';
+import { countingProbeBody, createCountingProbe, manualDraftBody, probeIdBySerial, uniqueSerial, FOUR_GAINS } from './support/factories';
 
 let t: TestApp;
 beforeAll(async () => { t = await createTestApp({ signInLimits: { perAddress: 100_000, perAccount: 100_000 } }); });

@@ -1,6 +1,6 @@
 import { describe, it, expect, beforeEach } from 'vitest';
 import { createTestApp, DEMO, type TestApp } from './helpers';
-import { buildSurvey, gridReadings, OFFICE_AND_CORRIDOR, officeAndCorridorReadings, userId } from './compliance-fixtures';
+import { buildSurvey, gridReadings, OFFICE_AND_CORRIDOR, officeAndCorridorReadings, userId } from './support/factories';
 import { sites } from '@server/db/schema/sites';
 import { plans, zones } from '@server/db/schema/plans';
 import { storedFiles, userSites } from '@server/db/schema/organizations';

@@ -1,8 +1,7 @@
 import { describe, it, expect, beforeAll } from 'vitest';
 import { binary, pdfText } from './pdf-text';
 import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
-import { conditions, emergencySite, EQUIPMENT, HIGH_RISK, insertTimedReadings, MAINS_OFF, OPEN, ROUTE } from './emergency-fixtures';
-import { insertSite, orgOf } from './plans-fixtures';
+import { conditions, emergencySite, EQUIPMENT, HIGH_RISK, insertTimedReadings, MAINS_OFF, OPEN, ROUTE, insertSite, orgOf } from './support/factories';
 import { EN_1838_2013 } from '@shared/core/emergency';
 import { eq } from 'drizzle-orm';
 import { outboxAttachments } from '@server/db/schema/organizations';

@@ -1,8 +1,7 @@
 import { describe, it, expect, beforeAll } from 'vitest';
 import Papa from 'papaparse';
 import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
-import { createTestProbes, newDraftSurvey, testWalkCsv, keptSamples, uploadAndWait } from './support/survey-log-factories';
-import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './compliance-fixtures';
+import { createTestProbes, newDraftSurvey, testWalkCsv, keptSamples, uploadAndWait, buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './support/factories';
 import { luxToFootcandles } from '@shared/core/units';
 import { readingColumns, ZONE_COLUMNS } from '@shared/export-columns';
 import type { Reading } from '@shared/schemas/readings';

@@ -2,13 +2,12 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import sharp from 'sharp';
 import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
-import { buildSurvey, userId } from './compliance-fixtures';
+import { buildSurvey, userId, createCountingProbe } from './support/factories';
 import { coefficientSets, probes } from '@server/db/schema/calibration';
 import { logImports, readings, surveys } from '@server/db/schema/surveys';
 import { waitForImport } from '@server/modules/imports/imports-service';
 import { binary, pdfText } from './pdf-text';
 import { fieldRecords } from '@server/db/schema/field';
-import { createCountingProbe } from './calibration-factories';
 import { DEMO_COUNTING_PROBES } from '@server/db/demo/demo-probes';
 
 // A 6 m x 4 m office, judged against 500 lx (EN 12464-1, offices, secondary source).

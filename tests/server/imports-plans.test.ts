@@ -1,7 +1,6 @@
 import { describe, it, expect, beforeAll } from 'vitest';
-import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
-import { createTestProbes, keptSamples, newDraftSurvey, tableCounts, TEST_SERIALS, uploadAndWait } from './support/survey-log-factories';
-import { insertSite, orgOf, pngOf } from './plans-fixtures';
+import { DEMO, type TestApp, type TestClient } from './helpers';
+import { keptSamples, newDraftSurvey, tableCounts, TEST_SERIALS, uploadAndWait, insertSite, orgOf, pngOf, appWithTestProbes } from './support/factories';
 import { waitForImport } from '@server/modules/imports/imports-service';
 import type { Plan } from '@shared/schemas/plans';
 
@@ -10,9 +9,7 @@ let c: TestClient;
 /** The demo library's plans (seeded): Ground floor, First floor, Car park and entrance; their frames overlap. */
 let plans: Record<string, Plan>;
 beforeAll(async () => {
-  t = await createTestApp();
-  createTestProbes(t);
-  c = await t.signIn(DEMO.surveyor);
+  ({ t, c } = await appWithTestProbes());
   const site = (await c.get('/api/sites')).body.items.find((s: { name: string }) => s.name === 'Fernmoor Community Library');
   const items: Plan[] = (await c.get(`/api/sites/${site.id}/plans`)).body.items;
   plans = Object.fromEntries(items.map((p) => [p.name, p]));

@@ -2,17 +2,15 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
-import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
-import { createTestProbes, keptSamples, newDraftSurvey, tableCounts, testWalkCsv, TEST_SERIALS, uploadAndWait } from './support/survey-log-factories';
+import { type TestApp, type TestClient } from './helpers';
+import { keptSamples, newDraftSurvey, tableCounts, testWalkCsv, TEST_SERIALS, uploadAndWait, appWithTestProbes } from './support/factories';
 
 // A database file (not :memory:) sends the import's writes through the writer thread and its own connection.
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'luxtrail-writer-'));
 let t: TestApp;
 let c: TestClient;
 beforeAll(async () => {
-  t = await createTestApp({ databaseUrl: path.join(dir, 'writer.db'), dataDir: path.join(dir, 'data') });
-  createTestProbes(t);
-  c = await t.signIn(DEMO.surveyor);
+  ({ t, c } = await appWithTestProbes({ databaseUrl: path.join(dir, 'writer.db'), dataDir: path.join(dir, 'data') }));
 }, 60_000);
 afterAll(() => {
   t.db.$client.close();

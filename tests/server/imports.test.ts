@@ -4,16 +4,14 @@ import { describe, it, expect, beforeAll } from 'vitest';
 import Papa from 'papaparse';
 import { and, eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
-import { createTestProbes, newDraftSurvey, tableCounts, testWalkCsv, TEST_SERIALS, uploadAndWait } from './support/survey-log-factories';
+import { createTestProbes, newDraftSurvey, tableCounts, testWalkCsv, TEST_SERIALS, uploadAndWait, appWithTestProbes } from './support/factories';
 import { logImports, surveys } from '@server/db/schema/surveys';
 import { boundImportRecord, cutText, IMPORT_RECORD_LIMITS } from '@server/modules/imports/import-record';
 
 let t: TestApp;
 let c: TestClient;
 beforeAll(async () => {
-  t = await createTestApp();
-  createTestProbes(t);
-  c = await t.signIn(DEMO.surveyor);
+  ({ t, c } = await appWithTestProbes());
 });
 
 const HEADER = 'timestamp,probe,point,gain,counts,x_m,y_m';

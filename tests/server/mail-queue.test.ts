@@ -4,7 +4,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { eq } from 'drizzle-orm';
 import { createTestApp, DEMO, tokenFromMail, type TestApp } from './helpers';
-import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './compliance-fixtures';
+import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './support/factories';
 import { outboxAttachments, outboxMessages, users } from '@server/db/schema/organizations';
 import { jobs } from '@server/db/schema/jobs';
 import { surveys } from '@server/db/schema/surveys';

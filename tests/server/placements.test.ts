@@ -1,8 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { createTestApp, DEMO, DEMO_START, type TestApp, type TestClient } from './helpers';
-import { insertSite, orgOf, pngOf } from './plans-fixtures';
-import { createTestProbes, tableCounts, uploadAndWait } from './support/survey-log-factories';
+import { insertSite, orgOf, pngOf, createTestProbes, tableCounts, uploadAndWait } from './support/factories';
 import { readings, surveys } from '@server/db/schema/surveys';
 import { auditEvents } from '@server/db/schema/organizations';
 import { PDFParse } from 'pdf-parse';

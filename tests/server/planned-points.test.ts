@@ -1,10 +1,9 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
-import { insertSite, orgOf, pngOf } from './plans-fixtures';
+import { insertSite, orgOf, pngOf, tableCounts } from './support/factories';
 import { surveys } from '@server/db/schema/surveys';
 import { auditEvents } from '@server/db/schema/organizations';
-import { tableCounts } from './support/survey-log-factories';
 
 let t: TestApp;
 let admin: TestClient;

@@ -1,8 +1,7 @@
 import { describe, it, expect, beforeAll } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
-import { insertSite, insertSurveyWithReadings, orgOf, pngOf } from './plans-fixtures';
-import { userId } from './compliance-fixtures';
+import { insertSite, insertSurveyWithReadings, orgOf, pngOf, userId } from './support/factories';
 import { plans } from '@server/db/schema/plans';
 import { auditEvents } from '@server/db/schema/organizations';
 

@@ -1,7 +1,7 @@
 import { describe, it, expect, beforeAll } from 'vitest';
 import { and, eq } from 'drizzle-orm';
-import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
-import { createTestProbes, newDraftSurvey, TEST_SERIALS, testWalkCsv, uploadAndWait } from './support/survey-log-factories';
+import { DEMO, type TestApp, type TestClient } from './helpers';
+import { newDraftSurvey, TEST_SERIALS, testWalkCsv, uploadAndWait, appWithTestProbes } from './support/factories';
 import { coefficientSets, probes } from '@server/db/schema/calibration';
 import { decodes, readings, surveys } from '@server/db/schema/surveys';
 import { auditEvents } from '@server/db/schema/organizations';
@@ -11,9 +11,7 @@ import { readingColumns } from '@shared/export-columns';
 let t: TestApp;
 let c: TestClient;
 beforeAll(async () => {
-  t = await createTestApp();
-  createTestProbes(t);
-  c = await t.signIn(DEMO.surveyor);
+  ({ t, c } = await appWithTestProbes());
 });
 
 const CSV = 'timestamp,probe,point,gain,counts\n2026-11-19T07:00:00Z,T-4102,R-1,2,16061\n2026-11-19T07:00:30Z,T-4102,R-2,2,8061\n';

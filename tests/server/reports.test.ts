@@ -5,7 +5,7 @@ import { binary, pdfText } from './pdf-text';
 import { createRequire } from 'node:module';
 import * as fontkit from 'fontkit';
 import { createTestApp, DEMO, type TestApp } from './helpers';
-import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './compliance-fixtures';
+import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './support/factories';
 import { outboxAttachments } from '@server/db/schema/organizations';
 import { RULE_TEXT } from '@shared/core/decision';
 import { GRID_RULE } from '@shared/core/zone-stats';

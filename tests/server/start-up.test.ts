@@ -3,7 +3,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { eq } from 'drizzle-orm';
 import { createTestApp, DEMO } from './helpers';
-import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './compliance-fixtures';
+import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './support/factories';
 import { decodes, logImports, readings, surveys } from '@server/db/schema/surveys';
 import { prepareStart } from '@server/start-up';
 import { UPLOADS_DIR } from '@server/http/upload';

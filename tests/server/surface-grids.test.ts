@@ -1,8 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import Papa from 'papaparse';
 import { createTestApp, DEMO, DEMO_START, type TestApp, type TestClient } from './helpers';
-import { insertSite, orgOf, pngOf } from './plans-fixtures';
-import { createTestProbes, tableCounts, uploadAndWait } from './support/survey-log-factories';
+import { insertSite, orgOf, pngOf, createTestProbes, tableCounts, uploadAndWait } from './support/factories';
 
 // Wall and ceiling grids planned on request (EN 12464-1:2021 asks for Em,wall and Em,ceiling; the
 // grid on each surface follows the standard's spacing formula, the surface rule is Luxtrail's).

@@ -1,7 +1,7 @@
 import { describe, it, expect, beforeEach } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp } from './helpers';
-import { buildSurvey, gridReadings, OFFICE_AND_CORRIDOR, officeAndCorridorReadings, type FixtureReading } from './compliance-fixtures';
+import { buildSurvey, gridReadings, OFFICE_AND_CORRIDOR, officeAndCorridorReadings, type FixtureReading } from './support/factories';
 import { auditEvents } from '@server/db/schema/organizations';
 import { surveys } from '@server/db/schema/surveys';
 import { judgeZones, type JudgeReading, type JudgeZone } from '@server/modules/compliance/judge-zones';

@@ -1,7 +1,7 @@
 import { describe, it, expect, beforeEach } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp } from './helpers';
-import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './compliance-fixtures';
+import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './support/factories';
 import { outboxAttachments, outboxMessages } from '@server/db/schema/organizations';
 import { decodes, readings, surveys } from '@server/db/schema/surveys';
 import { RULE_TEXT } from '@shared/core/decision';

@@ -1,7 +1,7 @@
 import { describe, it, expect, beforeAll } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
-import { insertSite, orgOf, pngOf } from './plans-fixtures';
+import { insertSite, orgOf, pngOf } from './support/factories';
 import { zones } from '@server/db/schema/plans';
 import { auditEvents } from '@server/db/schema/organizations';
 

@@ -1,6 +1,6 @@
 import type { RouteExamples } from './types';
 import { DEMO, type TestApp } from '../helpers';
-import { benchCsv, countingProbeBody, manualDraftBody, manualGains, probeIdBySerial, TINY_PDF } from '../calibration-factories';
+import { benchCsv, countingProbeBody, manualDraftBody, manualGains, probeIdBySerial, TINY_PDF } from '../support/factories';
 
 async function freshProbe(t: TestApp): Promise<number> {
   const c = await t.signIn(DEMO.calibration);

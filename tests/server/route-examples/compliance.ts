@@ -2,9 +2,8 @@ import { eq } from 'drizzle-orm';
 import type { RouteExamples } from './types';
 import type { TestApp } from '../helpers';
 import { DEMO } from '../helpers';
-import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from '../compliance-fixtures';
+import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings, userId } from '../support/factories';
 import { targets } from '@server/db/schema/targets';
-import { userId } from '../compliance-fixtures';
 
 let n = 0;
 const unique = () => `${Date.now().toString(36)}_${(n++).toString(36)}`;

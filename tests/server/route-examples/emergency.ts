@@ -1,8 +1,7 @@
 import type { RouteExamples } from './types';
 import type { TestApp } from '../helpers';
 import { DEMO } from '../helpers';
-import { insertSite, orgOf } from '../plans-fixtures';
-import { conditions, emergencySite, insertTimedReadings, ROUTE } from '../emergency-fixtures';
+import { insertSite, orgOf, conditions, emergencySite, insertTimedReadings, ROUTE } from '../support/factories';
 import { EN_1838_2013 } from '@shared/core/emergency';
 
 let n = 0;

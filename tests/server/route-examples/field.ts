@@ -1,6 +1,6 @@
 import type { RouteExamples } from './types';
 import type { TestApp } from '../helpers';
-import { pngOf } from '../plans-fixtures';
+import { pngOf } from '../support/factories';
 import { draftSurveyId } from './surveys';
 
 let n = 0;

@@ -1,7 +1,7 @@
 import type { RouteExamples } from './types';
 import type { TestApp } from '../helpers';
 import { DEMO } from '../helpers';
-import { insertSite, orgOf, pngOf } from '../plans-fixtures';
+import { insertSite, orgOf, pngOf } from '../support/factories';
 import { eq } from 'drizzle-orm';
 import { decodes, logImports, readings, surveys } from '@server/db/schema/surveys';
 import { probes } from '@server/db/schema/calibration';

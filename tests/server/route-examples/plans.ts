@@ -1,7 +1,7 @@
 import type { RouteExamples } from './types';
 import type { TestApp } from '../helpers';
 import { DEMO } from '../helpers';
-import { insertSite, insertSurveyWithReadings, orgOf, pngOf } from '../plans-fixtures';
+import { insertSite, insertSurveyWithReadings, orgOf, pngOf } from '../support/factories';
 
 let n = 0;
 const room = { name: 'Example room', kind: 'room', useType: 'office_writing', polygon: [[1, 1], [5, 1], [5, 4], [1, 4]] };

@@ -45,7 +45,7 @@ function surveyWithLog(t: TestApp): Promise<{ surveyId: number; importId: number
 }
 
 async function importOneLog(t: TestApp): Promise<{ surveyId: number; importId: number }> {
-  const { createTestProbes, TEST_SERIALS } = await import('../support/survey-log-factories');
+  const { createTestProbes, TEST_SERIALS } = await import('../support/factories');
   const { waitForImport } = await import('@server/modules/imports/imports-service');
   createTestProbes(t);
   const surveyId = await draftSurveyId(t);
@@ -57,7 +57,7 @@ async function importOneLog(t: TestApp): Promise<{ surveyId: number; importId: n
 
 Object.assign(surveyExamples, {
   'POST /surveys/:id/logs': async (t: TestApp) => {
-    const { createTestProbes, TEST_SERIALS } = await import('../support/survey-log-factories');
+    const { createTestProbes, TEST_SERIALS } = await import('../support/factories');
     createTestProbes(t);
     return { path: `/api/surveys/${await draftSurveyId(t)}/logs`, files: { file: { content: uniqueLog(TEST_SERIALS.tripod), filename: 'ex.csv', contentType: 'text/csv' } }, okStatus: 202 };
   },
