@@ -17,6 +17,11 @@ const API_FILE_LITERAL = [
   { selector: 'Literal[value=/^\\/api\\//]', message: 'Addresses of served files come from apiFiles in shared/paths.ts; JSON endpoints go through the api helper.' },
   { selector: 'TemplateElement[value.raw=/^\\/api\\//]', message: 'Addresses of served files come from apiFiles in shared/paths.ts; JSON endpoints go through the api helper.' },
 ];
+// Dates and times on screen go through shared/datetime.ts (one format, the site's zone).
+const HAND_DATES = [
+  { selector: 'MemberExpression[property.name=/^(toLocaleDateString|toLocaleTimeString)$/]', message: 'Dates and times go through shared/datetime.ts (formatDay, formatDateTime, formatClock, formatCalendarDay).' },
+  { selector: "MemberExpression[object.name='Intl'][property.name='DateTimeFormat']", message: 'Dates and times go through shared/datetime.ts (formatDay, formatDateTime, formatClock, formatCalendarDay, viewerTimeZone).' },
+];
 const LINK_ATTRIBUTES = 'JSXAttribute[name.name=/^(to|href)$/]';
 const HAND_PAGE_LINKS = [
   { selector: `${LINK_ATTRIBUTES} > Literal[value=/^\\/(?!samples\\/)/]`, message: 'Links come from paths in shared/paths.ts (paths.survey.to(id)).' },
@@ -76,7 +81,7 @@ export default tseslint.config(
       },
     };
   }),
-  { files: ['src/**/*.{ts,tsx}'], ignores: ['src/lib/query-keys.ts'], rules: { 'no-restricted-syntax': ['error', ...HAND_KEYS, ...API_FILE_LITERAL, ...HAND_PAGE_LINKS] } },
+  { files: ['src/**/*.{ts,tsx}'], ignores: ['src/lib/query-keys.ts'], rules: { 'no-restricted-syntax': ['error', ...HAND_KEYS, ...API_FILE_LITERAL, ...HAND_PAGE_LINKS, ...HAND_DATES] } },
   // server/app.ts mounts the API and the client under their paths; the route table documents /api.
   { files: ['server/**/*.ts'], ignores: ['server/app.ts', 'server/http/api.ts', 'server/config.ts'], rules: { 'no-restricted-syntax': ['error', ...SERVER_HAND_PATHS] } },
   {

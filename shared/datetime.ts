@@ -62,3 +62,25 @@ export function formatCalendarDay(day: string): string {
 export function calendarDaysBetween(from: Instant, to: Instant): number {
   return Math.floor(ms(to) / DAY_MS) - Math.floor(ms(from) / DAY_MS);
 }
+
+/** The UTC offset (ms) of a zone at an instant. */
+function offsetAt(ms: number, timeZone: string): number {
+  const parts = new Intl.DateTimeFormat('en-US', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit' }).formatToParts(ms);
+  const get = (t: string) => Number(parts.find((p) => p.type === t)?.value);
+  return Date.UTC(get('year'), get('month') - 1, get('day'), get('hour'), get('minute'), get('second')) - Math.floor(ms / 1000) * 1000;
+}
+
+/** A wall-clock time typed for the site ("2026-11-18T19:00") as ISO 8601 with the site's offset then; '' for anything else. */
+export function siteLocalToIso(local: string, timeZone: string): string {
+  // Only "YYYY-MM-DDTHH:MM" (a datetime-local field): Date.parse reads much else leniently.
+  if (!/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}$/.test(local)) return '';
+  const asUtc = Date.parse(`${local}:00Z`);
+  if (Number.isNaN(asUtc)) return '';
+  let ms = asUtc - offsetAt(asUtc, timeZone);
+  ms = asUtc - offsetAt(ms, timeZone);
+  const off = offsetAt(ms, timeZone) / 60_000;
+  const sign = off < 0 ? '-' : '+';
+  const hh = String(Math.floor(Math.abs(off) / 60)).padStart(2, '0');
+  const mm = String(Math.abs(off) % 60).padStart(2, '0');
+  return `${new Date(ms + off * 60_000).toISOString().slice(0, 19)}${sign}${hh}:${mm}`;
+}

@@ -61,3 +61,16 @@ describe('page paths and served files are never spelled by hand', () => {
     expect(await restricted("api.route({ method: 'get', path: '/surveys/:id' }, h);\nconst link = absoluteUrl(publicUrl, paths.surveyCompliance.to(id));\n", file)).toEqual([]);
   });
 });
+
+describe('dates are formatted in one place', () => {
+  it.each([
+    ["new Date(iso).toLocaleDateString('en-GB')", 'toLocaleDateString'],
+    ["new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium' }).format(d)", 'a formatter of its own'],
+  ])('refuses %s (%s) in the client', async (code) => {
+    expect(await restricted(`export const x = ${code};\n`, CLIENT_FILE)).toEqual([expect.stringContaining('shared/datetime.ts')]);
+  });
+
+  it('accepts the shared formatters', async () => {
+    expect(await restricted("export const x = formatDateTime(iso, zone, { seconds: true }) + formatCalendarDay('2026-12-02');\n", CLIENT_FILE)).toEqual([]);
+  });
+});

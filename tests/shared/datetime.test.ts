@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { calendarDaysBetween, formatCalendarDay, formatClock, formatDateTime, formatDay, zoneLabel } from '@shared/datetime';
+import { calendarDaysBetween, formatCalendarDay, formatClock, formatDateTime, formatDay, siteLocalToIso, zoneLabel } from '@shared/datetime';
 import { calibrationStatus } from '@server/modules/probes/calibration-state';
 import type { CoefficientSet } from '@shared/core/types';
 
@@ -54,5 +54,20 @@ describe('one date format, in a named zone, labelled', () => {
 
   it('keeps a calendar day the same everywhere', () => {
     expect(formatCalendarDay('2026-12-02')).toBe('2 Dec 2026');
+  });
+});
+
+describe('a wall-clock time typed for the site', () => {
+  // Offsets from the IANA time zone database: London GMT (+00:00) in November, BST (+01:00) in July;
+  // New York EST (−05:00) in November.
+  it('becomes ISO 8601 with the site\'s offset at that moment', () => {
+    expect(siteLocalToIso('2026-11-18T19:00', 'Europe/London')).toBe('2026-11-18T19:00:00+00:00');
+    expect(siteLocalToIso('2026-07-01T12:30', 'Europe/London')).toBe('2026-07-01T12:30:00+01:00');
+    expect(siteLocalToIso('2026-11-18T19:00', 'America/New_York')).toBe('2026-11-18T19:00:00-05:00');
+    expect(Date.parse(siteLocalToIso('2026-11-18T19:00', 'America/New_York'))).toBe(Date.parse('2026-11-19T00:00:00Z'));
+  });
+
+  it('is empty for text that is not a time', () => {
+    expect(siteLocalToIso('not a time', 'Europe/London')).toBe('');
   });
 });

@@ -13,7 +13,8 @@ import { useEmergencySurveys } from '@/features/emergency/api/get-emergency-surv
 import { SitesDue } from '@/features/emergency/components/tests-due';
 import { StartSurveyForm } from '@/features/emergency/components/start-survey-form';
 import { EmergencyCaution } from '@/features/emergency/components/emergency-caution';
-import { formatCalendarDate } from '@/features/emergency/components/format';
+import { formatCalendarDay } from '@shared/datetime';
+import { SURVEY_STATUS_LABELS } from '@shared/schemas/surveys';
 import { useCurrentUser } from '../../current-user';
 
 /**
@@ -49,7 +50,7 @@ export function EmergencyOverviewRoute() {
                   {d.items.map((s) => (
                     <li key={s.surveyId} className="flex flex-wrap items-center justify-between gap-2 py-2">
                       <Link to={paths.emergencySurvey.to(s.surveyId)} className="font-medium text-lamp-800 underline-offset-2 hover:underline">{s.name}</Link>
-                      <span className="text-sm text-ink-500">{s.siteName} · {s.startedOn ? formatCalendarDate(s.startedOn) : formatCalendarDate(s.createdAt.slice(0, 10))} · {s.status.replace('_', ' ')}</span>
+                      <span className="text-sm text-ink-500">{s.siteName} · {s.startedOn ? formatCalendarDay(s.startedOn) : formatCalendarDay(s.createdAt.slice(0, 10))} · {(SURVEY_STATUS_LABELS as Record<string, string>)[s.status] ?? s.status}</span>
                     </li>
                   ))}
                 </ul>

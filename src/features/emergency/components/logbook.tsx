@@ -5,7 +5,7 @@ import { Button } from '@/components/ui/button';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { FormError } from '@/components/ui/form-error';
 import { useAddLogbookEntry } from '../api/add-logbook-entry';
-import { formatCalendarDate } from './format';
+import { formatCalendarDay } from '@shared/datetime';
 
 /** Records a test as it was done: which test, when (site calendar), who, result, failed fittings and remarks. */
 export function LogbookEntryForm({ book }: { book: SiteLogbook }) {
@@ -52,7 +52,7 @@ export function LogbookEntries({ entries, total }: { entries: readonly LogbookEn
         <tbody>
           {entries.map((e) => (
             <tr key={e.id} className="border-t border-ink-100 align-top">
-              <td className="num py-1.5 pr-2">{formatCalendarDate(e.testedOn)}</td>
+              <td className="num py-1.5 pr-2">{formatCalendarDay(e.testedOn)}</td>
               <td className="pr-2">{e.kind === 'functional' ? 'Functional' : 'Full duration'}</td>
               <td className="pr-2">{e.testedBy}</td>
               <td className="pr-2"><Badge tone={e.result === 'pass' ? 'good' : 'bad'}>{e.result === 'pass' ? 'Passed' : 'Failed'}</Badge></td>

@@ -7,7 +7,7 @@ import { SelectField, TextField } from '@/components/ui/field';
 import { FormError } from '@/components/ui/form-error';
 import { useCriteriaSets } from '../api/get-criteria-sets';
 import { useCreateEmergencySurvey } from '../api/create-emergency-survey';
-import { siteLocalToIso } from './format';
+import { siteLocalToIso } from '@shared/datetime';
 
 type SiteOption = { id: number; name: string; timeZone: string };
 

@@ -1,7 +1,7 @@
 import { SYSTEM_TYPE_LABELS, type EmergencySurvey } from '@shared/schemas/emergency';
 import { Card, CardBody, CardHeader } from '@/components/ui/card';
 import { EmergencyVerdictBadge } from './emergency-verdict';
-import { formatSiteTime } from './format';
+import { formatDateTime } from '@shared/datetime';
 
 const PASS_WORD = { initial: 'Initial pass (right after the mains failed)', end_of_duration: 'End-of-duration pass' } as const;
 const minutes = (v: number | null) => (v === null ? '–' : `${v.toFixed(0)} min`);
@@ -19,12 +19,12 @@ export function SurveySummary({ survey }: { survey: EmergencySurvey }) {
           <dt className="text-ink-500">Criteria set</dt><dd>{survey.criteriaSet.name}{survey.criteriaSet.builtIn ? '' : ' (your organisation\'s)'} <span className="block text-xs text-ink-500">{survey.criteriaSet.source}</span></dd>
           <dt className="text-ink-500">Decision rule</dt><dd>{survey.ruleText}</dd>
           <dt className="text-ink-500">System</dt><dd>{SYSTEM_TYPE_LABELS[c.systemType]}, rated {c.ratedDurationMin} min</dd>
-          <dt className="text-ink-500">Mains cut</dt><dd>{formatSiteTime(c.mainsOffAt, survey.siteTimeZone)} ({survey.siteTimeZone})</dd>
+          <dt className="text-ink-500">Mains cut</dt><dd>{c.mainsOffAt ? formatDateTime(c.mainsOffAt, survey.siteTimeZone) : '–'} ({survey.siteTimeZone})</dd>
           <dt className="text-ink-500">Normal lighting</dt><dd>{c.normalLightingOff ? 'Off' : 'On: readings include it'}; daylight {c.daylightExcluded ? 'excluded' : 'present'}</dd>
         </dl>
         {survey.frozenAt && (
           <p className="rounded-lg bg-ink-50 px-3 py-2 text-ink-700 ring-1 ring-ink-100" data-testid="frozen-note">
-            Signed off {formatSiteTime(survey.frozenAt, survey.siteTimeZone)}: the verdicts, criteria set and logbook shown here and in the report are those frozen then; later changes do not alter them.
+            Signed off {survey.frozenAt ? formatDateTime(survey.frozenAt, survey.siteTimeZone) : '–'}: the verdicts, criteria set and logbook shown here and in the report are those frozen then; later changes do not alter them.
           </p>
         )}
         <ul className="grid gap-2 sm:grid-cols-2" aria-label="Passes">

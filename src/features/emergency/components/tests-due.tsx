@@ -2,7 +2,7 @@ import { Link } from 'react-router';
 import { paths } from '@shared/paths';
 import type { TestDueDto } from '@shared/schemas/emergency';
 import { Badge, type Tone } from '@/components/ui/badge';
-import { formatCalendarDate } from './format';
+import { formatCalendarDay } from '@shared/datetime';
 
 const KIND_WORD = { functional: 'Functional test', full_duration: 'Full-duration test' } as const;
 const STATE: Record<TestDueDto['state'], { word: (d: TestDueDto) => string; tone: Tone }> = {
@@ -21,8 +21,8 @@ export function DueList({ due }: { due: readonly TestDueDto[] }) {
           <span className="w-36 font-medium text-ink-800">{KIND_WORD[d.kind]}</span>
           <Badge tone={STATE[d.state].tone}>{STATE[d.state].word(d)}</Badge>
           <span className="text-ink-600">
-            {d.dueOn ? `due ${formatCalendarDate(d.dueOn)}` : 'due now'}
-            {d.lastTestedOn && ` · last ${formatCalendarDate(d.lastTestedOn)} (${d.lastResult === 'fail' ? 'failed' : 'passed'})`}
+            {d.dueOn ? `due ${formatCalendarDay(d.dueOn)}` : 'due now'}
+            {d.lastTestedOn && ` · last ${formatCalendarDay(d.lastTestedOn)} (${d.lastResult === 'fail' ? 'failed' : 'passed'})`}
           </span>
         </li>
       ))}

@@ -11,9 +11,10 @@ import { SelectField, TextField } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { FormError } from '@/components/ui/form-error';
 import { EmptyState, QueryState } from '@/components/ui/states';
+import { viewerTimeZone } from '@shared/datetime';
 
 const ZONES: string[] = typeof Intl.supportedValuesOf === 'function' ? Intl.supportedValuesOf('timeZone') : ['UTC', 'Europe/London'];
-const HERE = Intl.DateTimeFormat().resolvedOptions().timeZone || 'UTC';
+const HERE = viewerTimeZone();
 
 function CreateSiteForm() {
   const create = useCreateSite();
