@@ -83,4 +83,5 @@ export const apiFiles = {
   certificate: (coefficientSetId: Id) => `/api/coefficient-sets/${coefficientSetId}/certificate`,
   outboxAttachment: (attachmentId: Id) => `/api/outbox/attachments/${attachmentId}`,
   reportJobFile: (jobId: Id) => `/api/report-jobs/${jobId}/file`,
+  fieldPhoto: (photoId: Id) => `/api/field-photos/${photoId}`,
 } as const;

@@ -12,6 +12,10 @@ export const MAX_TYPED_VALUES = 20;
 
 export const BLINDS_STATES = ['open', 'closed', 'none'] as const;
 export const FIELD_UNITS = ['lx', 'fc'] as const;
+/** What a field record is: typed values, a mark for a logger burst, a skipped point, or a note on a zone. Stored codes. */
+export const FIELD_RECORD_KINDS = ['typed', 'mark', 'skip', 'zone_note'] as const;
+/** The electric lighting when a typed value was taken (lights-on/off pairs). Stored codes. */
+export const LIGHTS_STATES = ['on', 'off'] as const;
 
 export const fieldSessionBodySchema = z.object({
   idempotencyKey: idempotencyKeySchema,
@@ -47,7 +51,7 @@ export const fieldRecordBodySchema = z.discriminatedUnion('kind', [
     // Bad values are named by the core with the meter's range (422); the schema only bounds the count.
     values: z.array(z.number()).min(1, 'Type at least one value').max(MAX_TYPED_VALUES, `At most ${MAX_TYPED_VALUES} values at one point`),
     unit: z.enum(FIELD_UNITS),
-    lights: z.enum(['on', 'off']).nullable().optional(),
+    lights: z.enum(LIGHTS_STATES).nullable().optional(),
   }),
   z.object({ idempotencyKey: idempotencyKeySchema, kind: z.literal('mark'), ...placeFields, probeId: z.number().int().positive().nullable().optional() }),
   z.object({ idempotencyKey: idempotencyKeySchema, kind: z.literal('skip'), ...placeFields, reason: singleLineText(z.string().trim().min(1, 'Say why the point was skipped').max(500)) }),
@@ -68,7 +72,7 @@ export const fieldWarningSchema = z.object({ code: z.string(), message: z.string
 export const fieldRecordSchema = z.object({
   id: z.number().int(),
   idempotencyKey: z.string(),
-  kind: z.enum(['typed', 'mark', 'skip', 'zone_note']),
+  kind: z.enum(FIELD_RECORD_KINDS),
   sessionId: z.number().int().nullable(),
   /** The point's label; for a zone note, the zone's name when it was written. */
   point: z.string(),
@@ -82,7 +86,7 @@ export const fieldRecordSchema = z.object({
   probeSerial: z.string().nullable(),
   values: z.array(z.number()).nullable(),
   unit: z.enum(FIELD_UNITS).nullable(),
-  lights: z.enum(['on', 'off']).nullable(),
+  lights: z.enum(LIGHTS_STATES).nullable(),
   reason: z.string().nullable(),
   note: z.string().nullable(),
   recordedAt: z.string(),

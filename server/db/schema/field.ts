@@ -3,6 +3,8 @@ import { organizations, users, storedFiles } from './organizations';
 import { surveys, logImports } from './surveys';
 import { probes } from './calibration';
 import { plans, zones } from './plans';
+import { SKY_STATES } from '@shared/core/field-conditions';
+import { BLINDS_STATES, FIELD_RECORD_KINDS, FIELD_UNITS, LIGHTS_STATES } from '@shared/schemas/field';
 
 /**
  * Measurement conditions of one visit to a survey's site (a survey may take several). Written from
@@ -18,8 +20,8 @@ export const fieldSessions = sqliteTable('field_sessions', {
   lightsOnAt: integer('lights_on_at'),
   supplyVoltageV: real('supply_voltage_v'),
   ambientTempC: real('ambient_temp_c'),
-  sky: text('sky', { enum: ['overcast', 'clear', 'night'] }),
-  blinds: text('blinds', { enum: ['open', 'closed', 'none'] }),
+  sky: text('sky', { enum: SKY_STATES }),
+  blinds: text('blinds', { enum: BLINDS_STATES }),
   lampBurnInHours: real('lamp_burn_in_hours'),
   daylightExcluded: integer('daylight_excluded', { mode: 'boolean' }).notNull(),
   note: text('note'),
@@ -39,7 +41,7 @@ export const fieldRecords = sqliteTable('field_records', {
   organizationId: integer('organization_id').notNull().references(() => organizations.id),
   surveyId: integer('survey_id').notNull().references(() => surveys.id),
   idempotencyKey: text('idempotency_key').notNull(),
-  kind: text('kind', { enum: ['typed', 'mark', 'skip', 'zone_note'] }).notNull(),
+  kind: text('kind', { enum: FIELD_RECORD_KINDS }).notNull(),
   sessionId: integer('session_id').references(() => fieldSessions.id),
   point: text('point').notNull(),
   plannedPointId: integer('planned_point_id'),
@@ -51,8 +53,8 @@ export const fieldRecords = sqliteTable('field_records', {
   probeId: integer('probe_id').references(() => probes.id),
   /** Typed values in the unit the surveyor typed them. */
   values: text('values', { mode: 'json' }).$type<number[]>(),
-  unit: text('unit', { enum: ['lx', 'fc'] }),
-  lights: text('lights', { enum: ['on', 'off'] }),
+  unit: text('unit', { enum: FIELD_UNITS }),
+  lights: text('lights', { enum: LIGHTS_STATES }),
   reason: text('reason'),
   note: text('note'),
   /** The instant on the phone's clock. */

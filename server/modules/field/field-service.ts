@@ -24,6 +24,7 @@ import { listPlans } from '../plans/plans-service';
 import { listProbes } from '../probes/probes-service';
 import { loadDecodingCalibration } from '../probes/probe-calibration';
 import { createCoefficientSelector, isCalibrationLapsed } from '@shared/core/coefficient-sets';
+import { apiFiles } from '@shared/paths';
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 type FieldRecordRow = typeof fieldRecords.$inferSelect;
@@ -340,7 +341,7 @@ export function fieldState(deps: Deps, user: SessionUser, surveyId: number): Fie
 export function presentPhoto(p: typeof fieldPhotos.$inferSelect): FieldPhoto {
   return {
     id: p.id, idempotencyKey: p.idempotencyKey, point: p.point, plannedPointId: p.plannedPointId, zoneId: p.zoneId, note: p.note, widthPx: p.widthPx, heightPx: p.heightPx,
-    locationKept: p.locationKept, takenAt: iso(p.takenAt), url: `/api/field-photos/${p.id}`,
+    locationKept: p.locationKept, takenAt: iso(p.takenAt), url: apiFiles.fieldPhoto(p.id),
   };
 }
 

@@ -5,6 +5,7 @@ import { useSurveys } from '@/features/surveys/api/get-surveys';
 import { SURVEY_STATUS_LABELS } from '@shared/schemas/surveys';
 import { listSnapshots, type OfflineSnapshot } from '@/features/field/offline/field-db';
 import { useOnline } from '@/features/field/offline/use-field-survey';
+import { paths } from '@shared/paths';
 
 /** Choose a survey to measure: the open ones from the server, and those kept on this phone. */
 export function FieldIndexRoute() {
@@ -26,7 +27,7 @@ export function FieldIndexRoute() {
       <ul className="flex flex-col gap-2">
         {[...open.map((s) => ({ id: s.id, name: s.name, site: s.siteName, status: SURVEY_STATUS_LABELS[s.status] })), ...offlineOnly.map((k) => ({ id: k.surveyId, name: k.state.survey.name, site: k.state.survey.siteName, status: 'kept on this phone' }))].map((s) => (
           <li key={s.id}>
-            <Link to={`/field/surveys/${s.id}`} className="flex min-h-14 items-center justify-between rounded-xl bg-white px-4 py-2 text-base ring-2 ring-inset ring-ink-300 focus:ring-4 focus:ring-lamp-500">
+            <Link to={paths.fieldSurvey.to(s.id)} className="flex min-h-14 items-center justify-between rounded-xl bg-white px-4 py-2 text-base ring-2 ring-inset ring-ink-300 focus:ring-4 focus:ring-lamp-500">
               <span><span className="block font-bold">{s.name}</span><span className="text-sm text-ink-700">{s.site} · {s.status}{keptIds.has(s.id) ? ' · offline copy' : ''}</span></span>
               <ChevronRight className="h-5 w-5" aria-hidden />
             </Link>

@@ -6,6 +6,7 @@ import { meQueryOptions } from '@/features/auth/api/get-me';
 import { LuxtrailMark } from '@/components/brand/luxtrail-mark';
 import { UnitsToggle } from '@/components/ui/units-toggle';
 import type { SessionUser } from '@shared/schemas/auth';
+import { paths } from '@shared/paths';
 
 const LAST_USER = 'luxtrail.field.user';
 
@@ -18,7 +19,7 @@ export async function fieldShellLoader({ request }: LoaderFunctionArgs): Promise
     const user = await queryClient.ensureQueryData(meQueryOptions());
     if (!user) {
       const url = new URL(request.url);
-      throw redirect(`/sign-in?next=${encodeURIComponent(url.pathname + url.search)}`);
+      throw redirect(paths.signIn.to(url.pathname + url.search));
     }
     localStorage.setItem(LAST_USER, JSON.stringify(user));
     return user;
@@ -35,12 +36,12 @@ export function FieldShell() {
   return (
     <div className="min-h-screen bg-ink-50 text-ink-950">
       <header className="sticky top-0 z-30 flex items-center justify-between gap-2 bg-ink-950 px-3 py-2">
-        <Link to="/field" className="flex min-h-11 items-center gap-2 text-sm font-semibold text-white" aria-label="Field view: choose a survey">
+        <Link to={paths.field.to()} className="flex min-h-11 items-center gap-2 text-sm font-semibold text-white" aria-label="Field view: choose a survey">
           <LuxtrailMark className="h-6 text-white" />
         </Link>
         <div className="flex items-center gap-2">
           <UnitsToggle />
-          <Link to="/" className="flex min-h-11 items-center gap-1 rounded-lg px-2 text-sm font-semibold text-white"><ArrowLeft className="h-4 w-4" aria-hidden />App</Link>
+          <Link to={paths.home.to()} className="flex min-h-11 items-center gap-1 rounded-lg px-2 text-sm font-semibold text-white"><ArrowLeft className="h-4 w-4" aria-hidden />App</Link>
         </div>
       </header>
       <main id="main"><Outlet context={user} /></main>

@@ -3,7 +3,7 @@ import type { EmergencySurvey } from '@shared/schemas/emergency';
 import { SelectField } from '@/components/ui/field';
 import { FormError } from '@/components/ui/form-error';
 import { useSetLogPass } from '../api/set-log-pass';
-import { formatSiteTime } from './format';
+import { formatDateTime } from '@shared/datetime';
 
 const CHOICE_WORDS: Record<EmergencyPass | 'by_time', string> = {
   by_time: 'Split by time after the mains failed',
@@ -23,7 +23,7 @@ export function LogPasses({ survey }: { survey: EmergencySurvey }) {
           <li key={l.importId} className="flex flex-wrap items-end justify-between gap-3 py-2">
             <div className="min-w-0">
               <p className="break-all font-medium text-ink-900">{l.filename}</p>
-              <p className="text-xs text-ink-500">{l.readings} readings · uploaded {formatSiteTime(l.uploadedAt, survey.siteTimeZone)}</p>
+              <p className="text-xs text-ink-500">{l.readings} readings · uploaded {formatDateTime(l.uploadedAt, survey.siteTimeZone)}</p>
             </div>
             <SelectField label={`Pass of ${l.filename}`} className="w-full sm:w-80" value={l.pass ?? 'by_time'} disabled={!survey.canEdit || setPass.isPending}
               onChange={(e) => setPass.mutate({ surveyId: survey.surveyId, importId: l.importId, pass: e.target.value === 'by_time' ? null : (e.target.value as EmergencyPass) })}>

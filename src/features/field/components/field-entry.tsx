@@ -8,6 +8,7 @@ import { cx } from '@/components/ui/cx';
 import type { OutboxItem } from '../offline/field-db';
 import { newKey, outboxRecord } from '../offline/field-db';
 import { PhotoPicker } from './photo-picker';
+import { formatClock } from '@shared/datetime';
 
 const BIG = 'min-h-11 rounded-xl px-4 text-base font-semibold';
 const INPUT = 'block w-full min-h-11 rounded-xl border-0 bg-white px-3 text-base text-ink-950 ring-2 ring-inset ring-ink-400 focus:ring-4 focus:ring-lamp-500';
@@ -86,8 +87,9 @@ export function FieldEntry({ state, target, sessionKey, onAdd }: {
   };
 
   const saveMark = async () => {
-    await onAdd(outboxRecord(state.survey.id, { kind: 'mark', ...place, probeId: markProbeId === '' ? null : markProbeId, recordedAt: new Date().toISOString(), ...(note ? { note } : {}) }));
-    done(`Marked ${target.label} at ${new Date().toLocaleTimeString('en-GB', { timeZone: state.survey.siteTimeZone })}`);
+    const recordedAt = new Date().toISOString();
+    await onAdd(outboxRecord(state.survey.id, { kind: 'mark', ...place, probeId: markProbeId === '' ? null : markProbeId, recordedAt, ...(note ? { note } : {}) }));
+    done(`Marked ${target.label} at ${formatClock(recordedAt, state.survey.siteTimeZone, { seconds: true })}`);
   };
 
   const saveSkip = async () => {

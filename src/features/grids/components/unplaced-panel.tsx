@@ -1,6 +1,5 @@
 import { useState } from 'react';
 import { GripVertical } from 'lucide-react';
-import { formatDateTime } from '@shared/datetime';
 import type { PlannedPoint, UnplacedResponse } from '@shared/schemas/planned-points';
 import { formatDateTime } from '@shared/datetime';
 import { useUnits } from '@/lib/units';
