@@ -8,7 +8,7 @@ import { createBatchBuilder } from '@server/modules/imports/batch-format';
 import { createBatchWriter } from '@server/modules/imports/batch-writer';
 import { keepReadingCount } from '@server/modules/surveys/reading-counts';
 import { createTestApp, DEMO, type TestApp } from './helpers';
-import { buildSurvey } from './compliance-fixtures';
+import { buildSurvey } from './support/factories';
 
 // One 40 m x 25 m hall judged from 200,000 readings: more than any call stack takes as arguments,
 // so a spread or apply over them anywhere on the way (verdicts, sign-off, report) would fail.

@@ -1,7 +1,7 @@
 import { describe, it, expect, beforeAll } from 'vitest';
 import { PDFParse } from 'pdf-parse';
 import { createTestApp, DEMO, type TestApp } from './helpers';
-import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './compliance-fixtures';
+import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './support/factories';
 
 let t: TestApp;
 let surveyId: number;
