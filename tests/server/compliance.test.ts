@@ -1,9 +1,6 @@
 import { describe, it, expect, beforeEach } from 'vitest';
 import { createTestApp, DEMO, type TestApp } from './helpers';
-import { buildSurvey, gridReadings, OFFICE_AND_CORRIDOR, officeAndCorridorReadings, userId } from './support/factories';
-import { sites } from '@server/db/schema/sites';
-import { plans, zones } from '@server/db/schema/plans';
-import { storedFiles, userSites } from '@server/db/schema/organizations';
+import { assignSites, buildSurvey, gridReadings, insertPlan, insertSite, insertZone, OFFICE_AND_CORRIDOR, officeAndCorridorReadings, userId } from './support/factories';
 import { RULE_TEXT } from '@shared/core/decision';
 import { GRID_RULE } from '@shared/core/zone-stats';
 
@@ -70,7 +67,7 @@ describe('GET /api/surveys/:id/compliance', () => {
   it('a facility manager limited to another site, when asking, gets 404 and an overview without the site', async () => {
     const { surveyId, siteId } = buildSurvey(t, { ownerEmail: DEMO.surveyor, siteName: 'Scoped-out site', zones: OFFICE_AND_CORRIDOR, readings: officeAndCorridorReadings() });
     const elsewhere = buildSurvey(t, { ownerEmail: DEMO.surveyor, siteName: 'My site', zones: OFFICE_AND_CORRIDOR, readings: officeAndCorridorReadings() });
-    t.db.insert(userSites).values({ userId: userId(t, DEMO.facility_manager).id, siteId: elsewhere.siteId }).run();
+    assignSites(t, userId(t, DEMO.facility_manager).id, [elsewhere.siteId]);
     const fm = await t.signIn(DEMO.facility_manager);
     expect((await fm.get(`/api/surveys/${surveyId}/compliance`)).status).toBe(404);
     const overview = await fm.get('/api/compliance/sites');
@@ -83,12 +80,10 @@ describe('GET /api/surveys/:id/compliance', () => {
 describe('GET /api/surveys/:id/compliance on a site with overlapping plans', () => {
   it('two floors with the same room outline, when readings name their plan, judge each room on its own floor\'s readings and warn about unplaced ones', async () => {
     const owner = userId(t, DEMO.surveyor);
-    const now = t.clock.now();
-    const siteId = t.db.insert(sites).values({ organizationId: owner.organizationId, name: 'Two-floor site', timeZone: 'Europe/London', createdAt: now }).returning().get().id;
-    const file = t.db.insert(storedFiles).values({ organizationId: owner.organizationId, sha256: 'e'.repeat(64), filename: 'upper.png', contentType: 'image/png', size: 1, createdAt: now }).returning().get();
-    const upper = t.db.insert(plans).values({ siteId, name: 'Upper floor', fileId: file.id, widthPx: 1000, heightPx: 1000, metresPerPixel: 0.05, createdAt: now }).returning().get();
-    t.db.insert(zones).values({ planId: upper.id, name: 'Upper office', kind: 'room', useType: 'office_writing', wallBandM: 0.5, polygon: OFFICE_AND_CORRIDOR[0].polygon, createdAt: now }).run();
-    const upperReadings = gridReadings(0, 0, 4, 4, 7, 7, () => 200).map((r) => ({ ...r, planId: upper.id }));
+    const siteId = insertSite(t, owner.organizationId, 'Two-floor site');
+    const upper = insertPlan(t, owner.organizationId, siteId, 'Upper floor');
+    insertZone(t, upper, { name: 'Upper office', useType: 'office_writing', polygon: OFFICE_AND_CORRIDOR[0].polygon });
+    const upperReadings = gridReadings(0, 0, 4, 4, 7, 7, () => 200).map((r) => ({ ...r, planId: upper }));
     const { surveyId } = buildSurvey(t, {
       ownerEmail: DEMO.surveyor, siteId, zones: OFFICE_AND_CORRIDOR,
       readings: [...officeAndCorridorReadings(), ...upperReadings, { x: 2, y: 2, lux: 5, point: 'LOST', planId: null }],

@@ -2,8 +2,8 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import sharp from 'sharp';
 import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
-import { buildSurvey, userId, createCountingProbe } from './support/factories';
-import { coefficientSets, probes } from '@server/db/schema/calibration';
+import { buildSurvey, userId, createCountingProbe, insertManualProbe } from './support/factories';
+import { probes } from '@server/db/schema/calibration';
 import { logImports, readings, surveys } from '@server/db/schema/surveys';
 import { waitForImport } from '@server/modules/imports/imports-service';
 import { binary, pdfText } from './pdf-text';
@@ -20,16 +20,7 @@ let manualProbeId: number;
 let certificateProbeId: number;
 
 function manualProbe(t: TestApp, serial: string, meterClass: 'L' | 'A' | 'B' | 'C' | null, uRel: number | null, rangeHighLux: number | null = 50_000) {
-  const org = userId(t, DEMO.surveyor).organizationId;
-  const now = t.clock.now();
-  const id = t.db.insert(probes).values({ organizationId: org, serial, kind: 'manual', description: 'hand-held', meterClass, rangeLowLux: 0, rangeHighLux, createdAt: now, updatedAt: now }).returning().get().id;
-  if (uRel !== null) {
-    t.db.insert(coefficientSets).values({
-      probeId: id, version: 1, status: 'approved', effectiveFrom: now - 86_400_000, dueDate: now + 300 * 86_400_000, tRefMs: 100, alphaPerK: 0, tCalC: 23,
-      gains: [{ code: 0, darkCounts: 0, luxPerCount: 1, uRel }], certificateNumber: `CERT-${serial}`, createdAt: now,
-    }).run();
-  }
-  return id;
+  return insertManualProbe(t, userId(t, DEMO.surveyor).organizationId, { serial, meterClass, uRel, rangeHighLux });
 }
 
 function draftSurvey(name: string, conditions?: { daylightExcluded: boolean; pairedDaylight?: boolean }) {

@@ -1,8 +1,8 @@
 import { describe, it, expect, beforeAll } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { DEMO, type TestApp, type TestClient } from './helpers';
-import { newDraftSurvey, TEST_SERIALS, testWalkCsv, uploadAndWait, appWithTestProbes } from './support/factories';
-import { coefficientSets, probes } from '@server/db/schema/calibration';
+import { newDraftSurvey, TEST_SERIALS, testWalkCsv, uploadAndWait, appWithTestProbes, insertCoefficientSet } from './support/factories';
+import { probes } from '@server/db/schema/calibration';
 import { decodes, readings, surveys } from '@server/db/schema/surveys';
 import { auditEvents } from '@server/db/schema/organizations';
 import { DEMO_COUNTING_PROBES } from '@server/db/demo/demo-probes';
@@ -27,11 +27,11 @@ describe('re-decoding a survey', () => {
     // Calibration staff approve a corrected set: responsivity 10 % higher at every gain.
     const probe = t.db.select().from(probes).where(eq(probes.serial, TEST_SERIALS.tripod)).get()!;
     const p = DEMO_COUNTING_PROBES[0];
-    const corrected = t.db.insert(coefficientSets).values({
-      probeId: probe.id, version: 2, status: 'approved', effectiveFrom: t.clock.now() - 30 * 86_400_000, dueDate: t.clock.now() + 300 * 86_400_000,
+    const corrected = insertCoefficientSet(t, probe.id, {
+      version: 2, effectiveFrom: t.clock.now() - 30 * 86_400_000, dueDate: t.clock.now() + 300 * 86_400_000,
       tRefMs: p.tRefMs, alphaPerK: p.alphaPerK, tCalC: p.tCalC, gains: p.coefficients.map((g) => ({ ...g, luxPerCount: g.luxPerCount * 1.1 })),
-      certificateNumber: 'CORR-1', createdAt: t.clock.now(), approvedAt: t.clock.now(),
-    }).returning().get();
+      certificateNumber: 'CORR-1', approvedAt: t.clock.now(),
+    });
 
     const surveyor = await c.post(`/api/surveys/${surveyId}/redecode`);
     expect(surveyor.status).toBe(403);
@@ -62,11 +62,11 @@ describe('re-decoding a survey', () => {
 
     const probe = t.db.select().from(probes).where(eq(probes.serial, TEST_SERIALS.handheld)).get()!;
     const p = DEMO_COUNTING_PROBES[1];
-    t.db.insert(coefficientSets).values({
-      probeId: probe.id, version: 2, status: 'approved', effectiveFrom: Date.parse('2026-11-01T00:00:00Z'), dueDate: t.clock.now() + 300 * 86_400_000,
+    insertCoefficientSet(t, probe.id, {
+      version: 2, effectiveFrom: Date.parse('2026-11-01T00:00:00Z'), dueDate: t.clock.now() + 300 * 86_400_000,
       tRefMs: p.tRefMs, alphaPerK: p.alphaPerK, tCalC: p.tCalC, gains: p.coefficients.map((g) => ({ ...g, luxPerCount: g.luxPerCount * 0.9 })),
-      certificateNumber: 'CORR-2', createdAt: t.clock.now(), approvedAt: t.clock.now(),
-    }).run();
+      certificateNumber: 'CORR-2', approvedAt: t.clock.now(),
+    });
     expect((await cal.get(`/api/surveys/${surveyId}/decode-changes`)).body.decodedWithCurrentSets).toBe(false);
     const before = (await c.get(`/api/surveys/${surveyId}/readings`)).body.items;
     expect((await cal.post(`/api/surveys/${surveyId}/redecode`)).status).toBe(200);

@@ -1,6 +1,6 @@
 import { describe, it, expect, beforeAll } from 'vitest';
 import { createTestApp, DEMO, type TestApp } from './helpers';
-import { userSites } from '@server/db/schema/organizations';
+import { assignSites, unassignSites } from './support/factories';
 import { surveys } from '@server/db/schema/surveys';
 import { eq } from 'drizzle-orm';
 
@@ -55,7 +55,7 @@ describe('sites API', () => {
     const extra = await admin.post('/api/sites').send({ name: 'Scoped annexe', timeZone: 'Europe/London' });
     const library = (await admin.get('/api/sites')).body.items.find((s: { name: string }) => s.name === 'Fernmoor Community Library');
     const fmId = (await admin.get('/api/users')).body.items.find((u: { email: string }) => u.email === DEMO.facility_manager).id;
-    t.db.insert(userSites).values({ userId: fmId, siteId: extra.body.id }).run();
+    assignSites(t, fmId, [extra.body.id]);
     try {
       const fm = await t.signIn(DEMO.facility_manager);
       const sites = await fm.get('/api/sites');
@@ -65,7 +65,7 @@ describe('sites API', () => {
       expect((await fm.get(`/api/surveys/${librarySurvey.id}`)).status).toBe(404);
       expect((await fm.get('/api/surveys')).body.items).toEqual([]);
     } finally {
-      t.db.delete(userSites).where(eq(userSites.userId, fmId)).run();
+      unassignSites(t, fmId);
     }
   });
 });

@@ -1,9 +1,9 @@
 import { describe, it, expect, beforeEach } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp } from './helpers';
-import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './support/factories';
+import { buildSurvey, insertDecode, OFFICE_AND_CORRIDOR, officeAndCorridorReadings } from './support/factories';
 import { outboxAttachments, outboxMessages } from '@server/db/schema/organizations';
-import { decodes, readings, surveys } from '@server/db/schema/surveys';
+import { surveys } from '@server/db/schema/surveys';
 import { RULE_TEXT } from '@shared/core/decision';
 
 let t: TestApp;
@@ -97,10 +97,7 @@ describe('POST /api/surveys/:id/sign-off', () => {
     const before = (await fm.get(`/api/surveys/${f.surveyId}/compliance`)).body;
     const csvBefore = (await fm.get(`/api/surveys/${f.surveyId}/compliance/readings.csv`)).text;
     // A later decode (e.g. corrected coefficients) becomes the active one with every reading at 10 lx.
-    const decode = t.db.insert(decodes).values({ surveyId: f.surveyId, reason: 'corrected set', createdAt: t.clock.now() }).returning().get();
-    const imp = t.db.select().from(readings).where(eq(readings.decodeId, f.decodeId)).get()!.importId;
-    t.db.insert(readings).values({ surveyId: f.surveyId, decodeId: decode.id, importId: imp, point: 'X', xM: 1, yM: 1, role: 'task', timeMs: t.clock.now(), probeId: f.probeId, lux: 10, uLux: 0.4, luxBound: 'exact', flag: 'ok', sampleCount: 1 }).run();
-    t.db.update(surveys).set({ activeDecodeId: decode.id }).where(eq(surveys.id, f.surveyId)).run();
+    insertDecode(t, f.surveyId, [{ point: 'X', xM: 1, yM: 1, role: 'task', timeMs: t.clock.now(), probeId: f.probeId, lux: 10, uLux: 0.4, luxBound: 'exact', flag: 'ok', sampleCount: 1 }]);
     const after = (await fm.get(`/api/surveys/${f.surveyId}/compliance`)).body;
     expect(after.zones).toEqual(before.zones);
     expect((await fm.get(`/api/surveys/${f.surveyId}/compliance/readings.csv`)).text).toBe(csvBefore);

@@ -2,7 +2,7 @@ import { eq } from 'drizzle-orm';
 import type { RouteExamples } from './types';
 import type { TestApp } from '../helpers';
 import { DEMO } from '../helpers';
-import { buildSurvey, OFFICE_AND_CORRIDOR, officeAndCorridorReadings, userId } from '../support/factories';
+import { buildSurvey, insertTarget, OFFICE_AND_CORRIDOR, officeAndCorridorReadings, userId } from '../support/factories';
 import { targets } from '@server/db/schema/targets';
 
 let n = 0;
@@ -23,7 +23,7 @@ async function reportJob(t: TestApp, done: boolean): Promise<{ id: string }> {
 /** An entry of the demo organisation's own, inserted directly so every role's example has one. */
 function ownTarget(t: TestApp): number {
   const org = userId(t, DEMO.admin).organizationId;
-  return t.db.insert(targets).values({ organizationId: org, useType: `matrix_${unique()}`, name: 'Matrix entry', emLux: 300, source: 'matrix test', confidence: 'published', createdAt: t.clock.now() }).returning().get().id;
+  return insertTarget(t, org, `matrix_${unique()}`, 'Matrix entry');
 }
 
 export const complianceExamples: RouteExamples = {

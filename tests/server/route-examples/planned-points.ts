@@ -1,11 +1,9 @@
 import type { RouteExamples } from './types';
 import type { TestApp } from '../helpers';
 import { DEMO } from '../helpers';
-import { insertSite, orgOf, pngOf } from '../support/factories';
+import { insertDecode, insertProbe, insertSite, orgOf, pngOf } from '../support/factories';
 import { eq } from 'drizzle-orm';
-import { decodes, logImports, readings, surveys } from '@server/db/schema/surveys';
-import { probes } from '@server/db/schema/calibration';
-import { storedFiles } from '@server/db/schema/organizations';
+import { readings, surveys } from '@server/db/schema/surveys';
 
 let n = 0;
 
@@ -70,15 +68,12 @@ export const plannedPointExamples: RouteExamples = {
 async function exampleUnplaced(t: TestApp) {
   const g = await exampleGrid(t);
   const survey = t.db.select().from(surveys).where(eq(surveys.id, g.surveyId)).get()!;
-  const probe = t.db.insert(probes).values({ organizationId: survey.organizationId, serial: `LX-P${n++}-${Math.random().toString(36).slice(2, 6)}`, kind: 'counts', createdAt: 0, updatedAt: 0 }).returning().get();
-  const file = t.db.insert(storedFiles).values({ organizationId: survey.organizationId, sha256: 'e'.repeat(64), filename: 'log.csv', contentType: 'text/csv', size: 1, createdAt: 0 }).returning().get();
-  const imp = t.db.insert(logImports).values({ surveyId: survey.id, fileId: file.id, status: 'done', createdAt: 0 }).returning().get();
-  const decode = t.db.insert(decodes).values({ surveyId: survey.id, reason: 'import', createdAt: 0 }).returning().get();
-  const reading = t.db.insert(readings).values({
-    surveyId: survey.id, decodeId: decode.id, importId: imp.id, point: 'LOOSE-1', xM: null, yM: null, planId: null, role: 'task', timeMs: t.clock.now() + n, probeId: probe.id,
+  const probeId = insertProbe(t, survey.organizationId, 'LX-P');
+  const { decodeId } = insertDecode(t, survey.id, [{
+    point: 'LOOSE-1', xM: null, yM: null, planId: null, role: 'task', timeMs: t.clock.now() + n++, probeId,
     lux: 420, uLux: 30, luxBound: 'exact', flag: 'ok', gainCode: 2, sampleCount: 1, budget: [{ name: 'calibration', uRel: 0.04 }],
-  }).returning().get();
-  t.db.update(surveys).set({ activeDecodeId: decode.id }).where(eq(surveys.id, survey.id)).run();
+  }]);
+  const reading = t.db.select({ id: readings.id }).from(readings).where(eq(readings.decodeId, decodeId)).get()!;
   return { ...g, readingId: reading.id };
 }
 

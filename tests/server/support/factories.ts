@@ -8,7 +8,8 @@ import { surveys, decodes, logImports, readings } from '@server/db/schema/survey
 import { sites } from '@server/db/schema/sites';
 import { plans, zones } from '@server/db/schema/plans';
 import { coefficientSets, probes } from '@server/db/schema/calibration';
-import { storedFiles, users } from '@server/db/schema/organizations';
+import { targets } from '@server/db/schema/targets';
+import { storedFiles, userSites, users } from '@server/db/schema/organizations';
 import { DEMO_ANALOG_PROBE, DEMO_COUNTING_PROBES, type DemoCountingProbe } from '@server/db/demo/demo-probes';
 import { simulateDemoWalk, toLogCsv, type SimRow } from '@server/db/demo/simulate-log';
 import { waitForImport } from '@server/modules/imports/imports-service';
@@ -39,6 +40,51 @@ let probeSerial = 0;
 export function insertProbe(t: TestApp, organizationId: number, serialPrefix = 'TP', description = ''): number {
   const now = t.clock.now();
   return t.db.insert(probes).values({ organizationId, serial: `${serialPrefix}-${(probeSerial++).toString(36)}-${Math.random().toString(36).slice(2, 6)}`, kind: 'counts', description, createdAt: now, updatedAt: now }).returning().get().id;
+}
+
+/** A manual (hand-held, non-logging) meter: a DIN 5032-7 class, or a certificate's relative uncertainty as its coefficient set. */
+export function insertManualProbe(t: TestApp, organizationId: number, opts: { serial: string; meterClass: 'L' | 'A' | 'B' | 'C' | null; uRel: number | null; rangeHighLux?: number | null }): number {
+  const now = t.clock.now();
+  const id = t.db.insert(probes).values({ organizationId, serial: opts.serial, kind: 'manual', description: 'hand-held', meterClass: opts.meterClass, rangeLowLux: 0, rangeHighLux: opts.rangeHighLux === undefined ? 50_000 : opts.rangeHighLux, createdAt: now, updatedAt: now }).returning().get().id;
+  if (opts.uRel !== null) {
+    insertCoefficientSet(t, id, { tRefMs: 100, alphaPerK: 0, tCalC: 23, gains: [{ code: 0, darkCounts: 0, luxPerCount: 1, uRel: opts.uRel }], certificateNumber: `CERT-${opts.serial}`, dueDate: now + 300 * 86_400_000 });
+  }
+  return id;
+}
+
+type CoefficientSetValues = Omit<typeof coefficientSets.$inferInsert, 'probeId' | 'version' | 'status' | 'effectiveFrom' | 'dueDate' | 'createdAt'>
+  & Partial<Pick<typeof coefficientSets.$inferInsert, 'version' | 'status' | 'effectiveFrom' | 'dueDate'>>;
+/** An approved coefficient set of a probe (version 1, in force from a day ago, due in 200 days unless given). */
+export function insertCoefficientSet(t: TestApp, probeId: number, values: CoefficientSetValues) {
+  const now = t.clock.now();
+  return t.db.insert(coefficientSets).values({
+    version: 1, status: 'approved', effectiveFrom: now - 86_400_000, dueDate: now + 200 * 86_400_000, createdAt: now, ...values, probeId,
+  }).returning().get();
+}
+
+/** A plan of a site at 0.05 m per pixel over 1000 px × 1000 px (a 50 m square), on a stored file with no bytes. */
+export function insertPlan(t: TestApp, organizationId: number, siteId: number, name = 'Fixture floor'): number {
+  return t.db.insert(plans).values({ siteId, name, fileId: insertStoredFile(t, organizationId, 'plan.png').id, widthPx: 1000, heightPx: 1000, metresPerPixel: 0.05, createdAt: t.clock.now() }).returning().get().id;
+}
+
+/** A zone on a plan (a room with a 0.5 m wall band unless told). */
+export function insertZone(t: TestApp, planId: number, z: Pick<FixtureZone, 'name' | 'useType' | 'polygon'> & Partial<Pick<FixtureZone, 'kind' | 'wallBandM'>>): number {
+  return t.db.insert(zones).values({ planId, name: z.name, kind: z.kind ?? 'room', useType: z.useType, wallBandM: z.wallBandM ?? 0.5, polygon: z.polygon, createdAt: t.clock.now() }).returning().get().id;
+}
+
+/** An organisation's own target entry (300 lx, published) for a use type of its own. */
+export function insertTarget(t: TestApp, organizationId: number, useType: string, name = 'Own entry'): number {
+  return t.db.insert(targets).values({ organizationId, useType, name, emLux: 300, source: 'test entry', confidence: 'published', createdAt: t.clock.now() }).returning().get().id;
+}
+
+/** Limits a user (a facility manager) to the given sites. */
+export function assignSites(t: TestApp, userIdValue: number, siteIds: readonly number[]): void {
+  for (const siteId of siteIds) t.db.insert(userSites).values({ userId: userIdValue, siteId }).run();
+}
+
+/** Lifts a user's limit to some sites (back to every site of the organisation). */
+export function unassignSites(t: TestApp, userIdValue: number): void {
+  t.db.delete(userSites).where(eq(userSites.userId, userIdValue)).run();
 }
 
 export type ReadingValues = Omit<typeof readings.$inferInsert, 'surveyId' | 'decodeId' | 'importId'>;
@@ -83,23 +129,20 @@ export function buildSurvey(t: TestApp, opts: {
   const owner = userId(t, opts.ownerEmail);
   const org = owner.organizationId;
   const now = t.clock.now();
-  const siteId = opts.siteId ?? t.db.insert(sites).values({ organizationId: org, name: opts.siteName ?? 'Fixture site', timeZone: 'Europe/London', createdAt: now }).returning().get().id;
+  const siteId = opts.siteId ?? insertSite(t, org, opts.siteName ?? 'Fixture site');
   let planId: number;
   let zoneIds: Record<string, number>;
   let probeId: number;
   let coefficientSetId: number;
   if (opts.reuse) ({ planId, zoneIds, probeId, coefficientSetId } = opts.reuse);
   else {
-    planId = t.db.insert(plans).values({ siteId, name: 'Fixture floor', fileId: insertStoredFile(t, org, 'plan.png').id, widthPx: 1000, heightPx: 1000, metresPerPixel: 0.05, createdAt: now }).returning().get().id;
+    planId = insertPlan(t, org, siteId);
     zoneIds = {};
-    for (const z of opts.zones) {
-      zoneIds[z.key] = t.db.insert(zones).values({ planId, name: z.name, kind: z.kind ?? 'room', useType: z.useType, wallBandM: z.wallBandM ?? 0.5, polygon: z.polygon, createdAt: now }).returning().get().id;
-    }
+    for (const z of opts.zones) zoneIds[z.key] = insertZone(t, planId, z);
     probeId = insertProbe(t, org, 'FX', 'fixture probe');
-    coefficientSetId = t.db.insert(coefficientSets).values({
-      probeId, version: 1, status: 'approved', effectiveFrom: now - 86_400_000, dueDate: now + 200 * 86_400_000, tRefMs: 100, alphaPerK: -0.001, tCalC: 23,
-      gains: [{ code: 0, darkCounts: 50, luxPerCount: 2, uRel: 0.02 }], certificateNumber: `FX-CERT-${probeId}`, createdAt: now,
-    }).returning().get().id;
+    coefficientSetId = insertCoefficientSet(t, probeId, {
+      tRefMs: 100, alphaPerK: -0.001, tCalC: 23, gains: [{ code: 0, darkCounts: 50, luxPerCount: 2, uRel: 0.02 }], certificateNumber: `FX-CERT-${probeId}`,
+    }).id;
   }
   const status = opts.status ?? 'submitted';
   const survey = t.db.insert(surveys).values({
