@@ -66,11 +66,11 @@ export function addBenchProbes(db: Database.Database, email: string, start: numb
   return { probeIds, setIds };
 }
 
-/** Writes a generated log of `rows` rows (bursts, saturations, two probes) naming `planName`. */
-export async function writeBenchLog(file: string, rows: number, probes: typeof benchProbes, start: number, planName: string) {
+/** Writes lines to a file in blocks of 10,000, waiting for the stream to drain (a million-row log never sits in memory). */
+export async function writeLines(file: string, lines: Iterable<string>) {
   const out = fs.createWriteStream(file);
   let buf: string[] = [];
-  for (const line of benchLogLines(rows, probes, start, 7, planName)) {
+  for (const line of lines) {
     buf.push(line);
     if (buf.length >= 10_000) {
       if (!out.write(`${buf.join('\n')}\n`)) await new Promise<void>((r) => out.once('drain', () => r()));
@@ -79,4 +79,9 @@ export async function writeBenchLog(file: string, rows: number, probes: typeof b
   }
   out.end(buf.length ? `${buf.join('\n')}\n` : '');
   await new Promise<void>((r) => out.once('finish', () => r()));
+}
+
+/** Writes a generated log of `rows` rows (bursts, saturations, two probes) naming `planName`. */
+export async function writeBenchLog(file: string, rows: number, probes: typeof benchProbes, start: number, planName: string) {
+  await writeLines(file, benchLogLines(rows, probes, start, 7, planName));
 }

@@ -8,12 +8,10 @@
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import net from 'node:net';
-import { spawn } from 'node:child_process';
 import Database from 'better-sqlite3';
 import Papa from 'papaparse';
-import { benchLogLines, simProbe } from '../../server/db/demo/simulate-log';
-import { DEMO_COUNTING_PROBES } from '../../server/db/demo/demo-probes';
+import { benchLogLines } from '../../server/db/demo/simulate-log';
+import { addBenchProbes, benchProbes, pct, startBenchServer, writeBenchLog, writeLines } from './bench-server';
 
 const N = Number(process.env.INGEST_ROWS ?? 1_000_000);
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'luxtrail-ingest-'));
@@ -22,59 +20,32 @@ const labelLogPath = path.join(dir, 'bench-log-labels.csv');
 const START = Date.parse('2026-11-10T00:00:00Z');
 /** Every row names the demo site's outdoor plan (60 m x 40 m, the bench points' frame). */
 const BENCH_PLAN = 'Car park and entrance';
-const probes = [{ ...simProbe(DEMO_COUNTING_PROBES[0]), serial: 'BENCH-A' }, { ...simProbe(DEMO_COUNTING_PROBES[1]), serial: 'BENCH-B' }] as [ReturnType<typeof simProbe>, ReturnType<typeof simProbe>];
-
-async function writeLog() {
-  const out = fs.createWriteStream(logPath);
-  let buf: string[] = [];
-  for (const line of benchLogLines(N, probes, START, 7, BENCH_PLAN)) {
-    buf.push(line);
-    if (buf.length >= 10_000) {
-      if (!out.write(`${buf.join('\n')}\n`)) await new Promise<void>((r) => out.once('drain', () => r()));
-      buf = [];
-    }
-  }
-  out.end(buf.length ? `${buf.join('\n')}\n` : '');
-  await new Promise<void>((r) => out.once('finish', () => r()));
-}
 
 /**
  * The same rows with x_m, y_m and plan emptied and each point label replaced by a planned point's
  * label (the n-th distinct point takes the n-th label, cycling), so the bursts stay as they were.
  */
 async function writeLabelLog(labels: readonly string[]) {
-  const out = fs.createWriteStream(labelLogPath);
   let last = '';
   let k = -1;
-  let buf: string[] = [];
-  for (const line of benchLogLines(N, probes, START, 7, BENCH_PLAN)) {
-    const c = line.split(',');
-    if (c[0] !== 'timestamp') {
-      if (c[2] !== last) { last = c[2]; k++; }
-      c[2] = labels[k % labels.length];
-      c[6] = '';
-      c[7] = '';
-      c[8] = '';
+  await writeLines(labelLogPath, (function* () {
+    for (const line of benchLogLines(N, benchProbes, START, 7, BENCH_PLAN)) {
+      const c = line.split(',');
+      if (c[0] !== 'timestamp') {
+        if (c[2] !== last) { last = c[2]; k++; }
+        c[2] = labels[k % labels.length];
+        c[6] = '';
+        c[7] = '';
+        c[8] = '';
+      }
+      yield c.join(',');
     }
-    buf.push(c.join(','));
-    if (buf.length >= 10_000) {
-      if (!out.write(`${buf.join('\n')}\n`)) await new Promise<void>((r) => out.once('drain', () => r()));
-      buf = [];
-    }
-  }
-  out.end(buf.length ? `${buf.join('\n')}\n` : '');
-  await new Promise<void>((r) => out.once('finish', () => r()));
+  })());
 }
-
-const freePort = () => new Promise<number>((resolve) => {
-  const s = net.createServer().listen(0, '127.0.0.1', () => { const p = (s.address() as net.AddressInfo).port; s.close(() => resolve(p)); });
-});
-
-const pct = (xs: number[], p: number) => { const s = [...xs].sort((a, b) => a - b); return s[Math.min(s.length - 1, Math.ceil((p / 100) * s.length) - 1)]; };
 
 async function main() {
   console.log(`Generating ${N.toLocaleString('en-GB')} rows…`);
-  await writeLog();
+  await writeBenchLog(logPath, N, benchProbes, START, BENCH_PLAN);
   const bytes = fs.statSync(logPath).size;
   console.log(`Log: ${(bytes / 1e6).toFixed(1)} MB`);
 
@@ -110,51 +81,32 @@ type BenchServer = { base: string; pid: number; headers: Record<string, string>;
 
 /** Starts the server on a fresh database (the demo seed and the benchmark's probes), signs in, runs `work`, stops the server. */
 async function runOnFreshServer(name: string, work: (srv: BenchServer) => Promise<void>) {
-  const port = await freePort();
-  const dbPath = path.join(dir, `luxtrail-${name}.db`);
-  const server = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
-    env: { ...process.env, PORT: String(port), DATABASE_URL: dbPath, DATA_DIR: path.join(dir, `data-${name}`), LOG_LEVEL: 'warn', NODE_ENV: 'test', UPLOAD_LIMIT_MB: '400' },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  });
-  let serverOut = '';
-  server.stdout.on('data', (d) => { serverOut += d; });
-  server.stderr.on('data', (d) => { serverOut += d; });
-  const base = `http://127.0.0.1:${port}`;
+  const serverDir = path.join(dir, name);
+  fs.mkdirSync(serverDir);
+  const server = await startBenchServer(serverDir);
+  const { base, origin } = server;
   try {
-    for (let i = 0; ; i++) {
-      try { if ((await fetch(`${base}/api/health`)).ok) break; } catch { /* starting */ }
-      if (i > 600) throw new Error(`server did not start:\n${serverOut}`);
-      await new Promise((r) => setTimeout(r, 100));
-    }
     // The benchmark's own probes, with the demo probes' coefficients.
-    const db = new Database(dbPath);
+    const db = new Database(server.dbPath);
     db.pragma('busy_timeout = 5000');
-    const orgId = (db.prepare("select organization_id as o from users where email = 'surveyor@luxtrail.test'").get() as { o: number }).o;
-    for (const p of probes) {
-      const id = db.prepare("insert into probes (organization_id, serial, kind, description, full_scale_counts, saturation_counts, floor_counts, gains, created_at, updated_at) values (?, ?, 'counts', 'bench', ?, ?, ?, ?, 0, 0)")
-        .run(orgId, p.serial, p.probe.fullScaleCounts, p.probe.saturationCounts, p.probe.floorCounts, JSON.stringify(p.probe.gains)).lastInsertRowid;
-      db.prepare("insert into coefficient_sets (probe_id, version, status, effective_from, due_date, t_ref_ms, alpha_per_k, t_cal_c, gains, certificate_number, created_at) values (?, 1, 'approved', ?, ?, ?, ?, ?, ?, 'BENCH', 0)")
-        .run(id, START - 86_400_000, START + 400 * 86_400_000, p.set.tRefMs, p.set.alphaPerK, p.set.tCalC, JSON.stringify(p.set.gains));
-    }
+    addBenchProbes(db, 'surveyor@luxtrail.test', START);
     db.close();
 
-    const login = await fetch(`${base}/api/auth/login`, { method: 'POST', headers: { 'Content-Type': 'application/json', Origin: `http://localhost:${port}` }, body: JSON.stringify({ email: 'surveyor@luxtrail.test', password: 'luxtrail-demo' }) });
+    const login = await fetch(`${base}/api/auth/login`, { method: 'POST', headers: { 'Content-Type': 'application/json', Origin: origin }, body: JSON.stringify({ email: 'surveyor@luxtrail.test', password: 'luxtrail-demo' }) });
     const cookie = (login.headers.get('set-cookie') ?? '').split(';')[0];
-    const headers = { Cookie: cookie, Origin: `http://localhost:${port}` };
+    const headers = { Cookie: cookie, Origin: origin };
     const sites = await (await fetch(`${base}/api/sites`, { headers })).json() as { items: { id: number }[] };
 
     const siteId = sites.items[0].id;
     const createSurvey = async (surveyName: string) => (await (await fetch(`${base}/api/surveys`, { method: 'POST', headers: { ...headers, 'Content-Type': 'application/json' }, body: JSON.stringify({ siteId, name: surveyName }) })).json() as { id: number }).id;
-    await work({ base, pid: server.pid!, headers, siteId, createSurvey });
+    await work({ base, pid: server.pid, headers, siteId, createSurvey });
   } catch (err) {
-    console.error(serverOut.slice(-3000));
+    console.error(server.output().slice(-3000));
     throw err;
   } finally {
-    server.kill('SIGTERM');
-    await new Promise((r) => server.once('exit', r));
+    await server.stop();
   }
 }
-
 
 /** Uploads one log to a survey and times it to `done`, polling the health route meanwhile. */
 async function importOnce(srv: BenchServer, file: string, surveyId: number) {
