@@ -27,6 +27,16 @@ export const PLANNED_PLANE_LABELS: Record<(typeof PLANNED_PLANES)[number], strin
   ceiling: 'Ceiling',
 };
 
+/**
+ * Where a planned point is read, in words (screens and the walk sheet): the working plane, a wall
+ * at its height and facing, or the ceiling. `metres` formats the wall point's height.
+ */
+export function plannedPlaceText(p: { plane: (typeof PLANNED_PLANES)[number]; heightM: number | null; azimuthDeg: number | null }, metres: (v: number) => string): string {
+  if (p.plane === 'wall') return `${PLANNED_PLANE_LABELS.wall}, ${metres(p.heightM ?? 0)} m up, facing ${Math.round(p.azimuthDeg ?? 0)}°`;
+  if (p.plane === 'ceiling') return `${PLANNED_PLANE_LABELS.ceiling}, facing down`;
+  return PLANNED_PLANE_LABELS.horizontal;
+}
+
 export const GRID_LAYOUT_LABELS: Record<(typeof GRID_LAYOUTS)[number], string> = {
   full: 'Full grid',
   centreline: 'Centreline row (narrow zones)',

@@ -129,8 +129,11 @@ function presentGrid(grid: GridRow, zone: ZoneRow, points: PointRow[]): SurveyGr
   try {
     if (grid.surface === 'working_plane') counts = gridCountsByRounding(shape);
     else {
-      for (const r of GRID_ROUNDINGS) counts[r] = surfaceGrid(shape, grid.surface, r, 'full', grid.wallHeightM).points.length;
-      notes.push(...surfaceGrid(shape, grid.surface, grid.rounding, 'full', grid.wallHeightM).notes);
+      for (const r of GRID_ROUNDINGS) {
+        const g = surfaceGrid(shape, grid.surface, r, 'full', grid.wallHeightM);
+        counts[r] = g.points.length;
+        if (r === grid.rounding) notes.push(...g.notes);
+      }
     }
   } catch (e) {
     if (!(e instanceof GridError)) throw e;

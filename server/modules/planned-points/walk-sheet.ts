@@ -11,6 +11,7 @@ import type { SessionUser } from '@shared/schemas/auth';
 import { toSafeCsv } from '@shared/csv-safe';
 import { isSafetyRelevant } from '@shared/schemas/zones';
 import { GRID_LAYOUT_TEXT, GRID_SURFACE_TEXT, GRID_ROUNDING_TEXT } from '@shared/spatial/measurement-grid';
+import { plannedPlaceText } from '@shared/schemas/planned-points';
 import { gridRuleText } from '@shared/core/zone-stats';
 import { storedPath } from '../../lib/file-store';
 import { conflict } from '../../http/errors';
@@ -66,10 +67,6 @@ export function plannedPointsCsv(deps: Deps, user: SessionUser, surveyId: number
     content: Buffer.from(toSafeCsv(['label', 'plan', 'zone', 'x_m', 'y_m', 'plane', 'height_m', 'azimuth_deg'], rows), 'utf8'),
   };
 }
-
-/** Where a planned point is read, in words for the sheet. */
-const surfaceText = (p: Pick<typeof plannedPoints.$inferSelect, 'plane' | 'heightM' | 'azimuthDeg'>) =>
-  p.plane === 'wall' ? `wall, ${metres(p.heightM ?? 0)} m up, facing ${Math.round(p.azimuthDeg ?? 0)}°` : p.plane === 'ceiling' ? 'ceiling, facing down' : 'working plane';
 
 function drawPlan(doc: PDFKit.PDFDocument, wp: WalkPlan) {
   const boxW = CONTENT_W;
@@ -171,7 +168,7 @@ function renderWalkSheet(d: { db: Db; survey: SurveyRow; siteName: string; timeZ
     table(doc, [
       { title: 'Label', width: 64 }, { title: 'Zone', width: 80 }, { title: 'x (m)', width: 40 }, { title: 'y (m)', width: 40 },
       { title: 'Read on', width: 84 }, { title: 'Reading (lx)', width: 62 }, { title: 'Time', width: 44 }, { title: 'Note', width: CONTENT_W - 414 },
-    ], wp.points.map((p) => [p.label, p.zoneName, metres(p.xM), metres(p.yM), surfaceText(p), '', '', '']));
+    ], wp.points.map((p) => [p.label, p.zoneName, metres(p.xM), metres(p.yM), plannedPlaceText(p, metres), '', '', '']));
   }
   doc.end();
   return done;

@@ -1,7 +1,7 @@
 import { useEffect, useRef } from 'react';
 import L from 'leaflet';
 import { useMap } from 'react-leaflet';
-import { PLANNED_PLANE_LABELS, type PlannedPoint } from '@shared/schemas/planned-points';
+import { plannedPlaceText, type PlannedPoint } from '@shared/schemas/planned-points';
 import type { PlanPoint } from '@shared/spatial/polygon';
 
 export type PlannedPointsLayerProps = {
@@ -13,12 +13,6 @@ export type PlannedPointsLayerProps = {
   onSelect?: (p: PlannedPoint) => void;
   onMove?: (p: PlannedPoint, to: PlanPoint) => void;
 };
-
-/** Where a planned point is read, in words: the working plane, a wall at a height and facing, or the ceiling. */
-export function plannedPlaceText(p: Pick<PlannedPoint, 'plane' | 'heightM' | 'azimuthDeg'>): string {
-  if (p.plane === 'wall') return `${PLANNED_PLANE_LABELS.wall}, ${(p.heightM ?? 0).toFixed(2)} m up, facing ${Math.round(p.azimuthDeg ?? 0)}°`;
-  return PLANNED_PLANE_LABELS[p.plane];
-}
 
 const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 
@@ -41,7 +35,7 @@ export function PlannedPointsLayer({ points, draggable = false, selectedId = nul
       const marker = L.marker([p.yM, p.xM], {
         icon: L.divIcon({ className: 'lt-pp', html, iconSize: [12, 12], iconAnchor: [6, 6] }),
         draggable, keyboard: true, autoPan: true,
-        title: `${p.label} (${plannedPlaceText(p)}): ${visited ? `${p.readingCount} reading(s)` : 'no reading yet'}`,
+        title: `${p.label} (${plannedPlaceText(p, (v) => v.toFixed(2))}): ${visited ? `${p.readingCount} reading(s)` : 'no reading yet'}`,
         alt: p.label,
         riseOnHover: true,
       });
