@@ -2,7 +2,7 @@ import { max, min } from 'simple-statistics';
 import { booleanPointInPolygon } from '@turf/boolean-point-in-polygon';
 import { point as turfPoint } from '@turf/helpers';
 import { gridSpacing, pointsPerSide, GRID_ROUNDINGS, type GridRounding } from '../core/zone-stats';
-import { distanceToOutline, toTurfPolygon, type PlanPoint } from './polygon';
+import { distanceToOutline, isAnticlockwise, toTurfPolygon, type PlanPoint } from './polygon';
 import type { ZoneKind } from './zone-assignment';
 
 export { GRID_ROUNDINGS, type GridRounding };
@@ -287,17 +287,6 @@ export type WallGrid = {
   points: WallGridPoint[];
 };
 
-/** Signed area by the shoelace formula: positive when the corners run anticlockwise (y up). */
-function signedArea(poly: readonly PlanPoint[]): number {
-  let s = 0;
-  for (let i = 0; i < poly.length; i++) {
-    const [x0, y0] = poly[i];
-    const [x1, y1] = poly[(i + 1) % poly.length];
-    s += x0 * y1 - x1 * y0;
-  }
-  return s / 2;
-}
-
 /** The ceiling grid of a room: its working-plane grid, read facing down at the same plan positions. */
 export function ceilingGrid(zone: GridZone, options: { rounding: GridRounding }): MeasurementGrid {
   if (zone.kind !== 'room') throw new GridError('Ceiling grids are planned for rooms; a task area or an outdoor area has no ceiling of its own');
@@ -314,7 +303,7 @@ export function wallGrids(zone: GridZone, options: { rounding: GridRounding; wal
   if (zone.polygon.length < 3) throw new GridError('The zone has no outline to lay a grid over');
   const turf = toTurfPolygon(zone.polygon as PlanPoint[]);
   // Interior on the left of each edge for anticlockwise corners, on the right for clockwise ones.
-  const side = signedArea(zone.polygon) >= 0 ? 1 : -1;
+  const side = isAnticlockwise(zone.polygon) ? 1 : -1;
   const walls: WallGrid[] = [];
   for (let i = 0; i < zone.polygon.length; i++) {
     const from = zone.polygon[i];

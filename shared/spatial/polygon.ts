@@ -66,6 +66,11 @@ export function polygonAreaM2(corners: readonly PlanPoint[]): number {
   return Math.abs(polygonArea(corners as PlanPoint[]));
 }
 
+/** True when the corners run anticlockwise on the plan (y up). d3-polygon's area is positive for clockwise order here: it assumes y down. */
+export function isAnticlockwise(corners: readonly PlanPoint[]): boolean {
+  return polygonArea(corners as PlanPoint[]) < 0;
+}
+
 export function polygonCentre(corners: readonly PlanPoint[]): PlanPoint {
   return polygonCentroid(corners as PlanPoint[]);
 }
