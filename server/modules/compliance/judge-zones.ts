@@ -239,6 +239,12 @@ export function judgeZones(input: {
     visited.add(labelKey(r.point));
     if (r.plannedPointId) visitedIds.add(r.plannedPointId);
   }
+  /** "n of m planned … have no reading: labels" for the planned points no reading visited (at most 30 named), or null. */
+  const unreadPlannedText = (points: readonly { id: number; label: string }[], what: string): string | null => {
+    const missing = points.filter((p) => !visited.has(labelKey(p.label)) && !visitedIds.has(p.id));
+    if (missing.length === 0) return null;
+    return `${missing.length} of ${points.length} ${what} have no reading: ${missing.slice(0, 30).map((p) => p.label).join(', ')}${missing.length > 30 ? ` and ${missing.length - 30} more` : ''}.`;
+  };
 
   const zones = input.zones.map((z): JudgedZone => {
     const { included, wallBand, excluded } = inZone.get(z.id)!;
@@ -251,14 +257,8 @@ export function judgeZones(input: {
     const grid = outdoor ? { required: 0, adequate: true, basis: 'rule' as const } : requiredPointsOf(z, rounding, stats.validPoints, input.plannedGrids?.get(z.id), reasons);
     if (wallBand.length > 0) reasons.push(`${wallBand.length} point(s) in the ${z.wallBandM} m wall band left out.`);
     for (const r of excluded) reasons.push(`Reading ${r.point} at ${new Date(r.timeMs).toISOString()} excluded from the statistics: ${r.excludedReason}.`);
-    const planned = input.plannedGrids?.get(z.id);
-    if (planned && planned.points.length > 0) {
-      const missing = planned.points.filter((p) => !visited.has(labelKey(p.label)) && !visitedIds.has(p.id));
-      if (missing.length > 0) {
-        const shown = missing.slice(0, 30).map((p) => p.label).join(', ');
-        reasons.push(`${missing.length} of ${planned.points.length} planned point(s) have no reading: ${shown}${missing.length > 30 ? ` and ${missing.length - 30} more` : ''}.`);
-      }
-    }
+    const unreadPlanned = unreadPlannedText(input.plannedGrids?.get(z.id)?.points ?? [], 'planned point(s)');
+    if (unreadPlanned) reasons.push(unreadPlanned);
     const lapsed = included.filter((r) => r.flag === 'calibration_lapsed').length;
     if (lapsed > 0) reasons.push(`${lapsed} point(s) were taken with a probe whose calibration had lapsed.`);
     if (z.target?.confidence === 'memory') reasons.push('The target value is from memory and unchecked against the standard: confirm it before relying on the verdict.');
@@ -317,11 +317,8 @@ export function judgeZones(input: {
           source: `${t.source}; U0 ≥ ${SURFACE_U0_MIN} for walls and ceilings (EN 12464-1:2021, secondary)`, confidence: t.confidence, installation, rule: input.rule,
           none: `No ${plane} readings in this zone (log rows with plane = ${plane}).`,
         }));
-        const planned = (input.plannedSurfacePoints?.get(z.id) ?? []).filter((p) => p.plane === plane);
-        const missing = planned.filter((p) => !visited.has(labelKey(p.label)) && !visitedIds.has(p.id));
-        if (missing.length > 0) {
-          checks.at(-1)!.reasons.push(`${missing.length} of ${planned.length} planned ${plane} point(s) have no reading: ${missing.slice(0, 30).map((p) => p.label).join(', ')}${missing.length > 30 ? ` and ${missing.length - 30} more` : ''}.`);
-        }
+        const unread = unreadPlannedText((input.plannedSurfacePoints?.get(z.id) ?? []).filter((p) => p.plane === plane), `planned ${plane} point(s)`);
+        if (unread) checks.at(-1)!.reasons.push(unread);
       };
       // Walls and ceilings belong to rooms: a task area or an outdoor zone gets these checks only from readings taken in it.
       const room = z.kind === 'room';
