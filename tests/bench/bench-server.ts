@@ -31,7 +31,9 @@ export function peakRssMb(pid: number): number {
 export async function startBenchServer(dir: string, env: Record<string, string> = {}) {
   const port = await freePort();
   const dbPath = path.join(dir, 'luxtrail.db');
-  const server = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+  // BENCH_SERVER_ARGS: extra node options for the server alone, e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof".
+  const nodeArgs = (process.env.BENCH_SERVER_ARGS ?? '').split(' ').filter(Boolean);
+  const server = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', 'server/index.ts'], {
     env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), DATABASE_URL: dbPath, DATA_DIR: path.join(dir, 'data'), LOG_LEVEL: 'warn', NODE_ENV: 'test', UPLOAD_LIMIT_MB: '400', ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
   });

@@ -1,5 +1,5 @@
 // Load benchmark (`npm run bench:load`; `-- --short` for a quicker, smaller run, or scale it with
-// `-- --readings N --clients N --seconds N --import-rows N`). Prints figures;
+// `-- --readings N --clients N --seconds N --import-rows N`; `--keep` leaves the database behind). Prints figures;
 // asserts nothing. Starts the server on a fresh file database, seeds a survey of 500,000
 // positioned readings over 40 zones straight through the import's batch writer, then runs 50
 // signed-in clients on a facility manager's mix for 60 s three times: alone, while a 300,000-row
@@ -18,6 +18,8 @@ import { createBatchWriter } from '../../server/modules/imports/batch-writer';
 import { addBenchProbes, benchProbes, pct, peakRssMb, resetPeakRss, startBenchServer, writeBenchLog } from './bench-server';
 
 const SHORT = process.argv.includes('--short');
+/** `--keep`: leave the benchmark's database behind (its folder is printed) to look at its queries afterwards. */
+const KEEP = process.argv.includes('--keep');
 /** `--name N` on the command line (after `npm run bench:load --`), else the default. */
 function option(name: string, fallback: number): number {
   const at = process.argv.indexOf(`--${name}`);
@@ -225,7 +227,8 @@ async function main() {
     throw err;
   } finally {
     await server.stop();
-    fs.rmSync(dir, { recursive: true, force: true });
+    if (KEEP) console.log(`Database kept in ${dir}`);
+    else fs.rmSync(dir, { recursive: true, force: true });
   }
 }
 

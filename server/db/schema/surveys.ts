@@ -1,4 +1,5 @@
 import { sqliteTable, integer, text, real, blob, index, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
+import { sql } from 'drizzle-orm';
 import { organizations, users, storedFiles } from './organizations';
 import { probes } from './calibration';
 import { plans } from './plans';
@@ -126,6 +127,8 @@ export const readings = sqliteTable('readings', {
   excludedReason: text('excluded_reason'),
 }, (t) => [
   index('readings_decode_idx').on(t.decodeId, t.timeMs), index('readings_survey_idx').on(t.surveyId),
-  // Field readings of a decode are counted and hashed without scanning the logged ones (reading-counts.ts, verdict-aggregates.ts).
-  index('readings_field_record_idx').on(t.fieldRecordId),
+  // Field readings of a decode are found, counted and hashed without scanning the logged ones
+  // (reading-counts.ts, verdict-aggregates.ts, field-service.ts). Partial: a logged reading has no
+  // field record, so an import writes nothing to it.
+  index('readings_decode_field_record_idx').on(t.decodeId, t.fieldRecordId).where(sql`${t.fieldRecordId} is not null`),
 ]);

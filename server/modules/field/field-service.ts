@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, lte } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNotNull, lte } from 'drizzle-orm';
 import type { Deps } from '../../deps';
 import type { Db } from '../../db/client';
 import { decodes, readings, surveys } from '../../db/schema/surveys';
@@ -104,7 +104,7 @@ function activeDecodeFor(tx: Tx, survey: SurveyRow, actorId: number, now: number
  */
 export function carryFieldReadings(tx: Tx, surveyId: number, fromDecodeId: number | null, toDecodeId: number): number {
   if (fromDecodeId === null) return 0;
-  const rows = tx.select().from(readings).where(and(eq(readings.surveyId, surveyId), eq(readings.decodeId, fromDecodeId))).all().filter((r) => r.fieldRecordId !== null);
+  const rows = tx.select().from(readings).where(and(eq(readings.surveyId, surveyId), eq(readings.decodeId, fromDecodeId), isNotNull(readings.fieldRecordId))).all();
   for (const { id: _id, ...r } of rows) tx.insert(readings).values({ ...r, decodeId: toDecodeId }).run();
   return rows.length;
 }

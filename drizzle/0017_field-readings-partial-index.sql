@@ -1,0 +1,2 @@
+DROP INDEX `readings_field_record_idx`;--> statement-breakpoint
+CREATE INDEX `readings_decode_field_record_idx` ON `readings` (`decode_id`,`field_record_id`) WHERE "readings"."field_record_id" is not null;
