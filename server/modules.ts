@@ -4,6 +4,8 @@ import type { SeedContext } from './db/seed-context';
 import type { ComputeTask } from './compute/compute-pool';
 import { verdictAggregateTask } from './modules/compliance/verdict-aggregates';
 import { reportPdfTask } from './modules/reports/report-job';
+import { readingSeriesTask, readingsPageTask } from './modules/readings/readings-service';
+import { pageMarksTask } from './modules/readings/reading-page-marks';
 import { registerHealthRoutes } from './modules/health/health-routes';
 import { registerAuthRoutes } from './modules/auth/auth-routes';
 import { registerUserRoutes } from './modules/users/users-routes';
@@ -16,6 +18,7 @@ import { registerCalibrationRoutes } from './modules/calibration/calibration-rou
 import { runCalibrationReminders } from './modules/calibration/reminders-service';
 import { registerSiteRoutes } from './modules/sites/sites-routes';
 import { registerSurveyRoutes } from './modules/surveys/surveys-routes';
+import { surveyReadingFactsTask } from './modules/surveys/surveys-service';
 import { registerPlanRoutes } from './modules/plans/plans-routes';
 import { registerZoneRoutes } from './modules/zones/zones-routes';
 import { registerImportRoutes } from './modules/imports/imports-routes';
@@ -73,11 +76,11 @@ export const SERVER_MODULES: ServerModule[] = [
   { name: 'calibration', routes: registerCalibrationRoutes, jobs: [{ name: 'calibration-reminders', everyMs: DAY_MS, run: (deps) => runCalibrationReminders(deps) }] },
   { name: 'sites', routes: registerSiteRoutes },
   // The demo site and its surveys, then the site's plans and zones, then the logs (rows name their plan).
-  { name: 'surveys', routes: registerSurveyRoutes, seed: seedSurveys },
+  { name: 'surveys', routes: registerSurveyRoutes, seed: seedSurveys, computeTasks: [surveyReadingFactsTask] },
   { name: 'plans', routes: registerPlanRoutes, seed: seedPlans },
   { name: 'zones', routes: registerZoneRoutes },
   { name: 'imports', routes: registerImportRoutes, seed: seedSurveyLogs },
-  { name: 'readings', routes: registerReadingRoutes },
+  { name: 'readings', routes: registerReadingRoutes, computeTasks: [readingsPageTask, pageMarksTask, readingSeriesTask] },
   // A survey planned with measurement grids whose log names the planned points by label only.
   { name: 'planned-points', routes: registerPlannedPointRoutes, seed: seedLabelWalk },
   { name: 'placements', routes: registerPlacementRoutes },

@@ -1,6 +1,9 @@
 import type { Response } from 'express';
 import { and, asc, desc, eq, sql, type SQL } from 'drizzle-orm';
+import type { z } from 'zod';
 import type { Deps } from '../../deps';
+import type { Db } from '../../db/client';
+import { computeTask, runCompute } from '../../compute/compute-pool';
 import { readings, surveys } from '../../db/schema/surveys';
 import { coefficientSets, probes } from '../../db/schema/calibration';
 import { plans } from '../../db/schema/plans';
@@ -12,6 +15,7 @@ import { readingCells, readingColumns, type ExportReading } from '@shared/export
 import { currentReadingConditions, getSurveyRow } from '../surveys/surveys-service';
 import { decodeBudget } from './stored-budget';
 import { currentReadingCount } from '../surveys/reading-counts';
+import { pageMark } from './reading-page-marks';
 
 const columns = {
   id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, planId: readings.planId, role: readings.role, timeMs: readings.timeMs, probe: probes.serial,
@@ -45,10 +49,12 @@ function filters(survey: Parameters<typeof currentReadingConditions>[0], q: { fl
   return where;
 }
 
-/** The survey's current readings, filtered by flag and point, sorted, one page at a time. */
-export function listReadings(db: Deps['db'], user: SessionUser, surveyId: number, query: ReadingsQuery): ReadingsResponse {
-  const q = readingsQuerySchema.parse(query);
-  const survey = getSurveyRow(db, user, surveyId);
+/** The survey row a page is read for: enough to name its current readings. */
+type PageSurvey = { id: number; activeDecodeId: number | null };
+type PageQuery = z.output<typeof readingsQuerySchema>;
+
+/** One page by OFFSET (small surveys inline; on a compute thread for large ones, where skipping rows costs). */
+function queryPage(db: Db, survey: PageSurvey, q: PageQuery): ReadingsResponse {
   if (survey.activeDecodeId === null) return { items: [], total: 0 };
   const where = and(...filters(survey, q));
   // Unfiltered, the total is the kept count (reading-counts.ts) rather than a count over every reading.
@@ -61,14 +67,50 @@ export function listReadings(db: Deps['db'], user: SessionUser, surveyId: number
   return { items: rows.map(present), total };
 }
 
+/** Declared in server/modules.ts (readings): a page of a large survey by OFFSET, off the request's thread. */
+export const readingsPageTask = computeTask('readings-page', (db: Db, input: { survey: PageSurvey; query: PageQuery }) => queryPage(db, input.survey, input.query));
+
+/** Up to this many current readings a page is read inline by OFFSET (a few ms at most). */
+export const INLINE_PAGE_READINGS = 20_000;
+
+/**
+ * The survey's current readings, filtered by flag and point, sorted, one page at a time. Small
+ * surveys are read inline. In a large one, OFFSET would walk every reading before the page (60 ms
+ * to half a second at 500,000 readings), so the time order, unfiltered, starts from the nearest
+ * page mark (reading-page-marks.ts: one index seek and at most PAGE_MARK_STRIDE rows skipped), and
+ * any other order or filter is read on a compute thread.
+ */
+export async function listReadings(db: Deps['db'], user: SessionUser, surveyId: number, query: ReadingsQuery, inlineUpTo = INLINE_PAGE_READINGS): Promise<ReadingsResponse> {
+  const q = readingsQuerySchema.parse(query);
+  const row = getSurveyRow(db, user, surveyId);
+  const survey: PageSurvey = { id: row.id, activeDecodeId: row.activeDecodeId };
+  if (survey.activeDecodeId === null) return { items: [], total: 0 };
+  const total = db.select({ n: currentReadingCount }).from(surveys).where(eq(surveys.id, survey.id)).get()!.n;
+  if (total <= inlineUpTo) return queryPage(db, survey, q);
+  if (q.sort === 'time' && !q.flag && !q.point) {
+    if (q.offset >= total) return { items: [], total };
+    const mark = pageMark(db, survey, q.order, q.offset);
+    if (mark) {
+      const dir = q.order === 'desc' ? desc : asc;
+      // Written as a range on time plus a tie rule, so SQLite seeks the time index (an OR of the two would scan it from the start).
+      const from = q.order === 'desc'
+        ? sql`${readings.timeMs} <= ${mark.timeMs} and (${readings.timeMs} < ${mark.timeMs} or ${readings.id} >= ${mark.id})`
+        : sql`${readings.timeMs} >= ${mark.timeMs} and (${readings.timeMs} > ${mark.timeMs} or ${readings.id} >= ${mark.id})`;
+      const rows = db.select(columns).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).where(and(...currentReadingConditions(survey), from))
+        .orderBy(dir(readings.timeMs), asc(readings.id)).limit(q.limit).offset(mark.skip).all();
+      return { items: rows.map(present), total };
+    }
+  }
+  return runCompute(db, readingsPageTask, { survey, query: q });
+}
+
 export const SERIES_MAX_POINTS = 4000;
 
-/** The walk over time for the chart; beyond SERIES_MAX_POINTS every n-th reading, and every flagged one. */
-export function readingSeries(db: Deps['db'], user: SessionUser, surveyId: number): ReadingSeries {
-  const survey = getSurveyRow(db, user, surveyId);
+/** The walk over time: every n-th current reading (n from the kept count), and every flagged one. */
+function querySeries(db: Db, survey: PageSurvey): ReadingSeries {
   if (survey.activeDecodeId === null) return { items: [], total: 0 };
+  const total = db.select({ n: currentReadingCount }).from(surveys).where(eq(surveys.id, survey.id)).get()!.n;
   const where = currentReadingConditions(survey);
-  const total = db.select({ n: sql<number>`count(*)` }).from(readings).where(and(...where)).get()!.n;
   const stride = Math.max(1, Math.ceil(total / SERIES_MAX_POINTS));
   if (stride > 1) where.push(sql`(${readings.id} % ${stride} = 0 or ${readings.flag} <> 'ok')`);
   const rows = db.select({ t: readings.timeMs, lux: readings.lux, gainCode: readings.gainCode, flag: readings.flag, role: readings.role, point: readings.point })
@@ -76,7 +118,29 @@ export function readingSeries(db: Deps['db'], user: SessionUser, surveyId: numbe
   return { items: rows, total };
 }
 
-const EXPORT_PAGE = 5000;
+/** Declared in server/modules.ts (readings): a large survey's walk is thinned on a compute thread (it reads every reading). */
+export const readingSeriesTask = computeTask('reading-series', (db: Db, survey: PageSurvey) => querySeries(db, survey));
+
+/** The walk over time for the chart; beyond SERIES_MAX_POINTS every n-th reading, and every flagged one. */
+export async function readingSeries(db: Deps['db'], user: SessionUser, surveyId: number, inlineUpTo = INLINE_PAGE_READINGS): Promise<ReadingSeries> {
+  const row = getSurveyRow(db, user, surveyId);
+  const survey: PageSurvey = { id: row.id, activeDecodeId: row.activeDecodeId };
+  if (survey.activeDecodeId === null) return { items: [], total: 0 };
+  const total = db.select({ n: currentReadingCount }).from(surveys).where(eq(surveys.id, survey.id)).get()!.n;
+  return total <= inlineUpTo ? querySeries(db, survey) : runCompute(db, readingSeriesTask, survey);
+}
+
+/**
+ * Readings after (time t, id) in the time order, for paging an export: a range on time plus a tie
+ * rule, so SQLite seeks the time index to the last row sent (an OR of the two would rescan the
+ * index from its start on every page).
+ */
+export function afterInTimeOrder(after: { t: number; id: number }): SQL {
+  return sql`${readings.timeMs} >= ${after.t} and (${readings.timeMs} > ${after.t} or ${readings.id} > ${after.id})`;
+}
+
+/** Rows per page of a streamed export: each page is one short stretch of the event loop. */
+const EXPORT_PAGE = 1000;
 
 /**
  * Streams the current readings as CSV in lux or foot-candles, in the export vocabulary of
@@ -93,7 +157,7 @@ export async function exportReadingsCsv(db: Deps['db'], user: SessionUser, surve
   if (survey.activeDecodeId !== null) {
     let after = { t: Number.MIN_SAFE_INTEGER, id: 0 };
     for (;;) {
-      const where = [...currentReadingConditions(survey), sql`(${readings.timeMs} > ${after.t} or (${readings.timeMs} = ${after.t} and ${readings.id} > ${after.id}))`];
+      const where = [...currentReadingConditions(survey), afterInTimeOrder(after)];
       const rows = db.select(exportColumns).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).leftJoin(plans, eq(plans.id, readings.planId))
         .leftJoin(coefficientSets, eq(coefficientSets.id, readings.coefficientSetId))
         .where(and(...where)).orderBy(asc(readings.timeMs), asc(readings.id)).limit(EXPORT_PAGE).all();

@@ -1,6 +1,6 @@
 import type { Response } from 'express';
 import { setImmediate as yieldToEventLoop } from 'node:timers/promises';
-import { and, asc, eq, sql, type SQL } from 'drizzle-orm';
+import { and, asc, eq, type SQL } from 'drizzle-orm';
 import type { Deps } from '../../deps';
 import type { Db } from '../../db/client';
 import { readings } from '../../db/schema/surveys';
@@ -13,7 +13,7 @@ import { labelOfUseType } from '@shared/schemas/zones';
 import type { SessionUser } from '@shared/schemas/auth';
 import type { SendReportBody, SendReportResponse } from '@shared/schemas/reports';
 import { currentReadingConditions, findSurveyInOrganization, getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
-import { exportColumns } from '../readings/readings-service';
+import { afterInTimeOrder, exportColumns } from '../readings/readings-service';
 import { recordAudit } from '../audit/audit-service';
 import { frozenOf, surveyVerdicts, complianceOf, zoneMembers } from '../compliance/compliance-service';
 import type { ReportUnit } from './report-pdf';
@@ -51,7 +51,8 @@ export async function zonesCsv(db: Db, user: SessionUser, surveyId: number): Pro
   return { filename: reportFilename(survey, 'csv', 'zones'), contentType: 'text/csv; charset=utf-8', content: Buffer.from(toSafeCsv(ZONE_COLUMNS, rows), 'utf8') };
 }
 
-const CSV_PAGE = 5000;
+/** Rows per page of the streamed readings CSV: each page is one short stretch of the event loop. */
+const CSV_PAGE = 1000;
 
 /**
  * Every reading the verdicts used (the frozen decode once signed off) with its zone, in the export
@@ -82,7 +83,7 @@ export async function streamReadingsCsv(db: Db, user: SessionUser, surveyId: num
   while (where !== null) {
     const rows = db.select(exportColumns).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).leftJoin(plans, eq(plans.id, readings.planId))
       .leftJoin(coefficientSets, eq(coefficientSets.id, readings.coefficientSetId))
-      .where(and(...where, sql`(${readings.timeMs} > ${after.t} or (${readings.timeMs} = ${after.t} and ${readings.id} > ${after.id}))`))
+      .where(and(...where, afterInTimeOrder(after)))
       .orderBy(asc(readings.timeMs), asc(readings.id)).limit(CSV_PAGE).all();
     if (rows.length === 0) break;
     const chunk = toSafeCsvRows(rows.map((r) => readingCells(r, unit, zoneOf.get(r.id) ?? { zone: null, inWallBand: null })));

@@ -15,6 +15,8 @@ import { recordAudit } from '../audit/audit-service';
 import { getSiteRow, siteConditions } from '../sites/sites-service';
 import { getOrganization } from '../organization/organization-service';
 import { currentReadingCount } from './reading-counts';
+import type { Db } from '../../db/client';
+import { computeTask, runCompute } from '../../compute/compute-pool';
 
 export type SurveyRow = typeof surveys.$inferSelect;
 type SiteRow = typeof sites.$inferSelect;
@@ -113,15 +115,28 @@ export function listSurveys(db: Deps['db'], user: SessionUser, filter: { siteId?
   return rows.map((r) => present(r.survey, r.site, r.readingCount));
 }
 
-export function getSurvey(db: Deps['db'], user: SessionUser, surveyId: number): SurveyDetail {
-  const row = getSurveyRow(db, user, surveyId);
-  const current = currentReadingConditions(row);
-  const flagRows = row.activeDecodeId === null ? [] : db.select({ flag: readings.flag, n: sql<number>`count(*)` }).from(readings).where(and(...current)).groupBy(readings.flag).all();
-  const flagCounts = Object.fromEntries(flagRows.map((r) => [r.flag, r.n]));
+/** Counts over every current reading: per flag, and those taken after their calibration was due. */
+function readingFacts(db: Deps['db'], survey: Pick<SurveyRow, 'id' | 'activeDecodeId'>): { flagCounts: Record<string, number>; lapsed: number } {
+  if (survey.activeDecodeId === null) return { flagCounts: {}, lapsed: 0 };
+  const current = currentReadingConditions(survey);
+  const flagRows = db.select({ flag: readings.flag, n: sql<number>`count(*)` }).from(readings).where(and(...current)).groupBy(readings.flag).all();
   // A reading's stored flag is its most important one; lapsed calibration is read from the set it used.
-  const lapsed = row.activeDecodeId === null ? 0 : db.select({ n: sql<number>`count(*)` }).from(readings)
+  const lapsed = db.select({ n: sql<number>`count(*)` }).from(readings)
     .innerJoin(coefficientSets, eq(coefficientSets.id, readings.coefficientSetId))
     .where(and(...current, sql`${readings.timeMs} > ${coefficientSets.dueDate}`)).get()!.n;
+  return { flagCounts: Object.fromEntries(flagRows.map((r) => [r.flag, r.n])), lapsed };
+}
+
+/** Declared in server/modules.ts (surveys): a large survey's counts read every reading, so on a compute thread. */
+export const surveyReadingFactsTask = computeTask('survey-reading-facts', (db: Db, survey: { id: number; activeDecodeId: number | null }) => readingFacts(db, survey));
+
+/** Up to this many current readings a survey's counts are read inline (a few ms). */
+const INLINE_FACTS_READINGS = 20_000;
+
+export async function getSurvey(db: Deps['db'], user: SessionUser, surveyId: number, inlineUpTo = INLINE_FACTS_READINGS): Promise<SurveyDetail> {
+  const row = getSurveyRow(db, user, surveyId);
+  const subject = { id: row.id, activeDecodeId: row.activeDecodeId };
+  const { flagCounts, lapsed } = readingCount(db, row) <= inlineUpTo ? readingFacts(db, subject) : await runCompute(db, surveyReadingFactsTask, subject);
   const importRows = db.select({ imp: logImports, filename: storedFiles.filename }).from(logImports).innerJoin(storedFiles, eq(storedFiles.id, logImports.fileId))
     .where(eq(logImports.surveyId, row.id)).orderBy(desc(logImports.id)).all();
   const decodeRows = db.select({ d: decodes, name: users.name }).from(decodes).leftJoin(users, eq(users.id, decodes.createdBy))
