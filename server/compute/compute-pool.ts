@@ -31,7 +31,10 @@ export function runTasksInline() { inline = true; }
 /**
  * Two threads: the machine this runs on has two cores, and a PDF being built should not hold up
  * verdicts being recomputed. Young generation as in the import threads: their objects die young.
+ * A thread ends after POOL_IDLE_MS without work: after a large survey its heap holds hundreds of MB
+ * that an idle server should give back, and a new thread starts in well under a second.
  */
+const POOL_IDLE_MS = 5_000;
 const POOL_THREADS = Number(process.env.COMPUTE_THREADS ?? 2);
 const pools = new Map<string, Piscina>();
 const inFlight = new Map<string, Promise<unknown>>();
@@ -70,7 +73,7 @@ async function poolFor(databasePath: string): Promise<Piscina> {
     pool = pools.get(databasePath);
     if (pool) return pool;
     pool = new Pool({
-      filename: file, minThreads: 0, maxThreads: POOL_THREADS, idleTimeout: 60_000, workerData: { databasePath },
+      filename: file, minThreads: 0, maxThreads: POOL_THREADS, idleTimeout: POOL_IDLE_MS, workerData: { databasePath },
       execArgv: [], resourceLimits: { maxYoungGenerationSizeMb: 32 },
     });
     pools.set(databasePath, pool);

@@ -3,8 +3,11 @@ import { workerData, type MessagePort } from 'node:worker_threads';
 import { connectDatabase } from '../db/client';
 import { SERVER_MODULES } from '../modules';
 import { runTasksInline, type ComputeTask } from './compute-pool';
+import { lowerThreadPriority } from '../lib/thread-priority';
 
 runTasksInline();
+// Heavy tasks yield the CPU to the event loop answering requests (server/lib/thread-priority.ts).
+lowerThreadPriority();
 const db = connectDatabase((workerData as { databasePath: string }).databasePath);
 const tasks = new Map<string, ComputeTask<unknown>>(SERVER_MODULES.flatMap((m) => m.computeTasks ?? []).map((t) => [t.name, t as ComputeTask<unknown>]));
 

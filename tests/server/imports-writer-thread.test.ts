@@ -1,7 +1,8 @@
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { describe, it, expect, beforeAll, afterAll } from 'vitest';
+import { describe, it, expect, beforeAll, afterAll, vi } from 'vitest';
+import { IMPORT_THREADS_IDLE_MS, importThreadsAlive } from '../../server/modules/imports/import-runner';
 import { type TestApp, type TestClient } from './helpers';
 import { keptSamples, newDraftSurvey, tableCounts, testWalkCsv, TEST_SERIALS, uploadAndWait, appWithTestProbes } from './support/factories';
 
@@ -43,4 +44,16 @@ describe('log import with a database file (writer thread)', () => {
     const after = tableCounts(t);
     expect({ ...after, log_imports: after.log_imports - 1, stored_files: after.stored_files - 1 }).toEqual(before);
   });
+
+  it('import threads, once no import has run for a while, end (giving back their memory), and the next import starts them again', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const first = await uploadAndWait(t, c, surveyId, testWalkCsv(Date.parse('2026-11-22T09:00:00Z'), 2));
+    expect(first.status.status).toBe('done');
+    // The parse worker and this database's writer.
+    expect(importThreadsAlive()).toBe(2);
+    await vi.waitFor(() => expect(importThreadsAlive()).toBe(0), { timeout: IMPORT_THREADS_IDLE_MS + 5_000, interval: 100 });
+    const second = await uploadAndWait(t, c, await newDraftSurvey(t, c), testWalkCsv(Date.parse('2026-11-23T09:00:00Z'), 2));
+    expect(second.status).toMatchObject({ status: 'done', errors: [] });
+    expect(second.status.readings).toBe(first.status.readings);
+  }, IMPORT_THREADS_IDLE_MS + 30_000);
 });

@@ -42,10 +42,47 @@ const readingColumns = {
   note: readings.note,
 };
 
-/** The survey's current readings (active decode, accepted imports), in time order. */
+/** One string for each repeated text (SQLite hands every row its own copy of 'task', 'exact', 'ok'). */
+function sameTexts() {
+  const texts = new Map<string, string>();
+  return (t: string) => { const kept = texts.get(t); if (kept !== undefined) return kept; texts.set(t, t); return t; };
+}
+
+/** The same columns, in this order, with the budget as its stored text (parsed once per distinct text, below). */
+const judgeColumns = { ...readingColumns, budget: sql<string | null>`${readings.budget}` };
+const JUDGE_KEYS = Object.keys(judgeColumns) as (keyof typeof judgeColumns)[];
+
+/**
+ * The survey's current readings (active decode, accepted imports), in time order.
+ * A survey can hold 500,000 of them on a compute thread, so each is kept small: rows are read one
+ * at a time (no second copy of every row as drizzle's .all() makes), repeated texts (role, bound,
+ * flag, plane) are one string each, and readings with the same stored budget share one parsed
+ * budget (a log's readings mostly have a handful). Read-only: judging never changes them.
+ */
 export function loadCurrentReadings(db: Db, survey: Pick<SurveyRow, 'id' | 'activeDecodeId'>): JudgeReading[] {
   if (survey.activeDecodeId === null) return [];
-  return db.select(readingColumns).from(readings).where(and(...currentReadingConditions(survey))).orderBy(asc(readings.timeMs), asc(readings.id)).all();
+  const query = db.select(judgeColumns).from(readings).where(and(...currentReadingConditions(survey))).orderBy(asc(readings.timeMs), asc(readings.id)).toSQL();
+  const same = sameTexts();
+  const budgets = new Map<string, unknown>();
+  const budgetOf = (stored: string | null) => {
+    if (stored === null) return null;
+    let parsed = budgets.get(stored);
+    if (parsed === undefined) budgets.set(stored, (parsed = JSON.parse(stored) as unknown));
+    return parsed;
+  };
+  const out: JudgeReading[] = [];
+  const at = Object.fromEntries(JUDGE_KEYS.map((k, i) => [k, i])) as Record<keyof typeof judgeColumns, number>;
+  for (const row of db.$client.prepare(query.sql).raw().iterate(...query.params) as IterableIterator<unknown[]>) {
+    out.push({
+      id: row[at.id] as number, point: row[at.point] as string, xM: row[at.xM] as number | null, yM: row[at.yM] as number | null, planId: row[at.planId] as number | null,
+      role: same(row[at.role] as string) as JudgeReading['role'], timeMs: row[at.timeMs] as number, probeId: row[at.probeId] as number,
+      lux: row[at.lux] as number | null, uLux: row[at.uLux] as number | null, luxBound: same(row[at.luxBound] as string) as JudgeReading['luxBound'],
+      flag: same(row[at.flag] as string) as JudgeReading['flag'], budget: budgetOf(row[at.budget] as string | null), coefficientSetId: row[at.coefficientSetId] as number | null,
+      plane: same(row[at.plane] as string) as JudgeReading['plane'], azimuthDeg: row[at.azimuthDeg] as number | null,
+      excludedReason: row[at.excludedReason] as string | null, note: row[at.note] as string | null,
+    });
+  }
+  return out;
 }
 
 /** Readings by id within one survey (a frozen sign-off names the readings it judged), in time order. */
@@ -55,6 +92,30 @@ export function loadReadingsById(db: Db, surveyId: number, ids: number[]): Judge
   return db.select(readingColumns).from(readings)
     .where(and(eq(readings.surveyId, surveyId), sql`${readings.id} in (select value from json_each(${JSON.stringify(ids)}))`))
     .orderBy(asc(readings.timeMs), asc(readings.id)).all();
+}
+
+/** What the report draws and dates of a reading (and the field conditions' notes read): no budget, probe or ids. */
+export type ReadingPoint = Pick<JudgeReading, 'point' | 'xM' | 'yM' | 'role' | 'timeMs' | 'lux' | 'luxBound' | 'note'>;
+
+/**
+ * Readings by id within one survey as ReadingPoints, in time order: the report holds every zone's
+ * readings while it renders (500,000 on a large survey), so each is a small object.
+ */
+export function loadReadingPoints(db: Db, surveyId: number, ids: number[]): ReadingPoint[] {
+  if (ids.length === 0) return [];
+  const query = db.select({ point: readings.point, xM: readings.xM, yM: readings.yM, role: readings.role, timeMs: readings.timeMs, lux: readings.lux, luxBound: readings.luxBound, note: readings.note })
+    .from(readings)
+    .where(and(eq(readings.surveyId, surveyId), sql`${readings.id} in (select value from json_each(${JSON.stringify(ids)}))`))
+    .orderBy(asc(readings.timeMs), asc(readings.id)).toSQL();
+  const same = sameTexts();
+  const out: ReadingPoint[] = [];
+  for (const [point, xM, yM, role, timeMs, lux, luxBound, note] of db.$client.prepare(query.sql).raw().iterate(...query.params) as IterableIterator<unknown[]>) {
+    out.push({
+      point: point as string, xM: xM as number | null, yM: yM as number | null, role: same(role as string) as ReadingPoint['role'], timeMs: timeMs as number,
+      lux: lux as number | null, luxBound: same(luxBound as string) as ReadingPoint['luxBound'], note: note as string | null,
+    });
+  }
+  return out;
 }
 
 export type UsedCoefficientSet = {

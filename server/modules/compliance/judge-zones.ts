@@ -116,16 +116,31 @@ export type JudgedZone = ZoneCompliance & {
 
 export type JudgeResult = { zones: JudgedZone[]; unassignedPoints: number; hasDaylightReference: boolean; warnings: string[] };
 
+/** Parsed stored budgets, decoded: readings sharing one budget object decode it once. */
+const decodedBudgets = new WeakMap<object, { budget: BudgetPart[]; uRel: number }>();
+
 /**
  * A stored reading as the core's Reading. With no stored budget, the expanded uncertainty is
  * taken whole as a calibration (systematic) part, so a mean never shrinks it: the cautious choice.
  */
 export function toCoreReading(r: JudgeReading): Reading {
-  let budget: BudgetPart[] = decodeBudget(r.budget);
-  if (budget.length === 0 && r.uLux !== null && r.lux !== null && r.lux > 0) budget = [{ name: 'calibration', uRel: r.uLux / COVERAGE_K / r.lux }];
+  let budget: BudgetPart[];
+  let uRel: number;
+  const stored = typeof r.budget === 'object' && r.budget !== null ? decodedBudgets.get(r.budget) : undefined;
+  if (stored) ({ budget, uRel } = stored);
+  else {
+    budget = decodeBudget(r.budget);
+    uRel = combineBudget(budget);
+    // Readings loaded together share their stored budget (loadCurrentReadings): decoded once, read-only from here.
+    if (typeof r.budget === 'object' && r.budget !== null) decodedBudgets.set(r.budget, { budget, uRel });
+  }
+  if (budget.length === 0 && r.uLux !== null && r.lux !== null && r.lux > 0) {
+    budget = [{ name: 'calibration', uRel: r.uLux / COVERAGE_K / r.lux }];
+    uRel = combineBudget(budget);
+  }
   return {
     probe: String(r.probeId), point: r.point, timeMs: r.timeMs, lux: r.lux, luxBound: r.luxBound, flag: r.flag, flags: [r.flag],
-    gainCode: null, samples: 1, chosenSample: null, rejected: [], uRel: combineBudget(budget), uLux: r.uLux ?? 0, budget,
+    gainCode: null, samples: 1, chosenSample: null, rejected: [], uRel, uLux: r.uLux ?? 0, budget,
     coefficientSetId: r.coefficientSetId === null ? null : String(r.coefficientSetId),
   };
 }

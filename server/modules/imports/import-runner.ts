@@ -11,7 +11,7 @@ import { recordAudit } from '../audit/audit-service';
 import type { WorkerToMain } from './log-parser';
 import { boundImportRecord, type ImportProblem, type ImportWarning } from './import-record';
 import { createBatchWriter } from './batch-writer';
-import type { WriterData } from './import-writer';
+import type { WriterControl, WriterData } from './import-writer';
 import { placeBurstsOnMarks, type MarkMatchingOptions } from '../field/mark-placement';
 import { DEFAULT_MATCH_WINDOW_MS } from '@shared/core/mark-matching';
 import { keepReadingCount } from '../surveys/reading-counts';
@@ -103,7 +103,8 @@ async function getWriter(deps: Deps): Promise<Worker | null> {
   // No TypeScript loader inherited from the server's --import (execArgv).
   w = new Worker(code, { eval: true, workerData, execArgv: [], resourceLimits: { maxYoungGenerationSizeMb: WRITER_YOUNG_GENERATION_MB } });
   writers.set(client.name, w);
-  w.on('exit', () => writers.delete(client.name));
+  const started = w;
+  w.on('exit', () => { if (writers.get(client.name) === started) writers.delete(client.name); });
   w.unref();
   return w;
 }
@@ -125,10 +126,37 @@ export function importOutcome(deps: Deps, importId: number): Promise<ImportOutco
   return pendingOf(deps.db).get(importId) ?? null;
 }
 
+/**
+ * The import threads end when no import has run for this long: each keeps a V8 heap of tens of MB
+ * (after a large file, over a hundred), which an idle server should not hold; starting them again
+ * costs well under a second, next to an import's seconds.
+ */
+export const IMPORT_THREADS_IDLE_MS = 5_000;
+let idleTimer: NodeJS.Timeout | null = null;
+
+/** Ends the parse worker and the writer threads (none is busy: called only with the queue empty and nothing running). */
+function endIdleImportThreads() {
+  idleTimer = null;
+  if (running || queue.length > 0) return;
+  if (worker) void worker.terminate();
+  worker = null;
+  for (const w of writers.values()) w.postMessage({ type: 'end' } satisfies WriterControl);
+  writers.clear();
+}
+
+/** Whether import threads are alive (tests check they end when idle). */
+export function importThreadsAlive(): number {
+  return (worker ? 1 : 0) + writers.size;
+}
+
 async function pump() {
   if (running) return;
   const next = queue.shift();
-  if (!next) return;
+  if (!next) {
+    if (!idleTimer) idleTimer = setTimeout(endIdleImportThreads, IMPORT_THREADS_IDLE_MS).unref();
+    return;
+  }
+  if (idleTimer) { clearTimeout(idleTimer); idleTimer = null; }
   running = true;
   let outcome: ImportOutcome;
   try {
@@ -204,7 +232,7 @@ async function runImport(deps: Deps, job: ImportJob): Promise<ImportOutcome> {
       writer.on('error', onWriterGone);
       writer.on('exit', onWriterGone);
       const channel = new MessageChannel();
-      writer.postMessage({ type: 'start', target, port: channel.port2 }, [channel.port2]);
+      writer.postMessage({ type: 'start', target, port: channel.port2 } satisfies WriterControl, [channel.port2]);
       w.postMessage({ type: 'start', input, fileSize: job.fileSize, writerPort: channel.port1 }, [channel.port1]);
     } else {
       w.postMessage({ type: 'start', input, fileSize: job.fileSize });

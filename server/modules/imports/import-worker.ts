@@ -7,6 +7,7 @@ import { parentPort, type MessagePort } from 'node:worker_threads';
 import { parseLogFile, type ParseLogInput, type WorkerToMain } from './log-parser';
 import type { WriterMessage } from './import-writer';
 import { transferOf } from './batch-format';
+import { lowerThreadPriority } from '../../lib/thread-priority';
 
 /** The messages of import-writer.ts's port. */
 type WriterBatch = Extract<WriterMessage, { type: 'batch' }>;
@@ -14,6 +15,8 @@ type WriterAck = { type: 'ack'; error?: string };
 
 if (!parentPort) throw new Error('import-worker.ts must run in a worker thread');
 const port = parentPort;
+// Parsing yields the CPU to the event loop answering requests (server/lib/thread-priority.ts).
+lowerThreadPriority();
 
 type Start = { type: 'start'; input: ParseLogInput; fileSize: number; writerPort?: MessagePort };
 

@@ -9,6 +9,7 @@ import { parentPort, workerData, type MessagePort } from 'node:worker_threads';
 import type BetterSqlite3 from 'better-sqlite3';
 import { createBatchWriter, type BatchProgress, type BatchTarget } from './batch-writer';
 import type { Batch } from './batch-format';
+import { lowerThreadPriority } from '../../lib/thread-priority';
 
 /** What the runner hands the thread: the database file, and where to resolve the native driver from (the bundle has no location). */
 export type WriterData = { databasePath: string; resolveFrom: string };
@@ -16,6 +17,8 @@ export type WriterMessage = { type: 'batch'; batch: Batch; progress?: BatchProgr
 
 if (!parentPort) throw new Error('import-writer must run in a worker thread');
 const data = workerData as WriterData;
+// Writing yields the CPU to the event loop answering requests (server/lib/thread-priority.ts).
+lowerThreadPriority();
 const Database = createRequire(data.resolveFrom)('better-sqlite3') as typeof BetterSqlite3;
 
 // The same settings as server/db/client.ts.
@@ -25,7 +28,14 @@ db.pragma('foreign_keys = ON');
 db.pragma('busy_timeout = 5000');
 db.pragma('synchronous = NORMAL');
 
-parentPort.on('message', (msg: { target: BatchTarget; port: MessagePort }) => {
+/** From the runner: an import's target and the port its batches come on, or the end of an idle thread (import-runner.ts). */
+export type WriterControl = { type: 'start'; target: BatchTarget; port: MessagePort } | { type: 'end' };
+
+parentPort.on('message', (msg: WriterControl) => {
+  if (msg.type === 'end') {
+    db.close();
+    process.exit(0);
+  }
   const write = createBatchWriter(db, msg.target);
   const port = msg.port;
   port.on('message', (m: WriterMessage) => {

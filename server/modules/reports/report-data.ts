@@ -4,8 +4,7 @@ import { organizations, users } from '../../db/schema/organizations';
 import { sites } from '../../db/schema/sites';
 import type { SurveyRow } from '../surveys/surveys-service';
 import { complianceOf, surveyVerdicts, zoneMembers, type FrozenZone, type SurveyCompliance } from '../compliance/compliance-service';
-import { loadReadingsById, loadUsedCoefficientSets, type UsedCoefficientSet } from '../compliance/compliance-repository';
-import type { JudgeReading } from '../compliance/judge-zones';
+import { loadReadingPoints, loadUsedCoefficientSets, type ReadingPoint, type UsedCoefficientSet } from '../compliance/compliance-repository';
 import type { ReportPhoto, ReportZoneNote } from '../field/field-photos';
 import type { FieldSession } from '@shared/schemas/field';
 
@@ -17,7 +16,7 @@ export type ReportData = {
   signedOffByName: string | null;
   compliance: SurveyCompliance;
   /** Judged zones in the summary's order, with their outlines and the readings they used. */
-  zones: (FrozenZone & { readings: JudgeReading[]; wallBandReadings: JudgeReading[] })[];
+  zones: (FrozenZone & { readings: ReadingPoint[]; wallBandReadings: ReadingPoint[] })[];
   coefficientSets: UsedCoefficientSet[];
   generatedAt: number;
   /** Photos taken in the field (the appendix), with the stored file to embed; absent: none. */
@@ -40,7 +39,7 @@ export async function loadReportData(db: Db, survey: SurveyRow, now: number): Pr
   const zones = compliance.zones.map((c) => {
     const z = byId.get(c.zoneId)!;
     const members = zoneMembers(db, verdicts, z);
-    return { ...z, change: c.change, readings: loadReadingsById(db, survey.id, members.readingIds), wallBandReadings: loadReadingsById(db, survey.id, members.wallBandReadingIds) };
+    return { ...z, change: c.change, readings: loadReadingPoints(db, survey.id, members.readingIds), wallBandReadings: loadReadingPoints(db, survey.id, members.wallBandReadingIds) };
   });
   const coefficientSets = verdicts.frozen?.coefficientSets ?? loadUsedCoefficientSets(db, verdicts.coefficientSetReadings ?? []);
   return {

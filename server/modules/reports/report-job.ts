@@ -30,8 +30,8 @@ async function buildReportPdf(db: Db, input: ReportPdfInput, progress: (f: numbe
   const survey = input.signed ? { ...row, ...input.signed } : row;
   const data = await loadReportData(db, survey, input.now);
   // Notes on readings the visits' conditions put in doubt (before lights on, warm-up, burn-in, daylight).
-  const judged = data.zones.flatMap((z) => z.readings.concat(z.wallBandReadings));
-  const fieldConditions = input.sessions.length ? { sessions: input.sessions, warmUpMinutes: WARM_UP_MS / 60_000, notes: conditionNotes(db, survey, judged) } : undefined;
+  const judged = () => data.zones.flatMap((z) => z.readings.concat(z.wallBandReadings));
+  const fieldConditions = input.sessions.length ? { sessions: input.sessions, warmUpMinutes: WARM_UP_MS / 60_000, notes: conditionNotes(db, survey, judged()) } : undefined;
   progress(0.4);
   const pdf = await renderReportPdf({ ...data, photos: input.photos, zoneNotes: reportZoneNotes(db, survey.id), fieldConditions }, input.unit, (done, total) => progress(0.4 + 0.6 * (done / Math.max(1, total))));
   return new Uint8Array(pdf.buffer, pdf.byteOffset, pdf.byteLength);

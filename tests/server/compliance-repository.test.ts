@@ -1,0 +1,45 @@
+import { and, asc, eq } from 'drizzle-orm';
+import { describe, expect, it } from 'vitest';
+import { readings, surveys } from '../../server/db/schema/surveys';
+import { loadCurrentReadings, loadReadingPoints } from '../../server/modules/compliance/compliance-repository';
+import { toCoreReading } from '../../server/modules/compliance/judge-zones';
+import { decodeBudget } from '../../server/modules/readings/stored-budget';
+import { currentReadingConditions } from '../../server/modules/surveys/surveys-service';
+import { combineBudget } from '@shared/core/uncertainty';
+import { appWithTestProbes, newDraftSurvey, testWalkCsv, uploadAndWait } from './support/factories';
+
+describe('reading loaders of the verdicts and the report', () => {
+  it('loadCurrentReadings, of an imported walk, gives each current reading with every column as stored (budget parsed), one shared budget per stored text', async () => {
+    const { t, c } = await appWithTestProbes();
+    const surveyId = await newDraftSurvey(t, c);
+    expect((await uploadAndWait(t, c, surveyId, testWalkCsv(Date.parse('2026-11-21T09:00:00Z'), 3))).status.status).toBe('done');
+    const survey = t.db.select().from(surveys).where(eq(surveys.id, surveyId)).get()!;
+    const loaded = loadCurrentReadings(t.db, survey);
+    // The plain drizzle select these readings replace (every row mapped, the budget parsed by its JSON column).
+    const plain = t.db.select({
+      id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, planId: readings.planId, role: readings.role, timeMs: readings.timeMs, probeId: readings.probeId,
+      lux: readings.lux, uLux: readings.uLux, luxBound: readings.luxBound, flag: readings.flag, budget: readings.budget, coefficientSetId: readings.coefficientSetId,
+      plane: readings.plane, azimuthDeg: readings.azimuthDeg, excludedReason: readings.excludedReason, note: readings.note,
+    }).from(readings).where(and(...currentReadingConditions(survey))).orderBy(asc(readings.timeMs), asc(readings.id)).all();
+    expect(loaded.length).toBeGreaterThan(20);
+    expect(loaded).toEqual(plain);
+    // Readings with the same stored budget share one object, and judging reads it as the budget's own parts.
+    const stored = t.db.select({ id: readings.id, budget: readings.budget }).from(readings).where(eq(readings.surveyId, surveyId)).all();
+    const textOf = new Map(stored.map((r) => [r.id, JSON.stringify(r.budget)]));
+    const byText = new Map<string, unknown>();
+    for (const r of loaded) {
+      const seen = byText.get(textOf.get(r.id)!);
+      if (seen === undefined) byText.set(textOf.get(r.id)!, r.budget);
+      else expect(r.budget).toBe(seen);
+    }
+    expect(byText.size).toBeLessThan(loaded.length);
+    for (const r of loaded.slice(0, 20)) {
+      const core = toCoreReading(r);
+      if (decodeBudget(r.budget).length > 0) expect(core.budget).toEqual(decodeBudget(r.budget));
+      expect(core.uRel).toBeCloseTo(combineBudget(core.budget), 12);
+    }
+    // The report's points: the same readings' place, value, time, role and note.
+    const ids = loaded.map((r) => r.id);
+    expect(loadReadingPoints(t.db, surveyId, ids)).toEqual(loaded.map((r) => ({ point: r.point, xM: r.xM, yM: r.yM, role: r.role, timeMs: r.timeMs, lux: r.lux, luxBound: r.luxBound, note: r.note })));
+  });
+});
