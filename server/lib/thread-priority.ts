@@ -1,5 +1,9 @@
 import fs from 'node:fs';
 import os from 'node:os';
+import path from 'node:path';
+
+/** Linux names the calling thread here, as "PID/task/TID". */
+const THREAD_SELF = path.join(path.sep, 'proc', 'thread-self');
 
 /** The nice value background threads take (0 is normal, 19 the lowest): the event loop answering requests gets the CPU first. */
 export const BACKGROUND_NICE = 10;
@@ -13,7 +17,7 @@ export const BACKGROUND_NICE = 10;
  */
 export function lowerThreadPriority(nice = BACKGROUND_NICE): number | null {
   try {
-    const tid = Number(/\/task\/(\d+)$/.exec(fs.readlinkSync('/proc/thread-self'))?.[1]);
+    const tid = Number(/\/task\/(\d+)$/.exec(fs.readlinkSync(THREAD_SELF))?.[1]);
     if (!Number.isInteger(tid) || tid <= 0) return null;
     os.setPriority(tid, nice);
     return os.getPriority(tid);

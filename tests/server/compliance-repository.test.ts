@@ -1,7 +1,7 @@
 import { and, asc, eq } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 import { readings, surveys } from '../../server/db/schema/surveys';
-import { loadCurrentReadings, loadReadingPoints } from '../../server/modules/compliance/compliance-repository';
+import { loadCurrentReadings, loadReadingPointGroups } from '../../server/modules/compliance/compliance-repository';
 import { toCoreReading } from '../../server/modules/compliance/judge-zones';
 import { decodeBudget } from '../../server/modules/readings/stored-budget';
 import { currentReadingConditions } from '../../server/modules/surveys/surveys-service';
@@ -38,8 +38,14 @@ describe('reading loaders of the verdicts and the report', () => {
       if (decodeBudget(r.budget).length > 0) expect(core.budget).toEqual(decodeBudget(r.budget));
       expect(core.uRel).toBeCloseTo(combineBudget(core.budget), 12);
     }
-    // The report's points: the same readings' place, value, time, role and note.
-    const ids = loaded.map((r) => r.id);
-    expect(loadReadingPoints(t.db, surveyId, ids)).toEqual(loaded.map((r) => ({ point: r.point, xM: r.xM, yM: r.yM, role: r.role, timeMs: r.timeMs, lux: r.lux, luxBound: r.luxBound, note: r.note })));
+    // The report's points, for groups of ids (as the zones' readings and wall bands): the same readings' place, value, time, role and note, each group in time order.
+    const point = (r: (typeof loaded)[number]) => ({ id: r.id, point: r.point, xM: r.xM, yM: r.yM, role: r.role, timeMs: r.timeMs, lux: r.lux, luxBound: r.luxBound, note: r.note });
+    const odd = loaded.filter((_, i) => i % 2 === 1);
+    const fewLate = loaded.slice(-3);
+    const groups = [odd.map((r) => r.id).reverse(), [], fewLate.map((r) => r.id), [loaded[0].id]];
+    expect(loadReadingPointGroups(t.db, surveyId, groups)).toEqual([odd.map(point), [], fewLate.map(point), [point(loaded[0])]]);
+    expect(loadReadingPointGroups(t.db, surveyId, [[], []])).toEqual([[], []]);
+    // Another survey's reading ids give nothing.
+    expect(loadReadingPointGroups(t.db, surveyId + 1, [loaded.map((r) => r.id)])).toEqual([[]]);
   });
 });

@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, between, eq, inArray, sql } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { plans, zones } from '../../db/schema/plans';
 import { readings } from '../../db/schema/surveys';
@@ -94,27 +94,48 @@ export function loadReadingsById(db: Db, surveyId: number, ids: number[]): Judge
     .orderBy(asc(readings.timeMs), asc(readings.id)).all();
 }
 
-/** What the report draws and dates of a reading (and the field conditions' notes read): no budget, probe or ids. */
-export type ReadingPoint = Pick<JudgeReading, 'point' | 'xM' | 'yM' | 'role' | 'timeMs' | 'lux' | 'luxBound' | 'note'>;
+/** What the report draws and dates of a reading (and the field conditions' notes read): no budget or probe. */
+export type ReadingPoint = Pick<JudgeReading, 'id' | 'point' | 'xM' | 'yM' | 'role' | 'timeMs' | 'lux' | 'luxBound' | 'note'>;
 
 /**
- * Readings by id within one survey as ReadingPoints, in time order: the report holds every zone's
- * readings while it renders (500,000 on a large survey), so each is a small object.
+ * Readings of one survey for several groups of ids at once (the report: each zone's readings and
+ * its wall band), each group in time order. The report holds them all while it renders (500,000
+ * on a large survey), so each is a small object; and they are read in one pass over the ids'
+ * range in id order (about 1 s for 500,000), where a lookup per id cost 40 queries of random reads.
  */
-export function loadReadingPoints(db: Db, surveyId: number, ids: number[]): ReadingPoint[] {
-  if (ids.length === 0) return [];
-  const query = db.select({ point: readings.point, xM: readings.xM, yM: readings.yM, role: readings.role, timeMs: readings.timeMs, lux: readings.lux, luxBound: readings.luxBound, note: readings.note })
-    .from(readings)
-    .where(and(eq(readings.surveyId, surveyId), sql`${readings.id} in (select value from json_each(${JSON.stringify(ids)}))`))
-    .orderBy(asc(readings.timeMs), asc(readings.id)).toSQL();
+export function loadReadingPointGroups(db: Db, surveyId: number, groups: readonly (readonly number[])[]): ReadingPoint[][] {
+  const out = groups.map((): ReadingPoint[] => []);
+  let lo = Infinity;
+  let hi = -Infinity;
+  let total = 0;
+  for (const g of groups) for (const id of g) { if (id < lo) lo = id; if (id > hi) hi = id; total++; }
+  if (total === 0) return out;
+  // The groups each id belongs to: by offset from the smallest id while the ids are dense (a survey's readings are), else by map.
+  const dense = hi - lo < 4 * total + 100_000;
+  const first = dense ? new Int32Array(hi - lo + 1) : null;
+  const sparse = new Map<number, number[]>();
+  groups.forEach((g, i) => {
+    for (const id of g) {
+      if (first && first[id - lo] === 0) first[id - lo] = i + 1;
+      else sparse.set(id, [...(sparse.get(id) ?? []), i]);
+    }
+  });
+  const query = db.select({ id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, role: readings.role, timeMs: readings.timeMs, lux: readings.lux, luxBound: readings.luxBound, note: readings.note })
+    .from(readings).where(and(eq(readings.surveyId, surveyId), between(readings.id, lo, hi))).toSQL();
   const same = sameTexts();
-  const out: ReadingPoint[] = [];
-  for (const [point, xM, yM, role, timeMs, lux, luxBound, note] of db.$client.prepare(query.sql).raw().iterate(...query.params) as IterableIterator<unknown[]>) {
-    out.push({
-      point: point as string, xM: xM as number | null, yM: yM as number | null, role: same(role as string) as ReadingPoint['role'], timeMs: timeMs as number,
+  for (const [id, point, xM, yM, role, timeMs, lux, luxBound, note] of db.$client.prepare(query.sql).raw().iterate(...query.params) as IterableIterator<unknown[]>) {
+    const at = first ? first[(id as number) - lo] - 1 : -1;
+    const more = sparse.get(id as number);
+    if (at < 0 && !more) continue;
+    const r: ReadingPoint = {
+      id: id as number, point: point as string, xM: xM as number | null, yM: yM as number | null, role: same(role as string) as ReadingPoint['role'], timeMs: timeMs as number,
       lux: lux as number | null, luxBound: same(luxBound as string) as ReadingPoint['luxBound'], note: note as string | null,
-    });
+    };
+    if (at >= 0) out[at].push(r);
+    for (const i of more ?? []) out[i].push(r);
   }
+  // Rows came in id order: a stable sort by time gives (time, id) order, as the readings' own order.
+  for (const list of out) list.sort((a, b) => a.timeMs - b.timeMs || a.id - b.id);
   return out;
 }
 

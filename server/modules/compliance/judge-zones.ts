@@ -248,10 +248,17 @@ export function judgeZones(input: {
   }
 
   // A planned point is visited when a task reading names it (labels are unique within a survey) or was placed on it by hand.
+  // Only the planned points' labels are looked up: a set of every reading's label would hold 500,000 strings on a large survey.
+  const plannedLabels = new Set<string>();
+  for (const g of input.plannedGrids?.values() ?? []) for (const p of g.points) plannedLabels.add(labelKey(p.label));
+  for (const list of input.plannedSurfacePoints?.values() ?? []) for (const p of list) plannedLabels.add(labelKey(p.label));
   const visited = new Set<string>();
   const visitedIds = new Set<number>();
   for (const r of task) {
-    visited.add(labelKey(r.point));
+    if (plannedLabels.size > 0) {
+      const key = labelKey(r.point);
+      if (plannedLabels.has(key)) visited.add(key);
+    }
     if (r.plannedPointId) visitedIds.add(r.plannedPointId);
   }
   /** "n of m planned … have no reading: labels" for the planned points no reading visited (at most 30 named), or null. */

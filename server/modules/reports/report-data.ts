@@ -4,7 +4,7 @@ import { organizations, users } from '../../db/schema/organizations';
 import { sites } from '../../db/schema/sites';
 import type { SurveyRow } from '../surveys/surveys-service';
 import { complianceOf, surveyVerdicts, zoneMembers, type FrozenZone, type SurveyCompliance } from '../compliance/compliance-service';
-import { loadReadingPoints, loadUsedCoefficientSets, type ReadingPoint, type UsedCoefficientSet } from '../compliance/compliance-repository';
+import { loadReadingPointGroups, loadUsedCoefficientSets, type ReadingPoint, type UsedCoefficientSet } from '../compliance/compliance-repository';
 import type { ReportPhoto, ReportZoneNote } from '../field/field-photos';
 import type { FieldSession } from '@shared/schemas/field';
 
@@ -36,11 +36,13 @@ export async function loadReportData(db: Db, survey: SurveyRow, now: number): Pr
   const verdicts = await surveyVerdicts(db, survey);
   const compliance = await complianceOf(db, survey, verdicts);
   const byId = new Map(verdicts.zones.map((z) => [z.zoneId, z]));
-  const zones = compliance.zones.map((c) => {
-    const z = byId.get(c.zoneId)!;
+  const judged = compliance.zones.map((c) => ({ c, z: byId.get(c.zoneId)! }));
+  const groups = judged.flatMap(({ z }) => {
     const members = zoneMembers(db, verdicts, z);
-    return { ...z, change: c.change, readings: loadReadingPoints(db, survey.id, members.readingIds), wallBandReadings: loadReadingPoints(db, survey.id, members.wallBandReadingIds) };
+    return [members.readingIds, members.wallBandReadingIds];
   });
+  const points = loadReadingPointGroups(db, survey.id, groups);
+  const zones = judged.map(({ c, z }, i) => ({ ...z, change: c.change, readings: points[2 * i], wallBandReadings: points[2 * i + 1] }));
   const coefficientSets = verdicts.frozen?.coefficientSets ?? loadUsedCoefficientSets(db, verdicts.coefficientSetReadings ?? []);
   return {
     organizationName: org.name,
