@@ -24,7 +24,9 @@ import { registerZoneRoutes } from './modules/zones/zones-routes';
 import { registerImportRoutes } from './modules/imports/imports-routes';
 import { registerReadingRoutes } from './modules/readings/readings-routes';
 import { registerPlannedPointRoutes } from './modules/planned-points/planned-points-routes';
+import { labelCountsTask } from './modules/planned-points/planned-points-service';
 import { registerPlacementRoutes } from './modules/placements/placements-routes';
+import { unplacedTask } from './modules/placements/placements-service';
 import { registerTargetRoutes } from './modules/targets/targets-routes';
 import { registerOrganizationRoutes } from './modules/organization/organization-routes';
 import { registerComplianceRoutes } from './modules/compliance/compliance-routes';
@@ -82,8 +84,8 @@ export const SERVER_MODULES: ServerModule[] = [
   { name: 'imports', routes: registerImportRoutes, seed: seedSurveyLogs },
   { name: 'readings', routes: registerReadingRoutes, computeTasks: [readingsPageTask, pageMarksTask, readingSeriesTask] },
   // A survey planned with measurement grids whose log names the planned points by label only.
-  { name: 'planned-points', routes: registerPlannedPointRoutes, seed: seedLabelWalk },
-  { name: 'placements', routes: registerPlacementRoutes },
+  { name: 'planned-points', routes: registerPlannedPointRoutes, seed: seedLabelWalk, computeTasks: [labelCountsTask] },
+  { name: 'placements', routes: registerPlacementRoutes, computeTasks: [unplacedTask] },
   { name: 'targets', routes: registerTargetRoutes },
   { name: 'organization', routes: registerOrganizationRoutes },
   // The target library and the sign-off of the earlier walk-through.

@@ -122,3 +122,15 @@ export async function closeComputePools(): Promise<void> {
   pools.clear();
   await Promise.all(all.map((p) => p.destroy()));
 }
+
+/** Up to this many readings, work over a survey's readings runs inline (a few ms at most); above it, on a compute thread. */
+export const INLINE_READINGS = 20_000;
+
+/**
+ * Runs a task inline for a survey of at most `inlineUpTo` readings (cheaper than a hop to a
+ * thread), else on a compute thread (runCompute): what reads every reading of a large survey
+ * never holds the event loop.
+ */
+export async function runComputeBySize<I, O>(db: Db, readings: number, task: ComputeTask<I, O>, input: I, inlineUpTo = INLINE_READINGS): Promise<O> {
+  return readings <= inlineUpTo ? task.run(db, input, () => undefined) : runCompute(db, task, input);
+}

@@ -27,7 +27,7 @@ export async function seedLabelWalk(deps: Deps, ctx: SeedContext) {
   if (!site || !ground) return;
   const survey = createSurvey(deps, surveyor, { siteId: site.id, name: LABEL_WALK.name, startedOn: LABEL_WALK.startedOn, conditions: { daylightExcluded: true, notes: 'After dark; the logging meter records labels only, points planned on the walk sheet' } });
   const zoneRows = deps.db.select().from(zones).where(eq(zones.planId, ground.id)).orderBy(asc(zones.id)).all().filter((z) => (LABEL_WALK.zones as readonly string[]).includes(z.name));
-  for (const z of zoneRows) generateGrids(deps, surveyor, survey.id, { zoneId: z.id });
+  for (const z of zoneRows) await generateGrids(deps, surveyor, survey.id, { zoneId: z.id });
   const points = deps.db.select({ label: plannedPoints.label, xM: plannedPoints.xM, yM: plannedPoints.yM, zoneName: zones.name }).from(plannedPoints)
     .innerJoin(zones, eq(zones.id, plannedPoints.zoneId)).where(eq(plannedPoints.surveyId, survey.id)).orderBy(asc(plannedPoints.id)).all();
   const csv = toLogCsv(simulateLabelWalk(points, Date.parse(LABEL_WALK.startIso)), DEMO_SITE.timeZone);

@@ -11,6 +11,8 @@ import { notFound, unprocessable } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
 import { currentReadingConditions, getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
 import { planExtent } from '../plans/plans-service';
+import { computeTask, INLINE_READINGS, runComputeBySize } from '../../compute/compute-pool';
+import { keptReadingTotal } from '../surveys/reading-counts';
 import { assertSurveyEditable } from '../planned-points/planned-points-service';
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
@@ -20,8 +22,7 @@ type ReadingRow = typeof readings.$inferSelect;
 const UNPLACED_LIMIT = 2000;
 
 /** Task readings of the current decode without a place on a plan (no position, or a position on no plan), grouped by label in time order. */
-export function listUnplaced(db: Db, user: SessionUser, surveyId: number): UnplacedResponse {
-  const survey = getSurveyRow(db, user, surveyId);
+function queryUnplaced(db: Db, survey: { id: number; activeDecodeId: number | null }): UnplacedResponse {
   if (survey.activeDecodeId === null) return { total: 0, groups: [] };
   const where = and(...currentReadingConditions(survey), eq(readings.role, 'task'), or(isNull(readings.xM), isNull(readings.planId)));
   const total = db.select({ n: sql<number>`count(*)` }).from(readings).where(where).get()!.n;
@@ -34,6 +35,14 @@ export function listUnplaced(db: Db, user: SessionUser, surveyId: number): Unpla
     g.readings.push({ id: r.id, point: r.point, timestamp: new Date(r.timeMs).toISOString(), probe: serial, role: r.role, lux: r.lux, uLux: r.uLux, luxBound: r.luxBound, flag: r.flag });
   }
   return { total, groups: [...groups.values()] };
+}
+
+/** Declared in server/modules.ts (placements): finding a large survey's unplaced readings reads every reading, so on a compute thread. */
+export const unplacedTask = computeTask('unplaced-readings', queryUnplaced);
+
+export function listUnplaced(db: Db, user: SessionUser, surveyId: number, inlineUpTo = INLINE_READINGS): Promise<UnplacedResponse> {
+  const survey = getSurveyRow(db, user, surveyId);
+  return runComputeBySize(db, keptReadingTotal(db, survey.id), unplacedTask, { id: survey.id, activeDecodeId: survey.activeDecodeId }, inlineUpTo);
 }
 
 function currentReading(db: Db, survey: SurveyRow, readingId: number): ReadingRow {

@@ -19,6 +19,8 @@ import { conflict, notFound, unprocessable } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
 import { currentReadingConditions, getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
 import { planExtent } from '../plans/plans-service';
+import { computeTask, runComputeBySize } from '../../compute/compute-pool';
+import { keptReadingTotal } from '../surveys/reading-counts';
 
 type ZoneRow = typeof zones.$inferSelect;
 type PlanRow = typeof plans.$inferSelect;
@@ -68,17 +70,25 @@ function insideZone(zone: ZoneRow, x: number, y: number, what: string) {
 
 const isChanged = (grid: Pick<GridRow, 'generated'>, points: Pick<PointRow, 'label' | 'xM' | 'yM'>[]) => gridDiffersFromGenerated(grid.generated, points);
 
+/** Current task readings per label key (lower-cased, trimmed), for the given keys: reads every current reading. */
+function countLabels(db: Db, input: { survey: { id: number; activeDecodeId: number | null }; keys: string[] }): [string, number][] {
+  return db.select({ key: sql<string>`lower(trim(${readings.point}))`, n: sql<number>`count(*)` }).from(readings)
+    .where(and(...currentReadingConditions(input.survey), eq(readings.role, 'task'), inArray(sql`lower(trim(${readings.point}))`, input.keys)))
+    .groupBy(sql`lower(trim(${readings.point}))`).all().map((r) => [r.key, r.n]);
+}
+
+/** Declared in server/modules.ts (planned-points): a large survey's labels are counted on a compute thread. */
+export const labelCountsTask = computeTask('planned-point-label-counts', countLabels);
+
 /** Number of current readings per planned point: by the log's label, plus readings placed on the point by hand. */
-export function readingCountsByPoint(db: Db, survey: SurveyRow, points: PointRow[]): Map<number, number> {
+export async function readingCountsByPoint(db: Db, survey: SurveyRow, points: PointRow[]): Promise<Map<number, number>> {
   const out = new Map<number, number>(points.map((p) => [p.id, 0]));
   if (points.length === 0 || survey.activeDecodeId === null) return out;
   const byKey = new Map(points.map((p) => [p.labelKey, p.id]));
-  const rows = db.select({ key: sql<string>`lower(trim(${readings.point}))`, n: sql<number>`count(*)` }).from(readings)
-    .where(and(...currentReadingConditions(survey), eq(readings.role, 'task'), inArray(sql`lower(trim(${readings.point}))`, [...byKey.keys()])))
-    .groupBy(sql`lower(trim(${readings.point}))`).all();
-  for (const r of rows) {
-    const id = byKey.get(r.key);
-    if (id !== undefined) out.set(id, (out.get(id) ?? 0) + r.n);
+  const rows = await runComputeBySize(db, keptReadingTotal(db, survey.id), labelCountsTask, { survey: { id: survey.id, activeDecodeId: survey.activeDecodeId }, keys: [...byKey.keys()] });
+  for (const [key, n] of rows) {
+    const id = byKey.get(key);
+    if (id !== undefined) out.set(id, (out.get(id) ?? 0) + n);
   }
   const placed = db.select({ id: readingPlacements.plannedPointId, point: readingPlacements.point }).from(readingPlacements)
     .where(and(eq(readingPlacements.surveyId, survey.id), eq(readingPlacements.state, 'placed'))).all();
@@ -152,19 +162,19 @@ function presentGrid(grid: GridRow, zone: ZoneRow, points: PointRow[]): SurveyGr
 }
 
 /** Every grid and planned point of a survey (optionally one plan's), with reading counts. */
-export function listPlannedPoints(db: Db, user: SessionUser, surveyId: number, planId?: number): PlannedPointsResponse {
+export function listPlannedPoints(db: Db, user: SessionUser, surveyId: number, planId?: number): Promise<PlannedPointsResponse> {
   const survey = getSurveyRow(db, user, surveyId);
   if (planId !== undefined) planOfSurvey(db, survey, planId);
   return plannedPointsOf(db, survey, planId);
 }
 
-export function plannedPointsOf(db: Db, survey: SurveyRow, planId?: number): PlannedPointsResponse {
+export async function plannedPointsOf(db: Db, survey: SurveyRow, planId?: number): Promise<PlannedPointsResponse> {
   const gridRows = db.select({ grid: surveyGrids, zone: zones }).from(surveyGrids).innerJoin(zones, eq(zones.id, surveyGrids.zoneId))
     .where(and(eq(surveyGrids.surveyId, survey.id), ...(planId !== undefined ? [eq(surveyGrids.planId, planId)] : []))).orderBy(asc(surveyGrids.code)).all()
     .sort((a, b) => a.grid.code.localeCompare(b.grid.code) || GRID_SURFACES.indexOf(a.grid.surface) - GRID_SURFACES.indexOf(b.grid.surface));
   const points = db.select().from(plannedPoints)
     .where(and(eq(plannedPoints.surveyId, survey.id), ...(planId !== undefined ? [eq(plannedPoints.planId, planId)] : []))).orderBy(asc(plannedPoints.id)).all();
-  const counts = readingCountsByPoint(db, survey, points);
+  const counts = await readingCountsByPoint(db, survey, points);
   const byGrid = new Map<number, PointRow[]>();
   for (const p of points) byGrid.set(p.gridId, [...(byGrid.get(p.gridId) ?? []), p]);
   return {
@@ -191,7 +201,7 @@ function takenLabels(tx: Pick<Db, 'select'>, surveyId: number, exceptGridId: num
  * Generates (or regenerates) the grid of one zone or of every zone of a plan, replacing the zone's
  * earlier planned points. A rounding other than the survey's changes the survey's rule (audited).
  */
-export function generateGrids(deps: Deps, user: SessionUser, surveyId: number, body: GenerateGridBody): PlannedPointsResponse {
+export function generateGrids(deps: Deps, user: SessionUser, surveyId: number, body: GenerateGridBody): Promise<PlannedPointsResponse> {
   const survey = getSurveyRow(deps.db, user, surveyId);
   assertSurveyEditable(survey, 'its planned points');
   let targets: { zone: ZoneRow; plan: PlanRow }[];
@@ -326,7 +336,7 @@ export function createPlannedPoint(deps: Deps, user: SessionUser, surveyId: numb
   return presentPoint(row, 0);
 }
 
-export function movePlannedPoint(deps: Deps, user: SessionUser, surveyId: number, pointId: number, body: MovePlannedPointBody): PlannedPoint {
+export async function movePlannedPoint(deps: Deps, user: SessionUser, surveyId: number, pointId: number, body: MovePlannedPointBody): Promise<PlannedPoint> {
   const survey = getSurveyRow(deps.db, user, surveyId);
   assertSurveyEditable(survey, 'its planned points');
   const point = pointOfSurvey(deps.db, survey, pointId);
@@ -340,7 +350,7 @@ export function movePlannedPoint(deps: Deps, user: SessionUser, surveyId: number
     const reason = settleReason(tx, grid, zone.name, body.reason, now);
     recordAudit(tx, { organizationId: user.organizationId, actorId: user.id, entityType: 'survey_grid', entityId: grid.id, surveyId: survey.id, action: 'point_moved', before: { label: point.label, xM: point.xM, yM: point.yM }, after: { label: point.label, xM: body.xM, yM: body.yM, reason }, at: now });
   });
-  const counts = readingCountsByPoint(deps.db, survey, [point]);
+  const counts = await readingCountsByPoint(deps.db, survey, [point]);
   return presentPoint({ ...point, xM: body.xM, yM: body.yM }, counts.get(point.id) ?? 0);
 }
 

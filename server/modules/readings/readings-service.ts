@@ -3,8 +3,8 @@ import { and, asc, desc, eq, sql, type SQL } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { Deps } from '../../deps';
 import type { Db } from '../../db/client';
-import { computeTask, runCompute } from '../../compute/compute-pool';
-import { readings, surveys } from '../../db/schema/surveys';
+import { computeTask, INLINE_READINGS, runComputeBySize } from '../../compute/compute-pool';
+import { readings } from '../../db/schema/surveys';
 import { coefficientSets, probes } from '../../db/schema/calibration';
 import { plans } from '../../db/schema/plans';
 import type { SessionUser } from '@shared/schemas/auth';
@@ -14,7 +14,7 @@ import { toSafeCsvRows } from '@shared/csv-safe';
 import { readingCells, readingColumns, type ExportReading } from '@shared/export-columns';
 import { currentReadingConditions, getSurveyRow } from '../surveys/surveys-service';
 import { decodeBudget } from './stored-budget';
-import { currentReadingCount } from '../surveys/reading-counts';
+import { keptReadingTotal } from '../surveys/reading-counts';
 import { pageMark } from './reading-page-marks';
 
 const columns = {
@@ -59,7 +59,7 @@ function queryPage(db: Db, survey: PageSurvey, q: PageQuery): ReadingsResponse {
   const where = and(...filters(survey, q));
   // Unfiltered, the total is the kept count (reading-counts.ts) rather than a count over every reading.
   const total = !q.flag && !q.point
-    ? db.select({ n: currentReadingCount }).from(surveys).where(eq(surveys.id, survey.id)).get()!.n
+    ? keptReadingTotal(db, survey.id)
     : db.select({ n: sql<number>`count(*)` }).from(readings).where(where).get()!.n;
   const dir = q.order === 'desc' ? desc : asc;
   const rows = db.select(columns).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).where(where)
@@ -70,9 +70,6 @@ function queryPage(db: Db, survey: PageSurvey, q: PageQuery): ReadingsResponse {
 /** Declared in server/modules.ts (readings): a page of a large survey by OFFSET, off the request's thread. */
 export const readingsPageTask = computeTask('readings-page', (db: Db, input: { survey: PageSurvey; query: PageQuery }) => queryPage(db, input.survey, input.query));
 
-/** Up to this many current readings a page is read inline by OFFSET (a few ms at most). */
-export const INLINE_PAGE_READINGS = 20_000;
-
 /**
  * The survey's current readings, filtered by flag and point, sorted, one page at a time. Small
  * surveys are read inline. In a large one, OFFSET would walk every reading before the page (60 ms
@@ -80,14 +77,13 @@ export const INLINE_PAGE_READINGS = 20_000;
  * page mark (reading-page-marks.ts: one index seek and at most PAGE_MARK_STRIDE rows skipped), and
  * any other order or filter is read on a compute thread.
  */
-export async function listReadings(db: Deps['db'], user: SessionUser, surveyId: number, query: ReadingsQuery, inlineUpTo = INLINE_PAGE_READINGS): Promise<ReadingsResponse> {
+export async function listReadings(db: Deps['db'], user: SessionUser, surveyId: number, query: ReadingsQuery, inlineUpTo = INLINE_READINGS): Promise<ReadingsResponse> {
   const q = readingsQuerySchema.parse(query);
   const row = getSurveyRow(db, user, surveyId);
   const survey: PageSurvey = { id: row.id, activeDecodeId: row.activeDecodeId };
   if (survey.activeDecodeId === null) return { items: [], total: 0 };
-  const total = db.select({ n: currentReadingCount }).from(surveys).where(eq(surveys.id, survey.id)).get()!.n;
-  if (total <= inlineUpTo) return queryPage(db, survey, q);
-  if (q.sort === 'time' && !q.flag && !q.point) {
+  const total = keptReadingTotal(db, survey.id);
+  if (total > inlineUpTo && q.sort === 'time' && !q.flag && !q.point) {
     if (q.offset >= total) return { items: [], total };
     const mark = pageMark(db, survey, q.order, q.offset);
     if (mark) {
@@ -101,7 +97,7 @@ export async function listReadings(db: Deps['db'], user: SessionUser, surveyId: 
       return { items: rows.map(present), total };
     }
   }
-  return runCompute(db, readingsPageTask, { survey, query: q });
+  return runComputeBySize(db, total, readingsPageTask, { survey, query: q }, inlineUpTo);
 }
 
 export const SERIES_MAX_POINTS = 4000;
@@ -109,7 +105,7 @@ export const SERIES_MAX_POINTS = 4000;
 /** The walk over time: every n-th current reading (n from the kept count), and every flagged one. */
 function querySeries(db: Db, survey: PageSurvey): ReadingSeries {
   if (survey.activeDecodeId === null) return { items: [], total: 0 };
-  const total = db.select({ n: currentReadingCount }).from(surveys).where(eq(surveys.id, survey.id)).get()!.n;
+  const total = keptReadingTotal(db, survey.id);
   const where = currentReadingConditions(survey);
   const stride = Math.max(1, Math.ceil(total / SERIES_MAX_POINTS));
   if (stride > 1) where.push(sql`(${readings.id} % ${stride} = 0 or ${readings.flag} <> 'ok')`);
@@ -122,12 +118,11 @@ function querySeries(db: Db, survey: PageSurvey): ReadingSeries {
 export const readingSeriesTask = computeTask('reading-series', (db: Db, survey: PageSurvey) => querySeries(db, survey));
 
 /** The walk over time for the chart; beyond SERIES_MAX_POINTS every n-th reading, and every flagged one. */
-export async function readingSeries(db: Deps['db'], user: SessionUser, surveyId: number, inlineUpTo = INLINE_PAGE_READINGS): Promise<ReadingSeries> {
+export async function readingSeries(db: Deps['db'], user: SessionUser, surveyId: number, inlineUpTo = INLINE_READINGS): Promise<ReadingSeries> {
   const row = getSurveyRow(db, user, surveyId);
   const survey: PageSurvey = { id: row.id, activeDecodeId: row.activeDecodeId };
   if (survey.activeDecodeId === null) return { items: [], total: 0 };
-  const total = db.select({ n: currentReadingCount }).from(surveys).where(eq(surveys.id, survey.id)).get()!.n;
-  return total <= inlineUpTo ? querySeries(db, survey) : runCompute(db, readingSeriesTask, survey);
+  return runComputeBySize(db, keptReadingTotal(db, survey.id), readingSeriesTask, survey, inlineUpTo);
 }
 
 /**

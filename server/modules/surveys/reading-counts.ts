@@ -1,4 +1,4 @@
-import { sql } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { readingCounts } from '../../db/schema/aggregates';
 import { logImports, readings, surveys } from '../../db/schema/surveys';
@@ -18,3 +18,8 @@ export const currentReadingCount = sql<number>`(coalesce((select sum(${readingCo
   join ${logImports} on ${logImports.id} = ${readingCounts.importId} and ${logImports.status} = 'done'
   where ${readingCounts.decodeId} = ${surveys.activeDecodeId}), 0)
   + (select count(*) from ${readings} where ${readings.fieldRecordId} is not null and ${readings.decodeId} = ${surveys.activeDecodeId}))`;
+
+/** A survey's current readings (currentReadingCount for one survey). */
+export function keptReadingTotal(db: Db, surveyId: number): number {
+  return db.select({ n: currentReadingCount }).from(surveys).where(eq(surveys.id, surveyId)).get()?.n ?? 0;
+}

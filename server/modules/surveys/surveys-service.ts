@@ -14,9 +14,9 @@ import { notFound, refused } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
 import { getSiteRow, siteConditions } from '../sites/sites-service';
 import { getOrganization } from '../organization/organization-service';
-import { currentReadingCount } from './reading-counts';
+import { currentReadingCount, keptReadingTotal } from './reading-counts';
 import type { Db } from '../../db/client';
-import { computeTask, runCompute } from '../../compute/compute-pool';
+import { computeTask, INLINE_READINGS, runComputeBySize } from '../../compute/compute-pool';
 
 export type SurveyRow = typeof surveys.$inferSelect;
 type SiteRow = typeof sites.$inferSelect;
@@ -55,11 +55,6 @@ export function currentReadingConditions(survey: Pick<SurveyRow, 'id' | 'activeD
   ];
 }
 
-/** A survey's current readings, from the kept counts (reading-counts.ts). */
-function readingCount(db: Deps['db'], survey: Pick<SurveyRow, 'id'>): number {
-  return db.select({ n: currentReadingCount }).from(surveys).where(eq(surveys.id, survey.id)).get()!.n;
-}
-
 /** The survey's installation as the core's Installation and as answered (a new one always carries its MF). */
 export function installationOf(row: Pick<SurveyRow, 'installation' | 'maintenanceFactor' | 'mfParts'>): InstallationInfo {
   if (row.installation === 'new' && row.maintenanceFactor !== null) return { state: 'new', maintenanceFactor: row.maintenanceFactor, parts: row.mfParts ?? null };
@@ -89,7 +84,7 @@ export function setInstallation(deps: Deps, actor: SessionUser, surveyId: number
     });
     return after;
   });
-  return present(updated, row.site, readingCount(deps.db, updated));
+  return present(updated, row.site, keptReadingTotal(deps.db, updated.id));
 }
 
 function present(row: Omit<SurveyRow, 'frozen'>, site: SiteRow, count: number): Survey {
@@ -130,13 +125,10 @@ function readingFacts(db: Deps['db'], survey: Pick<SurveyRow, 'id' | 'activeDeco
 /** Declared in server/modules.ts (surveys): a large survey's counts read every reading, so on a compute thread. */
 export const surveyReadingFactsTask = computeTask('survey-reading-facts', (db: Db, survey: { id: number; activeDecodeId: number | null }) => readingFacts(db, survey));
 
-/** Up to this many current readings a survey's counts are read inline (a few ms). */
-const INLINE_FACTS_READINGS = 20_000;
-
-export async function getSurvey(db: Deps['db'], user: SessionUser, surveyId: number, inlineUpTo = INLINE_FACTS_READINGS): Promise<SurveyDetail> {
+export async function getSurvey(db: Deps['db'], user: SessionUser, surveyId: number, inlineUpTo = INLINE_READINGS): Promise<SurveyDetail> {
   const row = getSurveyRow(db, user, surveyId);
   const subject = { id: row.id, activeDecodeId: row.activeDecodeId };
-  const { flagCounts, lapsed } = readingCount(db, row) <= inlineUpTo ? readingFacts(db, subject) : await runCompute(db, surveyReadingFactsTask, subject);
+  const { flagCounts, lapsed } = await runComputeBySize(db, keptReadingTotal(db, row.id), surveyReadingFactsTask, subject, inlineUpTo);
   const importRows = db.select({ imp: logImports, filename: storedFiles.filename }).from(logImports).innerJoin(storedFiles, eq(storedFiles.id, logImports.fileId))
     .where(eq(logImports.surveyId, row.id)).orderBy(desc(logImports.id)).all();
   const decodeRows = db.select({ d: decodes, name: users.name }).from(decodes).leftJoin(users, eq(users.id, decodes.createdBy))

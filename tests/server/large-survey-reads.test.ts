@@ -1,0 +1,132 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { describe, it, expect, beforeAll, afterAll } from 'vitest';
+import { eq } from 'drizzle-orm';
+import { logImports } from '@server/db/schema/surveys';
+import { loadSessionUser } from '@server/modules/auth/auth-service';
+import { keepReadingCount } from '@server/modules/surveys/reading-counts';
+import { listReadings, readingSeries } from '@server/modules/readings/readings-service';
+import { getSurvey } from '@server/modules/surveys/surveys-service';
+import { listUnplaced } from '@server/modules/placements/placements-service';
+import { PAGE_MARK_STRIDE, pageMark } from '@server/modules/readings/reading-page-marks';
+import type { SessionUser } from '@shared/schemas/auth';
+import { closeComputePools } from '@server/compute/compute-pool';
+import { createTestApp, DEMO, type TestApp } from './helpers';
+import { buildSurvey, insertDecode, userId } from './support/factories';
+
+// What reads every reading of a large survey stays off the event loop, with the same answers.
+// A large survey's readings pages start from page marks (a seek to every PAGE_MARK_STRIDE-th
+// reading) instead of an OFFSET walk. The pages must be exactly those of the plain OFFSET query,
+// in both time orders, with readings sharing a time (ties go by id), past the end, and once the
+// set of current readings changes (an import accepted later).
+const READINGS = 3 * PAGE_MARK_STRIDE + 37;
+const OFFSETS = [0, 1, 99, PAGE_MARK_STRIDE - 1, PAGE_MARK_STRIDE, PAGE_MARK_STRIDE + 1, 2 * PAGE_MARK_STRIDE + 500, READINGS - 100, READINGS - 1, READINGS, READINGS + 5000];
+
+// Run twice: on an in-memory database (tasks run inline) and on a file database, where the large
+// path really hops to the piscina threads (their own connections, tasks found by name).
+const fileDir = fs.mkdtempSync(path.join(os.tmpdir(), 'luxtrail-large-reads-'));
+afterAll(async () => {
+  await closeComputePools();
+  fs.rmSync(fileDir, { recursive: true, force: true });
+});
+
+describe.each([
+  ['an in-memory database', ':memory:'],
+  ['a file database (compute threads)', path.join(fileDir, 'luxtrail.db')],
+])('on %s', (_label, databaseUrl) => {
+  let t: TestApp;
+  let user: SessionUser;
+  let surveyId: number;
+  let probeId: number;
+  let decodeId: number;
+  let laterImportId: number;
+
+  /** Waits until the page marks computed in the background for this order are kept. */
+  async function marksReady(order: 'asc' | 'desc') {
+    // Generous: on a busy machine the first hop starts a thread and bundles its code.
+    for (let i = 0; i < 400; i++) {
+      const survey = { id: surveyId, activeDecodeId: decodeId };
+      if (pageMark(t.db, survey, order, 0)) return;
+      await new Promise((r) => setTimeout(r, 50));
+    }
+    throw new Error('page marks never became ready');
+  }
+
+  beforeAll(async () => {
+    t = await createTestApp({ databaseUrl });
+    user = loadSessionUser(t.db, userId(t, DEMO.surveyor).id)!;
+    const start = Date.parse('2026-11-10T08:00:00Z');
+    // Three readings share each second: the order within a second is by id.
+    const built = buildSurvey(t, {
+      ownerEmail: DEMO.surveyor, surveyName: 'Paged walk', zones: [],
+      readings: Array.from({ length: READINGS }, (_, i) => ({ x: null, y: null, lux: 100 + (i % 50), point: `Q${i}`, timeMs: start + Math.floor(i / 3) * 1000 })),
+    });
+    surveyId = built.surveyId;
+    probeId = built.probeId;
+    decodeId = built.decodeId;
+    const first = t.db.select().from(logImports).where(eq(logImports.surveyId, surveyId)).get()!;
+    keepReadingCount(t.db, decodeId, first.id, READINGS);
+    // A further log in the same decode, interleaved in time, still running: its readings are not current yet.
+    laterImportId = insertDecode(t, surveyId, Array.from({ length: 300 }, (_, i) => ({
+      point: `L${i}`, xM: null, yM: null, planId: null, role: 'task' as const, timeMs: start + i * 7000 + 500, probeId, lux: 321, uLux: 10, luxBound: 'exact' as const,
+      flag: 'ok' as const, gainCode: 0, sampleCount: 1, budget: [],
+    })), { addLog: true }).importId;
+    t.db.update(logImports).set({ status: 'running' }).where(eq(logImports.id, laterImportId)).run();
+  });
+
+  async function expectSamePages(total: number) {
+    for (const order of ['asc', 'desc'] as const) {
+      await listReadings(t.db, user, surveyId, { order }, 0);
+      await marksReady(order);
+      for (const offset of OFFSETS) {
+        const byOffset = await listReadings(t.db, user, surveyId, { order, offset, limit: 100 }, Infinity);
+        const byMark = await listReadings(t.db, user, surveyId, { order, offset, limit: 100 }, 0);
+        expect(byMark.total).toBe(total);
+        expect(byMark.items.map((r) => r.id), `${order} from ${offset}`).toEqual(byOffset.items.map((r) => r.id));
+        expect(byMark.items).toEqual(byOffset.items);
+        // Within the readings, a page never skips more than the stride from its mark.
+        const mark = pageMark(t.db, { id: surveyId, activeDecodeId: decodeId }, order, offset)!;
+        if (offset < total) expect(mark.skip).toBeLessThan(PAGE_MARK_STRIDE);
+      }
+    }
+  }
+
+  describe('readings pages of a large survey', () => {
+    it('start from page marks and equal the OFFSET pages in both orders, past the end too', async () => {
+      const first = await listReadings(t.db, user, surveyId, { offset: 0, limit: 5 }, Infinity);
+      expect(first.items.map((r) => r.point)).toEqual(['Q0', 'Q1', 'Q2', 'Q3', 'Q4']);
+      const last = await listReadings(t.db, user, surveyId, { order: 'desc', offset: 0, limit: 4 }, Infinity);
+      // Descending time, ties by ascending id: the last second holds Q3108 alone, the one before Q3105..Q3107.
+      expect(READINGS).toBe(3109);
+      expect(last.items.map((r) => r.point)).toEqual(['Q3108', 'Q3105', 'Q3106', 'Q3107']);
+      await expectSamePages(READINGS);
+    });
+
+    it('follow the current readings when a further log is accepted (the marks are computed again)', async () => {
+      t.db.update(logImports).set({ status: 'done' }).where(eq(logImports.id, laterImportId)).run();
+      keepReadingCount(t.db, decodeId, laterImportId, 300);
+      // The kept marks name the earlier set of readings: no mark until they are computed again.
+      expect(pageMark(t.db, { id: surveyId, activeDecodeId: decodeId }, 'asc', 2000)).toBeNull();
+      await expectSamePages(READINGS + 300);
+      const page = await listReadings(t.db, user, surveyId, { offset: 0, limit: 8 }, 0);
+      expect(page.items.some((r) => r.point.startsWith('L'))).toBe(true);
+    });
+
+    it('filtered or sorted by another column, its walk, counts and unplaced readings: a large survey is read on a compute thread with the same answer', async () => {
+      const q = { sort: 'lux' as const, order: 'desc' as const, offset: 1500, limit: 50 };
+      expect(await listReadings(t.db, user, surveyId, q, 0)).toEqual(await listReadings(t.db, user, surveyId, q, Infinity));
+      const series = await readingSeries(t.db, user, surveyId, 0);
+      expect(series).toEqual(await readingSeries(t.db, user, surveyId, Infinity));
+      expect(series.total).toBe(READINGS + 300);
+      const detail = await getSurvey(t.db, user, surveyId, 0);
+      expect(detail).toEqual(await getSurvey(t.db, user, surveyId, Infinity));
+      expect(detail.flagCounts).toEqual({ ok: READINGS + 300 });
+      // Every reading here has no position: all are unplaced, grouped by label, at most 2,000 listed.
+      const unplaced = await listUnplaced(t.db, user, surveyId, 0);
+      expect(unplaced).toEqual(await listUnplaced(t.db, user, surveyId, Infinity));
+      expect(unplaced.total).toBe(READINGS + 300);
+      expect(unplaced.groups.reduce((n, g) => n + g.readings.length, 0)).toBe(2000);
+    });
+  });
+});
