@@ -3,6 +3,7 @@ import type { Deps } from './deps';
 import type { SeedContext } from './db/seed-context';
 import type { ComputeTask } from './compute/compute-pool';
 import { verdictAggregateTask } from './modules/compliance/verdict-aggregates';
+import { mapReadingsTask, zonePointsTask } from './modules/compliance/answer-parts';
 import { reportPdfTask } from './modules/reports/report-job';
 import { readingSeriesTask, readingsPageTask } from './modules/readings/readings-service';
 import { pageMarksTask } from './modules/readings/reading-page-marks';
@@ -89,7 +90,7 @@ export const SERVER_MODULES: ServerModule[] = [
   { name: 'targets', routes: registerTargetRoutes },
   { name: 'organization', routes: registerOrganizationRoutes },
   // The target library and the sign-off of the earlier walk-through.
-  { name: 'compliance', routes: registerComplianceRoutes, seed: seedCompliance, computeTasks: [verdictAggregateTask] },
+  { name: 'compliance', routes: registerComplianceRoutes, seed: seedCompliance, computeTasks: [verdictAggregateTask, zonePointsTask, mapReadingsTask] },
   { name: 'workflow', routes: registerWorkflowRoutes },
   { name: 'reports', routes: registerReportRoutes, computeTasks: [reportPdfTask] },
   // The field view: records synced from the phone (typed readings join the survey's readings).

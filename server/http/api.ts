@@ -6,6 +6,7 @@ import type { Capability } from '@shared/policy';
 import type { SessionUser } from '@shared/schemas/auth';
 import { authorize, type Access } from './authorize';
 import { validate, parsed } from './validate';
+import { PackedAnswer } from './packed-json';
 
 export type RouteSpec<P extends z.ZodType | undefined, Q extends z.ZodType | undefined, B extends z.ZodType | undefined, R extends z.ZodType | undefined = undefined> = {
   method: 'get' | 'post' | 'patch' | 'put' | 'delete';
@@ -31,8 +32,11 @@ export type RouteSpec<P extends z.ZodType | undefined, Q extends z.ZodType | und
 
 type Infer<T> = T extends z.ZodType ? z.infer<T> : Record<string, never>;
 
-/** What a handler may return: the `response` schema's value, or nothing (204, or it answered through `res`). */
-export type RouteAnswer<R> = R extends z.ZodType ? z.input<R> : void;
+/**
+ * What a handler may return: the `response` schema's value (or that value with a kept, packed part:
+ * packed-json.ts), or nothing (204, or it answered through `res`).
+ */
+export type RouteAnswer<R> = R extends z.ZodType ? z.input<R> | PackedAnswer<z.input<R>> : void;
 
 export type RouteInput<P, Q, B> = {
   params: Infer<P>;
@@ -69,6 +73,7 @@ export class Api {
         const result = await handler({ ...input, user: req.user as SessionUser, req, res });
         if (res.headersSent) return;
         if (result === undefined) res.status(spec.status ?? 204).end();
+        else if (result instanceof PackedAnswer) await result.send(req, res, spec.status ?? res.statusCode);
         // A handler may choose between 200 and 201 itself (an idempotent create answers 200 for a repeat).
         else res.status(spec.status ?? res.statusCode).json(result);
       } catch (err) {

@@ -5,7 +5,7 @@ import { readings } from '../../db/schema/surveys';
 import { coefficientSets, probes } from '../../db/schema/calibration';
 import type { SurveyRow } from '../surveys/surveys-service';
 import { currentReadingConditions } from '../surveys/surveys-service';
-import { resolveZoneTarget } from '../targets/targets-service';
+import { resolveZoneTargets } from '../targets/targets-service';
 import type { JudgePlannedGrid, JudgeReading, JudgeSurfacePoint, JudgeZone } from './judge-zones';
 import { plannedPoints, readingPlacements, surveyGrids } from '../../db/schema/grids';
 import { gridDiffersFromGenerated } from '@shared/spatial/measurement-grid';
@@ -17,11 +17,12 @@ export function loadSitePlans(db: Db, organizationId: number, siteId: number): P
   const planRows = db.select().from(plans).where(eq(plans.siteId, siteId)).orderBy(asc(plans.id)).all();
   if (planRows.length === 0) return [];
   const zoneRows = db.select().from(zones).where(inArray(zones.planId, planRows.map((p) => p.id))).orderBy(asc(zones.id)).all();
+  const resolved = new Map(resolveZoneTargets(db, organizationId, zoneRows).map((t, i) => [zoneRows[i].id, t]));
   return planRows.map((p) => ({
     planId: p.id,
     planName: p.name,
     zones: zoneRows.filter((z) => z.planId === p.id).map((z): JudgeZone => {
-      const t = resolveZoneTarget(db, organizationId, z);
+      const t = resolved.get(z.id);
       return {
         id: z.id, name: z.name, kind: z.kind, useType: z.useType, planId: p.id, planName: p.name, planeHeightM: z.planeHeightM, wallBandM: z.wallBandM,
         polygon: z.polygon, chosenEmLux: z.chosenEmLux, contextModifiers: z.contextModifiers,

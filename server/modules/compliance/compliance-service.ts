@@ -18,8 +18,12 @@ import { siteConditions } from '../sites/sites-service';
 import { decisionRuleOf } from '../organization/organization-service';
 import { getVisibleTarget, presentTarget } from '../targets/targets-service';
 import type { JudgedZone } from './judge-zones';
-import { loadReadingsById, loadUsedCoefficientSets, type UsedCoefficientSet } from './compliance-repository';
-import { aggregateZoneMembers, coreInstallation, currentAggregate, type StoredZone, type ZoneMembers } from './verdict-aggregates';
+import { loadUsedCoefficientSets, type UsedCoefficientSet } from './compliance-repository';
+import { aggregateInputsKey, aggregateZoneMembers, coreInstallation, currentAggregate, type StoredZone, type ZoneMembers } from './verdict-aggregates';
+import { answerCache } from './answer-cache';
+import { hasPointLabel, zonePointsTask, type ZonePointsPart } from './answer-parts';
+import { runCompute } from '../../compute/compute-pool';
+import { packedAnswer, packedBytes, type PackedAnswer } from '../../http/packed-json';
 import { notesOfZone, photosOfZone } from '../field/field-service';
 
 export { coreInstallation };
@@ -92,6 +96,8 @@ const strip = ({ polygon: _p, readingIds: _r, wallBandReadingIds: _w, otherPlane
 export type SurveyVerdicts = {
   rule: AcceptanceRule; zones: FrozenZone[]; unassignedPoints: number; hasDaylightReference: boolean; warnings: string[]; installation: InstallationInfo;
   frozen: FrozenCompliance | null; aggregateId: number | null; coefficientSetReadings: [number, number][] | null;
+  /** The inputs key of the live aggregate (null when frozen: aggregateInputsKey reads a frozen one's). */
+  inputsKey: string | null;
 };
 
 /** The verdicts and judged zones of a survey: frozen if signed off, else from its current aggregate. */
@@ -100,13 +106,13 @@ export async function surveyVerdicts(db: Db, survey: SurveyRow): Promise<SurveyV
   if (frozen) {
     return {
       rule: frozen.rule, zones: frozen.zones, unassignedPoints: frozen.unassignedPoints, hasDaylightReference: frozen.hasDaylightReference, warnings: frozen.warnings,
-      installation: frozen.installation ?? IN_SERVICE, frozen, aggregateId: frozen.aggregateId ?? null, coefficientSetReadings: null,
+      installation: frozen.installation ?? IN_SERVICE, frozen, aggregateId: frozen.aggregateId ?? null, coefficientSetReadings: null, inputsKey: null,
     };
   }
-  const { id, summary } = await currentAggregate(db, survey);
+  const { id, inputsKey, summary } = await currentAggregate(db, survey);
   return {
     rule: summary.rule, zones: summary.zones, unassignedPoints: summary.unassignedPoints, hasDaylightReference: summary.hasDaylightReference, warnings: summary.warnings,
-    installation: installationOf(survey), frozen: null, aggregateId: id, coefficientSetReadings: summary.coefficientSetReadings,
+    installation: installationOf(survey), frozen: null, aggregateId: id, coefficientSetReadings: summary.coefficientSetReadings, inputsKey,
   };
 }
 
@@ -157,28 +163,46 @@ export async function getCompliance(db: Db, user: SessionUser, surveyId: number)
   return { ...await complianceOf(db, survey), abilities: surveyAbilities(user, survey) };
 }
 
-/** One zone with its points (wall-band points shown, marked), statistics, target and source. */
-export async function getZoneDetail(db: Db, user: SessionUser, surveyId: number, zoneId: number): Promise<ZoneDetailResponse> {
+/**
+ * One zone with its points (wall-band points shown, marked), statistics, target and source. The
+ * points come packed from a compute thread and are kept per aggregate (answer-parts.ts); the
+ * photos and notes, which are no input of the verdicts, are read on every request.
+ */
+export async function getZoneDetail(db: Db, user: SessionUser, surveyId: number, zoneId: number): Promise<PackedAnswer<ZoneDetailResponse>> {
   const survey = getSurveyRow(db, user, surveyId);
-  const verdicts = await surveyVerdicts(db, survey);
-  const compliance = await complianceOf(db, survey, verdicts);
-  const zone = compliance.zones.find((z) => z.zoneId === zoneId);
-  const judged = verdicts.zones.find((z) => z.zoneId === zoneId);
-  if (!zone || !judged) throw notFound('Zone of this survey');
-  const members = zoneMembers(db, verdicts, judged);
-  const wallBand = new Set(members.wallBandReadingIds);
-  const pointReadings = loadReadingsById(db, survey.id, members.readingIds.concat(members.wallBandReadingIds, members.otherPlaneReadingIds));
-  const photos = photosOfZone(db, survey.id, zoneId, pointReadings.map((r) => r.point));
-  return {
-    surveyId: survey.id, rule: compliance.rule, ruleText: compliance.ruleText, gridRule: compliance.gridRule, frozen: compliance.frozen,
-    zone, polygon: judged.polygon,
-    points: pointReadings.filter((r) => r.xM !== null && r.yM !== null).map((r) => ({
-      readingId: r.id, point: r.point, xM: r.xM as number, yM: r.yM as number, timestamp: new Date(r.timeMs).toISOString(),
-      lux: r.lux, uLux: r.uLux, luxBound: r.luxBound, flag: r.flag, inWallBand: wallBand.has(r.id), plane: r.plane ?? 'horizontal', azimuthDeg: r.azimuthDeg ?? null,
-      ...(members.pointDf[r.id] !== undefined ? { dfPercent: members.pointDf[r.id] } : {}),
-    })),
-    photos, notes: notesOfZone(db, survey.id, zoneId), siteTimeZone: survey.site.timeZone,
-  };
+  for (let attempt = 0; ; attempt++) {
+    const verdicts = await surveyVerdicts(db, survey);
+    const compliance = await complianceOf(db, survey, verdicts);
+    const zone = compliance.zones.find((z) => z.zoneId === zoneId);
+    const judged = verdicts.zones.find((z) => z.zoneId === zoneId);
+    if (!zone || !judged) throw notFound('Zone of this survey');
+    const part = await zonePointsOf(db, survey.id, verdicts, judged);
+    // The aggregate was replaced while its points were read: ask again (as currentAggregate does).
+    if (!part) {
+      if (attempt >= 2) throw new Error(`The verdicts of survey ${survey.id} kept changing while zone ${zoneId} was read`);
+      continue;
+    }
+    return packedAnswer(part.points, {
+      surveyId: survey.id, rule: compliance.rule, ruleText: compliance.ruleText, gridRule: compliance.gridRule, frozen: compliance.frozen,
+      zone, polygon: judged.polygon,
+      photos: photosOfZone(db, survey.id, zoneId, (label) => hasPointLabel(part, label)), notes: notesOfZone(db, survey.id, zoneId), siteTimeZone: survey.site.timeZone,
+    });
+  }
+}
+
+/** A judged zone's packed points: kept for its aggregate, else built on a compute thread (null: that aggregate is gone). */
+async function zonePointsOf(db: Db, surveyId: number, v: SurveyVerdicts, zone: FrozenZone): Promise<ZonePointsPart | null> {
+  // Sign-offs frozen before version 2 name their readings inline: rare and old, built each time.
+  if (zone.readingIds || v.aggregateId === null) return runCompute(db, zonePointsTask, { surveyId, members: zoneMembers(db, v, zone) });
+  const inputsKey = v.inputsKey ?? aggregateInputsKey(db, v.aggregateId);
+  if (inputsKey === null) return null;
+  const cache = answerCache(db);
+  const part = `zone-points:${zone.zoneId}`;
+  const kept = cache.get<ZonePointsPart>(v.aggregateId, inputsKey, part);
+  if (kept) return kept;
+  const built = await runCompute(db, zonePointsTask, { surveyId, aggregateId: v.aggregateId, zoneId: zone.zoneId });
+  if (built) cache.set(v.aggregateId, inputsKey, part, built, packedBytes(built.points) + built.labels.length);
+  return built;
 }
 
 /** Each site the caller may see with its latest survey and that survey's verdict counts. */

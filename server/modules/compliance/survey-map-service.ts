@@ -1,16 +1,19 @@
-import { and, asc, eq, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { plans, zones } from '../../db/schema/plans';
-import { readings, surveys } from '../../db/schema/surveys';
+import { surveys } from '../../db/schema/surveys';
 import { sites } from '../../db/schema/sites';
 import { probes } from '../../db/schema/calibration';
 import type { SessionUser } from '@shared/schemas/auth';
-import type { MapReading, MapZoneSummary, SurveyMapResponse } from '@shared/schemas/plans';
-import { createZoneAssigner } from '@shared/spatial/zone-assignment';
+import type { MapZoneSummary, SurveyMapResponse } from '@shared/schemas/plans';
 import { notFound, unprocessable } from '../../http/errors';
 import { siteScope } from '../users/users-service';
 import { findVisiblePlan, planExtent } from '../plans/plans-service';
-import { currentAggregate } from './verdict-aggregates';
+import { currentAggregate, type Aggregate } from './verdict-aggregates';
+import { answerCache } from './answer-cache';
+import { mapReadingsTask, type MapReadingsPart } from './answer-parts';
+import { runCompute } from '../../compute/compute-pool';
+import { packedAnswer, packedBytes, type PackedAnswer } from '../../http/packed-json';
 
 function findVisibleSurvey(db: Db, user: SessionUser, surveyId: number) {
   const survey = db.select().from(surveys).where(and(eq(surveys.id, surveyId), eq(surveys.organizationId, user.organizationId))).get();
@@ -27,7 +30,7 @@ function findVisibleSurvey(db: Db, user: SessionUser, surveyId: number) {
  * drawn and `sampledFrom` says of how many. Positioned readings that name no plan are counted,
  * never guessed onto one.
  */
-export async function surveyMap(db: Db, user: SessionUser, surveyId: number, planId: number | undefined): Promise<SurveyMapResponse> {
+export async function surveyMap(db: Db, user: SessionUser, surveyId: number, planId: number | undefined): Promise<SurveyMapResponse | PackedAnswer<SurveyMapResponse>> {
   const survey = findVisibleSurvey(db, user, surveyId);
   let plan;
   if (planId !== undefined) {
@@ -39,36 +42,51 @@ export async function surveyMap(db: Db, user: SessionUser, surveyId: number, pla
   }
   const siteTimeZone = db.select({ timeZone: sites.timeZone }).from(sites).where(eq(sites.id, survey.siteId)).get()?.timeZone ?? 'UTC';
   const base = { surveyId, surveyName: survey.name, siteId: survey.siteId, siteTimeZone, planId: plan.id };
-  const { summary } = await currentAggregate(db, survey);
-  const { withoutPosition, withoutPlan } = summary.map;
-  const onThisPlan = summary.map.plans.find((p) => p.planId === plan.id) ?? { onPlan: 0, outsidePlan: 0, sampleIds: [] };
-  if (!planExtent(plan)) {
-    return { ...base, readings: [], zones: [], withoutPosition, withoutPlan, outsidePlan: onThisPlan.outsidePlan, sampledFrom: null, notice: 'Set the plan\'s scale to place the readings on it.' };
+  for (let attempt = 0; ; attempt++) {
+    const aggregate = await currentAggregate(db, survey);
+    const { summary } = aggregate;
+    const { withoutPosition, withoutPlan } = summary.map;
+    const onThisPlan = summary.map.plans.find((p) => p.planId === plan.id) ?? { onPlan: 0, outsidePlan: 0, sampleIds: [] };
+    if (!planExtent(plan)) {
+      return { ...base, readings: [], zones: [], withoutPosition, withoutPlan, outsidePlan: onThisPlan.outsidePlan, sampledFrom: null, notice: 'Set the plan\'s scale to place the readings on it.' };
+    }
+    const part = await mapReadingsOf(db, survey.id, aggregate, plan.id);
+    // The aggregate was replaced while its sample was read: ask again (as currentAggregate does).
+    if (!part) {
+      if (attempt >= 2) throw new Error(`The verdicts of survey ${survey.id} kept changing while its map was read`);
+      continue;
+    }
+    const zoneIds = db.select({ id: zones.id }).from(zones).where(eq(zones.planId, plan.id)).all();
+    const judged = new Map(summary.zones.map((z) => [z.zoneId, z]));
+    const summaries: MapZoneSummary[] = zoneIds.map((z) => {
+      const j = judged.get(z.id);
+      return { zoneId: z.id, points: j?.points ?? 0, wallBandPoints: j?.wallBandPoints ?? 0, eavg: j?.eavg ?? null, eavgBound: j ? j.bounds.eavg : 'indeterminate', uEavg: j?.uEavg ?? null };
+    });
+    return packedAnswer(part.readings, {
+      ...base, zones: summaries, withoutPosition, withoutPlan, outsidePlan: onThisPlan.outsidePlan,
+      sampledFrom: onThisPlan.onPlan > onThisPlan.sampleIds.length ? onThisPlan.onPlan : null, notice: null,
+    });
   }
-  const rows = onThisPlan.sampleIds.length === 0 ? [] : db.select({
-    id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, role: readings.role, lux: readings.lux, uLux: readings.uLux,
-    luxBound: readings.luxBound, flag: readings.flag, timeMs: readings.timeMs, gainCode: readings.gainCode, probe: probes.serial,
-  }).from(readings).innerJoin(probes, eq(probes.id, readings.probeId))
-    .where(and(eq(readings.surveyId, survey.id), sql`${readings.id} in (select value from json_each(${JSON.stringify(onThisPlan.sampleIds)}))`))
-    .orderBy(asc(readings.timeMs), asc(readings.id)).all();
+}
 
-  const zoneRows = db.select({ id: zones.id, kind: zones.kind, wallBandM: zones.wallBandM, polygon: zones.polygon }).from(zones).where(eq(zones.planId, plan.id)).all();
-  const assign = createZoneAssigner(zoneRows);
-  const mapReadings: MapReading[] = rows.map((r) => {
-    // Reference probes stand outdoors for daylight: they belong to no zone.
-    const a = r.role === 'task' ? assign([r.xM!, r.yM!]) : { zoneId: null, inWallBand: false };
-    return {
-      id: r.id, point: r.point, xM: r.xM!, yM: r.yM!, role: r.role, lux: r.lux, uLux: r.uLux, luxBound: r.luxBound, flag: r.flag,
-      timestamp: new Date(r.timeMs).toISOString(), probe: r.probe, gainCode: r.gainCode, zoneId: a.zoneId, inWallBand: a.inWallBand,
-    };
-  });
-  const judged = new Map(summary.zones.map((z) => [z.zoneId, z]));
-  const summaries: MapZoneSummary[] = zoneRows.map((z) => {
-    const j = judged.get(z.id);
-    return { zoneId: z.id, points: j?.points ?? 0, wallBandPoints: j?.wallBandPoints ?? 0, eavg: j?.eavg ?? null, eavgBound: j ? j.bounds.eavg : 'indeterminate', uEavg: j?.uEavg ?? null };
-  });
-  return {
-    ...base, readings: mapReadings, zones: summaries, withoutPosition, withoutPlan, outsidePlan: onThisPlan.outsidePlan,
-    sampledFrom: onThisPlan.onPlan > onThisPlan.sampleIds.length ? onThisPlan.onPlan : null, notice: null,
-  };
+/**
+ * A plan's packed readings for the aggregate: kept, else built on a compute thread (null: that
+ * aggregate is gone). Probe serials are no input of the verdicts, so a kept part whose probes were
+ * renamed since is built again.
+ */
+async function mapReadingsOf(db: Db, surveyId: number, aggregate: Aggregate, planId: number): Promise<MapReadingsPart | null> {
+  const cache = answerCache(db);
+  const part = `map-readings:${planId}`;
+  const kept = cache.get<MapReadingsPart>(aggregate.id, aggregate.inputsKey, part);
+  if (kept && serialsStill(db, kept.probes)) return kept;
+  const built = await runCompute(db, mapReadingsTask, { surveyId, aggregateId: aggregate.id, planId });
+  if (built) cache.set(aggregate.id, aggregate.inputsKey, part, built, packedBytes(built.readings));
+  else cache.forget(aggregate.id, aggregate.inputsKey, part);
+  return built;
+}
+
+function serialsStill(db: Db, kept: [number, string][]): boolean {
+  if (kept.length === 0) return true;
+  const now = new Map(db.select({ id: probes.id, serial: probes.serial }).from(probes).where(inArray(probes.id, kept.map(([id]) => id))).all().map((p) => [p.id, p.serial]));
+  return kept.every(([id, serial]) => now.get(id) === serial);
 }

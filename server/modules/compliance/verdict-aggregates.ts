@@ -15,6 +15,7 @@ import { fieldRecords, fieldSessions } from '../../db/schema/field';
 import { readings as readingsTable } from '../../db/schema/surveys';
 import { conditionNotes } from '../field/field-service';
 import { loadCurrentReadings, loadPlacementsOnPlannedPoints, loadPlannedGrids, loadSitePlans, placementKey, type PlanWithZones } from './compliance-repository';
+import { answerCache } from './answer-cache';
 import { judgeZones, worstFirst, type JudgedZone, type JudgeReading, type JudgeResult } from './judge-zones';
 import type { GridRounding } from '@shared/core/zone-stats';
 
@@ -54,7 +55,7 @@ export type MapAggregate = {
   withoutPlan: number;
   plans: { planId: number; onPlan: number; outsidePlan: number; sampleIds: number[] }[];
 };
-export type Aggregate = { id: number; summary: AggregateSummary };
+export type Aggregate = { id: number; inputsKey: string; summary: AggregateSummary };
 export type ZoneMembers = { readingIds: number[]; wallBandReadingIds: number[]; otherPlaneReadingIds: number[]; pointDf: Record<string, number> };
 
 type SurveyInputs = Pick<SurveyRow, 'id' | 'organizationId' | 'siteId' | 'activeDecodeId' | 'conditions' | 'installation' | 'maintenanceFactor' | 'mfParts' | 'gridRounding'>;
@@ -165,10 +166,26 @@ function mapAggregate(all: JudgeReading[], extents: PlanExtentRow[]): MapAggrega
 const ids = (xs: number[]) => Buffer.from(Float64Array.from(xs).buffer);
 const fromIds = (b: Buffer) => Array.from(new Float64Array(b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength)));
 
+function aggregateIdOf(db: Db, surveyId: number, key: string): number | null {
+  return db.select({ id: verdictAggregates.id }).from(verdictAggregates).where(and(eq(verdictAggregates.surveyId, surveyId), eq(verdictAggregates.inputsKey, key))).get()?.id ?? null;
+}
+
+/**
+ * The aggregate of these inputs (or of this id), its summary parsed once and kept (answer-cache.ts):
+ * a 40-zone summary is about 130 KB of JSON, read on every verdicts, zone and map request.
+ */
 function findAggregate(db: Db, where: { id: number } | { surveyId: number; key: string }): Aggregate | null {
-  const row = db.select({ id: verdictAggregates.id, summary: verdictAggregates.summary }).from(verdictAggregates)
+  const row = db.select({ id: verdictAggregates.id, inputsKey: verdictAggregates.inputsKey, bytes: sql<number>`length(${verdictAggregates.summary})` }).from(verdictAggregates)
     .where('id' in where ? eq(verdictAggregates.id, where.id) : and(eq(verdictAggregates.surveyId, where.surveyId), eq(verdictAggregates.inputsKey, where.key))).get();
-  return row ? { id: row.id, summary: row.summary as AggregateSummary } : null;
+  if (!row) return null;
+  const cache = answerCache(db);
+  const kept = cache.get<AggregateSummary>(row.id, row.inputsKey, 'summary');
+  if (kept) return { id: row.id, inputsKey: row.inputsKey, summary: kept };
+  const summary = db.select({ summary: verdictAggregates.summary }).from(verdictAggregates).where(eq(verdictAggregates.id, row.id)).get()?.summary as AggregateSummary | undefined;
+  if (!summary) return null;
+  // Parsed JSON takes about three times its text.
+  cache.set(row.id, row.inputsKey, 'summary', summary, row.bytes * 3);
+  return { id: row.id, inputsKey: row.inputsKey, summary };
 }
 
 /**
@@ -180,8 +197,8 @@ function computeAggregate(db: Db, input: { surveyId: number; now: number }): num
     const survey = db.select().from(surveys).where(eq(surveys.id, input.surveyId)).get();
     if (!survey) throw new Error(`Survey ${input.surveyId} does not exist`);
     const inputs = verdictInputs(db, survey);
-    const existing = findAggregate(db, { surveyId: survey.id, key: inputs.key });
-    if (existing) return { existing: existing.id, survey: null } as const;
+    const existing = aggregateIdOf(db, survey.id, inputs.key);
+    if (existing !== null) return { existing, survey: null } as const;
     const readings = loadCurrentReadings(db, survey);
     // Readings placed by hand on a planned point count for that point (judge-zones.ts).
     const onPlanned = loadPlacementsOnPlannedPoints(db, survey.id);
@@ -203,8 +220,8 @@ function computeAggregate(db: Db, input: { surveyId: number; now: number }): num
     coefficientSetReadings: [...perSet.entries()].sort((a, b) => a[0] - b[0]),
   };
   return db.$client.transaction(() => {
-    const found = findAggregate(db, { surveyId: survey.id, key: inputs.key });
-    if (found) return found.id;
+    const found = aggregateIdOf(db, survey.id, inputs.key);
+    if (found !== null) return found;
     const stale = db.select({ id: verdictAggregates.id }).from(verdictAggregates).where(and(eq(verdictAggregates.surveyId, survey.id), eq(verdictAggregates.frozen, false))).all();
     for (const s of stale) {
       db.delete(verdictAggregateZones).where(eq(verdictAggregateZones.aggregateId, s.id)).run();
@@ -226,15 +243,31 @@ export const verdictAggregateTask = computeTask('verdict-aggregate', computeAggr
 export async function currentAggregate(db: Db, survey: SurveyInputs, now = Date.now()): Promise<Aggregate> {
   for (let attempt = 0; ; attempt++) {
     const found = findAggregate(db, { surveyId: survey.id, key: verdictInputs(db, survey).key });
-    if (found) return found;
+    if (found) return keptAsLive(db, survey.id, found);
     const id = await runCompute(db, verdictAggregateTask, { surveyId: survey.id, now });
     // The inputs changed while it ran: the newer aggregate is the answer; if it was already replaced, compute again.
     const computed = findAggregate(db, { id });
     if (computed || attempt >= 2) {
       if (!computed) throw new Error(`The verdicts of survey ${survey.id} kept changing while they were computed`);
-      return computed;
+      return keptAsLive(db, survey.id, computed);
     }
   }
+}
+
+/** Each survey's live aggregate as last answered on this connection, so what was kept for the one it replaced is dropped. */
+const liveAggregates = new WeakMap<object, Map<number, number>>();
+function keptAsLive(db: Db, surveyId: number, aggregate: Aggregate): Aggregate {
+  let live = liveAggregates.get(db.$client);
+  if (!live) liveAggregates.set(db.$client, (live = new Map()));
+  const before = live.get(surveyId);
+  if (before !== undefined && before !== aggregate.id) answerCache(db).forgetAggregate(before);
+  live.set(surveyId, aggregate.id);
+  return aggregate;
+}
+
+/** An aggregate's inputs key (a frozen one's names what its kept parts belong to); null once it is gone. */
+export function aggregateInputsKey(db: Db, aggregateId: number): string | null {
+  return db.select({ key: verdictAggregates.inputsKey }).from(verdictAggregates).where(eq(verdictAggregates.id, aggregateId)).get()?.key ?? null;
 }
 
 /** Keeps an aggregate for good (a sign-off froze it); call inside the sign-off's transaction. */

@@ -346,12 +346,14 @@ export function presentPhoto(p: typeof fieldPhotos.$inferSelect): FieldPhoto {
 }
 
 /** The survey's photos of a zone: those taken in it, and those of a point whose label one of its readings carries. */
-export function photosOfZone(db: Db, surveyId: number, zoneId: number, pointLabels: readonly string[]): FieldPhoto[] {
-  const labels = new Set(pointLabels.map((l) => l.trim().toLowerCase()));
+export function photosOfZone(db: Db, surveyId: number, zoneId: number, isZonePoint: (label: string) => boolean): FieldPhoto[] {
   return db.select().from(fieldPhotos).where(eq(fieldPhotos.surveyId, surveyId)).orderBy(asc(fieldPhotos.takenAt), asc(fieldPhotos.id)).all()
-    .filter((p) => p.zoneId === zoneId || (p.zoneId === null && p.point !== null && labels.has(p.point.trim().toLowerCase())))
+    .filter((p) => p.zoneId === zoneId || (p.zoneId === null && p.point !== null && isZonePoint(p.point)))
     .map(presentPhoto);
 }
+
+/** How a photo's point label is compared with readings' labels (spaces around and case ignored). */
+export const photoPointKey = (label: string) => label.trim().toLowerCase();
 
 /** The survey's notes written on a zone in the field view, oldest first. */
 export function notesOfZone(db: Db, surveyId: number, zoneId: number): ZoneNote[] {

@@ -1,4 +1,4 @@
-import { and, asc, eq, isNull, or } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNull, or } from 'drizzle-orm';
 import type { Deps } from '../../deps';
 import type { Db } from '../../db/client';
 import { targets } from '../../db/schema/targets';
@@ -123,12 +123,27 @@ export function getOrganizationZone(db: Db, organizationId: number, zoneId: numb
  * organisation's own entry for its use type, else the shipped one; undefined when none exists.
  */
 export function resolveZoneTarget(db: Db, organizationId: number, zone: { useType: string; targetId: number | null }): TargetRow | undefined {
-  if (zone.targetId !== null) {
-    const chosen = getVisibleTarget(db, organizationId, zone.targetId);
+  return resolveZoneTargets(db, organizationId, [zone])[0];
+}
+
+/**
+ * resolveZoneTarget for many zones with one query (the verdicts' inputs resolve every zone of a
+ * site on each request): the entries visible to the organisation that any of the zones could take.
+ */
+export function resolveZoneTargets(db: Db, organizationId: number, zoneList: readonly { useType: string; targetId: number | null }[]): (TargetRow | undefined)[] {
+  if (zoneList.length === 0) return [];
+  const useTypes = [...new Set(zoneList.map((z) => z.useType))];
+  const chosenIds = [...new Set(zoneList.flatMap((z) => (z.targetId === null ? [] : [z.targetId])))];
+  const visible = db.select().from(targets)
+    .where(and(visibleTo(organizationId), chosenIds.length ? or(inArray(targets.useType, useTypes), inArray(targets.id, chosenIds)) : inArray(targets.useType, useTypes)))
+    .orderBy(asc(targets.id)).all();
+  const byId = new Map(visible.map((t) => [t.id, t]));
+  return zoneList.map((zone) => {
+    const chosen = zone.targetId === null ? undefined : byId.get(zone.targetId);
     if (chosen) return chosen;
-  }
-  const candidates = db.select().from(targets).where(and(eq(targets.useType, zone.useType), visibleTo(organizationId))).orderBy(asc(targets.id)).all();
-  return candidates.find((t) => t.organizationId === organizationId) ?? candidates.find((t) => t.organizationId === null);
+    const candidates = visible.filter((t) => t.useType === zone.useType);
+    return candidates.find((t) => t.organizationId === organizationId) ?? candidates.find((t) => t.organizationId === null);
+  });
 }
 
 /** The value a zone is judged against (EN 12464-1:2021 required / modified, shared/core designValue). */
