@@ -3,6 +3,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { describe, it, expect, beforeAll, afterAll, vi } from 'vitest';
 import { IMPORT_THREADS_IDLE_MS, importThreadsAlive } from '../../server/modules/imports/import-runner';
+import { closeComputePools, computeQueue } from '../../server/compute/compute-pool';
 import { type TestApp, type TestClient } from './helpers';
 import { keptSamples, newDraftSurvey, tableCounts, testWalkCsv, TEST_SERIALS, uploadAndWait, appWithTestProbes } from './support/factories';
 
@@ -13,7 +14,8 @@ let c: TestClient;
 beforeAll(async () => {
   ({ t, c } = await appWithTestProbes({ databaseUrl: path.join(dir, 'writer.db'), dataDir: path.join(dir, 'data') }));
 }, 60_000);
-afterAll(() => {
+afterAll(async () => {
+  await closeComputePools();
   t.db.$client.close();
   fs.rmSync(dir, { recursive: true, force: true });
 });
@@ -56,4 +58,14 @@ describe('log import with a database file (writer thread)', () => {
     expect(second.status).toMatchObject({ status: 'done', errors: [] });
     expect(second.status.readings).toBe(first.status.readings);
   }, IMPORT_THREADS_IDLE_MS + 30_000);
+
+  it('verdicts, of a survey in a database file, are judged on a compute pool thread (as the server runs them, not inline) and answer its judged zones', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    expect((await uploadAndWait(t, c, surveyId, testWalkCsv(Date.parse('2026-11-24T09:00:00Z'), 4))).status.status).toBe('done');
+    const res = await c.get(`/api/surveys/${surveyId}/compliance`);
+    expect(res.status).toBe(200);
+    expect(computeQueue().threads).toBeGreaterThan(0);
+    expect(res.body.zones.length).toBeGreaterThan(0);
+    expect(res.body.zones.reduce((n: number, z: { points: number }) => n + z.points, 0)).toBeGreaterThan(0);
+  }, 60_000);
 });
