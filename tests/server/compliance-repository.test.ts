@@ -1,7 +1,7 @@
 import { and, asc, eq } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 import { readings, surveys } from '../../server/db/schema/surveys';
-import { loadCurrentReadings, loadReadingPointGroups } from '../../server/modules/compliance/compliance-repository';
+import { loadCurrentReadings, loadReadingPointGroups, loadReadingsById } from '../../server/modules/compliance/compliance-repository';
 import { toCoreReading } from '../../server/modules/compliance/judge-zones';
 import { decodeBudget } from '../../server/modules/readings/stored-budget';
 import { currentReadingConditions } from '../../server/modules/surveys/surveys-service';
@@ -9,7 +9,7 @@ import { combineBudget } from '@shared/core/uncertainty';
 import { appWithTestProbes, newDraftSurvey, testWalkCsv, uploadAndWait } from './support/factories';
 
 describe('reading loaders of the verdicts and the report', () => {
-  it('loadCurrentReadings, of an imported walk, gives each current reading with every column as stored (budget parsed), one shared budget per stored text', async () => {
+  it('loadCurrentReadings and loadReadingsById, of an imported walk, give each current reading with every column as stored (budget parsed), one shared budget per stored text', async () => {
     const { t, c } = await appWithTestProbes();
     const surveyId = await newDraftSurvey(t, c);
     expect((await uploadAndWait(t, c, surveyId, testWalkCsv(Date.parse('2026-11-21T09:00:00Z'), 3))).status.status).toBe('done');
@@ -23,6 +23,9 @@ describe('reading loaders of the verdicts and the report', () => {
     }).from(readings).where(and(...currentReadingConditions(survey))).orderBy(asc(readings.timeMs), asc(readings.id)).all();
     expect(loaded.length).toBeGreaterThan(20);
     expect(loaded).toEqual(plain);
+    // By id (a zone's detail, frozen sign-offs): the same readings, in time order whatever the ids' order.
+    const some = plain.filter((_, i) => i % 3 === 0);
+    expect(loadReadingsById(t.db, surveyId, some.map((r) => r.id).reverse())).toEqual(some);
     // Readings with the same stored budget share one object, and judging reads it as the budget's own parts.
     const stored = t.db.select({ id: readings.id, budget: readings.budget }).from(readings).where(eq(readings.surveyId, surveyId)).all();
     const textOf = new Map(stored.map((r) => [r.id, JSON.stringify(r.budget)]));

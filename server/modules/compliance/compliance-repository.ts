@@ -51,7 +51,8 @@ function sameTexts() {
 
 /** The same columns, in this order, with the budget as its stored text (parsed once per distinct text, below). */
 const judgeColumns = { ...readingColumns, budget: sql<string | null>`${readings.budget}` };
-const JUDGE_KEYS = Object.keys(judgeColumns) as (keyof typeof judgeColumns)[];
+/** Each column's place in a raw row. */
+const AT = Object.fromEntries(Object.keys(judgeColumns).map((k, i) => [k, i])) as Record<keyof typeof judgeColumns, number>;
 
 /**
  * The survey's current readings (active decode, accepted imports), in time order.
@@ -62,7 +63,20 @@ const JUDGE_KEYS = Object.keys(judgeColumns) as (keyof typeof judgeColumns)[];
  */
 export function loadCurrentReadings(db: Db, survey: Pick<SurveyRow, 'id' | 'activeDecodeId'>): JudgeReading[] {
   if (survey.activeDecodeId === null) return [];
-  const query = db.select(judgeColumns).from(readings).where(and(...currentReadingConditions(survey))).orderBy(asc(readings.timeMs), asc(readings.id)).toSQL();
+  return judgeReadingsOf(db, db.select(judgeColumns).from(readings).where(and(...currentReadingConditions(survey))).orderBy(asc(readings.timeMs), asc(readings.id)).toSQL());
+}
+
+/** Readings by id within one survey (a frozen sign-off names the readings it judged; a zone's detail), in time order, kept small as above. */
+export function loadReadingsById(db: Db, surveyId: number, ids: number[]): JudgeReading[] {
+  if (ids.length === 0) return [];
+  // One statement for any number of ids: they travel as one JSON parameter (SQLite's json_each).
+  return judgeReadingsOf(db, db.select(judgeColumns).from(readings)
+    .where(and(eq(readings.surveyId, surveyId), sql`${readings.id} in (select value from json_each(${JSON.stringify(ids)}))`))
+    .orderBy(asc(readings.timeMs), asc(readings.id)).toSQL());
+}
+
+/** Runs a select of judgeColumns row by row into small JudgeReadings (shared texts and parsed budgets). */
+function judgeReadingsOf(db: Db, query: { sql: string; params: unknown[] }): JudgeReading[] {
   const same = sameTexts();
   const budgets = new Map<string, unknown>();
   const budgetOf = (stored: string | null) => {
@@ -72,27 +86,17 @@ export function loadCurrentReadings(db: Db, survey: Pick<SurveyRow, 'id' | 'acti
     return parsed;
   };
   const out: JudgeReading[] = [];
-  const at = Object.fromEntries(JUDGE_KEYS.map((k, i) => [k, i])) as Record<keyof typeof judgeColumns, number>;
   for (const row of db.$client.prepare(query.sql).raw().iterate(...query.params) as IterableIterator<unknown[]>) {
     out.push({
-      id: row[at.id] as number, point: row[at.point] as string, xM: row[at.xM] as number | null, yM: row[at.yM] as number | null, planId: row[at.planId] as number | null,
-      role: same(row[at.role] as string) as JudgeReading['role'], timeMs: row[at.timeMs] as number, probeId: row[at.probeId] as number,
-      lux: row[at.lux] as number | null, uLux: row[at.uLux] as number | null, luxBound: same(row[at.luxBound] as string) as JudgeReading['luxBound'],
-      flag: same(row[at.flag] as string) as JudgeReading['flag'], budget: budgetOf(row[at.budget] as string | null), coefficientSetId: row[at.coefficientSetId] as number | null,
-      plane: same(row[at.plane] as string) as JudgeReading['plane'], azimuthDeg: row[at.azimuthDeg] as number | null,
-      excludedReason: row[at.excludedReason] as string | null, note: row[at.note] as string | null,
+      id: row[AT.id] as number, point: row[AT.point] as string, xM: row[AT.xM] as number | null, yM: row[AT.yM] as number | null, planId: row[AT.planId] as number | null,
+      role: same(row[AT.role] as string) as JudgeReading['role'], timeMs: row[AT.timeMs] as number, probeId: row[AT.probeId] as number,
+      lux: row[AT.lux] as number | null, uLux: row[AT.uLux] as number | null, luxBound: same(row[AT.luxBound] as string) as JudgeReading['luxBound'],
+      flag: same(row[AT.flag] as string) as JudgeReading['flag'], budget: budgetOf(row[AT.budget] as string | null), coefficientSetId: row[AT.coefficientSetId] as number | null,
+      plane: same(row[AT.plane] as string) as JudgeReading['plane'], azimuthDeg: row[AT.azimuthDeg] as number | null,
+      excludedReason: row[AT.excludedReason] as string | null, note: row[AT.note] as string | null,
     });
   }
   return out;
-}
-
-/** Readings by id within one survey (a frozen sign-off names the readings it judged), in time order. */
-export function loadReadingsById(db: Db, surveyId: number, ids: number[]): JudgeReading[] {
-  if (ids.length === 0) return [];
-  // One statement for any number of ids: they travel as one JSON parameter (SQLite's json_each).
-  return db.select(readingColumns).from(readings)
-    .where(and(eq(readings.surveyId, surveyId), sql`${readings.id} in (select value from json_each(${JSON.stringify(ids)}))`))
-    .orderBy(asc(readings.timeMs), asc(readings.id)).all();
 }
 
 /** What the report draws and dates of a reading (and the field conditions' notes read): no budget or probe. */
