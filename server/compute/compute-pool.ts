@@ -17,11 +17,16 @@ import type { Db } from '../db/client';
  */
 /** Reports how far a task has got, 0 to 1. */
 export type Progress = (fraction: number) => void;
-export type ComputeTask<I = never, O = unknown> = { name: string; run: (db: Db, input: I, progress: Progress) => O | Promise<O> };
+/**
+ * `wholeSurvey`: the task holds every reading of a survey at once (judging, the PDF). Such tasks run
+ * on a thread of their own, one at a time: so two large heaps are never built together, and a PDF
+ * never waits behind a queue of page reads (which run on the other thread).
+ */
+export type ComputeTask<I = never, O = unknown> = { name: string; run: (db: Db, input: I, progress: Progress) => O | Promise<O>; wholeSurvey?: boolean };
 
 /** A named task (a plain value: declaring it in server/modules.ts is what lets the pool threads run it). */
-export function computeTask<I, O>(name: string, run: (db: Db, input: I, progress: Progress) => O | Promise<O>): ComputeTask<I, O> {
-  return { name, run };
+export function computeTask<I, O>(name: string, run: (db: Db, input: I, progress: Progress) => O | Promise<O>, options: { wholeSurvey?: boolean } = {}): ComputeTask<I, O> {
+  return { name, run, ...(options.wholeSurvey ? { wholeSurvey: true } : {}) };
 }
 
 /** Set on a pool thread: tasks called from a task run there, inline. */
@@ -30,7 +35,9 @@ export function runTasksInline() { inline = true; }
 
 /**
  * Two threads: the machine this runs on has two cores, and a PDF being built should not hold up
- * verdicts being recomputed. Young generation as in the import threads: their objects die young.
+ * the readings pages. One thread takes the whole-survey tasks, one at a time (each holds a large
+ * survey's readings); the others (COMPUTE_THREADS - 1, at least one) take the rest.
+ * Young generation as in the import threads: their objects die young.
  * A thread ends after POOL_IDLE_MS without work: after a large survey its heap holds hundreds of MB
  * that an idle server should give back, and a new thread starts in well under a second.
  */
@@ -65,18 +72,19 @@ function workerFile(): Promise<string> {
   return bundle;
 }
 
-async function poolFor(databasePath: string): Promise<Piscina> {
+async function poolFor(databasePath: string, wholeSurvey: boolean): Promise<Piscina> {
   const file = await workerFile();
-  let pool = pools.get(databasePath);
+  const key = `${databasePath}\u0000${wholeSurvey ? 'whole-survey' : 'other'}`;
+  let pool = pools.get(key);
   if (!pool) {
     const { Piscina: Pool } = await import('piscina');
-    pool = pools.get(databasePath);
+    pool = pools.get(key);
     if (pool) return pool;
     pool = new Pool({
-      filename: file, minThreads: 0, maxThreads: POOL_THREADS, idleTimeout: POOL_IDLE_MS, workerData: { databasePath },
+      filename: file, minThreads: 0, maxThreads: wholeSurvey ? 1 : Math.max(1, POOL_THREADS - 1), idleTimeout: POOL_IDLE_MS, workerData: { databasePath },
       execArgv: [], resourceLimits: { maxYoungGenerationSizeMb: 32 },
     });
-    pools.set(databasePath, pool);
+    pools.set(key, pool);
   }
   return pool;
 }
@@ -94,7 +102,7 @@ export function runCompute<I, O>(db: Db, task: ComputeTask<I, O>, input: I, onPr
   const progress = onProgress ?? (() => undefined);
   const run = (async () => {
     if (client.memory || inline) return await task.run(db, input, progress);
-    const pool = await poolFor(client.name);
+    const pool = await poolFor(client.name, task.wholeSurvey ?? false);
     const channel = new MessageChannel();
     channel.port1.on('message', (f: number) => progress(f));
     try {

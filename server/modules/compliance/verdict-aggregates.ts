@@ -237,7 +237,7 @@ function computeAggregate(db: Db, input: { surveyId: number; now: number }): num
 }
 
 /** Declared in server/modules.ts (compliance), so the pool threads can run it. */
-export const verdictAggregateTask = computeTask('verdict-aggregate', computeAggregate);
+export const verdictAggregateTask = computeTask('verdict-aggregate', computeAggregate, { wholeSurvey: true });
 
 /** The survey's aggregate for its current inputs: kept, or computed now off the request's thread. */
 export async function currentAggregate(db: Db, survey: SurveyInputs, now = Date.now()): Promise<Aggregate> {

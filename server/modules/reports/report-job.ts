@@ -38,7 +38,7 @@ async function buildReportPdf(db: Db, input: ReportPdfInput, progress: (f: numbe
 }
 
 /** Declared in server/modules.ts (reports), so the pool threads can run it. */
-export const reportPdfTask = computeTask('report-pdf', buildReportPdf);
+export const reportPdfTask = computeTask('report-pdf', buildReportPdf, { wholeSurvey: true });
 
 /** The PDF report of a survey (frozen verdicts once signed off), built off the request's thread. */
 export async function surveyReportPdf(deps: Deps, survey: SurveyRow, unit: ReportUnit = 'lx', onProgress?: (f: number) => void): Promise<FileAnswer> {
