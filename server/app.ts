@@ -74,6 +74,7 @@ export function createApp(deps: Deps, options: AppOptions = {}) {
   app.use('/api', sameOriginOnly([deps.config.publicUrl]));
 
   for (const m of SERVER_MODULES) m.routes?.(api, deps);
+  for (const m of SERVER_MODULES) for (const w of m.queueWork ?? []) deps.jobs.work(w.name, (data) => w.run(deps, data));
 
   const openApi = api.openApiDocument();
   app.get('/api/openapi.json', (_req, res) => { res.json(openApi); });

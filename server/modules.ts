@@ -4,6 +4,7 @@ import type { SeedContext } from './db/seed-context';
 import type { ComputeTask } from './compute/compute-pool';
 import { verdictAggregateTask } from './modules/compliance/verdict-aggregates';
 import { mapReadingsTask, zonePointsTask } from './modules/compliance/answer-parts';
+import { WARM_VERDICTS_JOB, warmVerdicts } from './modules/compliance/warm-verdicts';
 import { reportPdfTask } from './modules/reports/report-job';
 import { readingSeriesTask, readingsPageTask } from './modules/readings/readings-service';
 import { pageMarksTask } from './modules/readings/reading-page-marks';
@@ -57,6 +58,8 @@ export type ServerModule = {
   seed?: SeedStep;
   /** Heavy work the compute pool's threads may run for this module (server/compute/compute-pool.ts). */
   computeTasks?: ComputeTask[];
+  /** Handlers of the durable job queue's jobs this module sends (server/lib/job-queue.ts), registered by app.ts. */
+  queueWork?: { name: string; run: (deps: Deps, data: unknown) => Promise<void> | void }[];
 };
 
 const DAY_MS = 24 * 3600_000;
@@ -90,7 +93,7 @@ export const SERVER_MODULES: ServerModule[] = [
   { name: 'targets', routes: registerTargetRoutes },
   { name: 'organization', routes: registerOrganizationRoutes },
   // The target library and the sign-off of the earlier walk-through.
-  { name: 'compliance', routes: registerComplianceRoutes, seed: seedCompliance, computeTasks: [verdictAggregateTask, zonePointsTask, mapReadingsTask] },
+  { name: 'compliance', routes: registerComplianceRoutes, seed: seedCompliance, computeTasks: [verdictAggregateTask, zonePointsTask, mapReadingsTask], queueWork: [{ name: WARM_VERDICTS_JOB, run: warmVerdicts }] },
   { name: 'workflow', routes: registerWorkflowRoutes },
   { name: 'reports', routes: registerReportRoutes, computeTasks: [reportPdfTask] },
   // The field view: records synced from the phone (typed readings join the survey's readings).

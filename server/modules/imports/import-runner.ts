@@ -9,6 +9,7 @@ import { plannedPoints } from '../../db/schema/grids';
 import { loadDecodingCalibration } from '../probes/probe-calibration';
 import { recordAudit } from '../audit/audit-service';
 import type { WorkerToMain } from './log-parser';
+import { queueWarmVerdicts } from '../compliance/warm-verdicts';
 import { boundImportRecord, type ImportProblem, type ImportWarning } from './import-record';
 import { createBatchWriter } from './batch-writer';
 import type { WriterControl, WriterData } from './import-writer';
@@ -250,6 +251,7 @@ async function runImport(deps: Deps, job: ImportJob): Promise<ImportOutcome> {
     tx.update(logImports).set({ status: 'done', progress: 1, rowsRead: end.rowsRead, readingCount: end.readingCount, placement: end.placement, warnings, errors: [], finishedAt: now })
       .where(eq(logImports.id, job.importId)).run();
     keepReadingCount(tx, decodeId, job.importId, end.readingCount);
+    queueWarmVerdicts(tx, deps.jobs, job.surveyId);
     recordAudit(tx, {
       organizationId: job.organizationId, actorId: job.actorId, entityType: 'log_import', entityId: job.importId, surveyId: job.surveyId, action: 'imported',
       after: { rows: end.rowsRead, readings: end.readingCount, decodeId, placement: end.placement, warnings: end.warningCount }, at: now,

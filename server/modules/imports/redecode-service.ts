@@ -17,6 +17,7 @@ import { createBatchWriter } from './batch-writer';
 import { applyPlacements } from '../placements/placements-service';
 import { carryFieldReadings } from '../field/field-service';
 import { keepReadingCount } from '../surveys/reading-counts';
+import { queueWarmVerdicts } from '../compliance/warm-verdicts';
 
 /**
  * Re-decodes every kept sample of a survey's accepted imports with the approved coefficient sets
@@ -78,6 +79,7 @@ export async function redecodeSurvey(deps: Deps, actor: SessionUser, surveyId: n
       applyPlacements(tx, survey.id, decode.id);
       tx.update(surveys).set({ activeDecodeId: decode.id }).where(eq(surveys.id, survey.id)).run();
       for (const [importId, n] of perImport) keepReadingCount(tx, decode.id, importId, n);
+      queueWarmVerdicts(tx, deps.jobs, survey.id);
       recordAudit(tx, {
         organizationId: actor.organizationId, actorId: actor.id, entityType: 'survey', entityId: survey.id, surveyId: survey.id, action: 'redecoded',
         before: { decodeId: survey.activeDecodeId }, after: { decodeId: decode.id, readings: count, calibrationLapsed: lapsed }, at: now,

@@ -1,0 +1,42 @@
+import { describe, it, expect } from 'vitest';
+import { eq } from 'drizzle-orm';
+import { jobs } from '@server/db/schema/jobs';
+import { verdictAggregates } from '@server/db/schema/aggregates';
+import { surveys } from '@server/db/schema/surveys';
+import { verdictInputs } from '@server/modules/compliance/verdict-aggregates';
+import { WARM_VERDICTS_JOB } from '@server/modules/compliance/warm-verdicts';
+import { DEMO_START } from './helpers';
+import { appWithTestProbes, newDraftSurvey, testWalkCsv, uploadAndWait } from './support/factories';
+
+// Judging a large survey takes seconds, so an accepted import queues its verdicts (in the same
+// transaction) and the job runner computes them before anyone asks: the first reader finds them kept.
+describe('verdicts computed ahead after an import', () => {
+  it('an accepted import queues the job; running it keeps the aggregate the verdicts page then reads', async () => {
+    const { t, c } = await appWithTestProbes();
+    const surveyId = await newDraftSurvey(t, c);
+    const { status } = await uploadAndWait(t, c, surveyId, testWalkCsv(DEMO_START));
+    expect(status.status).toBe('done');
+    const ofSurvey = () => t.db.select().from(jobs).where(eq(jobs.name, WARM_VERDICTS_JOB)).all().filter((j) => (j.data as { surveyId: number }).surveyId === surveyId);
+    expect(ofSurvey().map((j) => j.data)).toEqual([{ surveyId }]);
+    expect(t.db.select().from(verdictAggregates).where(eq(verdictAggregates.surveyId, surveyId)).all()).toEqual([]);
+
+    await t.deliverMail();
+    const survey = t.db.select().from(surveys).where(eq(surveys.id, surveyId)).get()!;
+    const kept = t.db.select().from(verdictAggregates).where(eq(verdictAggregates.surveyId, surveyId)).all();
+    expect(kept.map((a) => a.inputsKey)).toEqual([verdictInputs(t.db, survey).key]);
+    expect(ofSurvey().map((j) => j.status)).toEqual(['done']);
+
+    // The verdicts page reads the kept aggregate: no second one is computed.
+    const res = await c.get(`/api/surveys/${surveyId}/compliance`);
+    expect(res.status).toBe(200);
+    expect(t.db.select().from(verdictAggregates).where(eq(verdictAggregates.surveyId, surveyId)).all().map((a) => a.id)).toEqual(kept.map((a) => a.id));
+  });
+
+  it('a rejected import queues nothing', async () => {
+    const { t, c } = await appWithTestProbes();
+    const surveyId = await newDraftSurvey(t, c);
+    const { status } = await uploadAndWait(t, c, surveyId, 'not,a,log\n1,2,3\n');
+    expect(status?.status ?? 'refused').not.toBe('done');
+    expect(t.db.select().from(jobs).where(eq(jobs.name, WARM_VERDICTS_JOB)).all().filter((j) => (j.data as { surveyId: number }).surveyId === surveyId)).toEqual([]);
+  });
+});
