@@ -24,6 +24,9 @@ export type AppOptions = {
 };
 
 /** Builds the Express app from its dependencies without listening (supertest drives it in-process). */
+/** Job queues whose modules' handlers are registered (server/modules.ts queueWork). */
+const queuesWithWork = new WeakSet<Deps['jobs']>();
+
 export function createApp(deps: Deps, options: AppOptions = {}) {
   const app = express();
   // X-Forwarded-For is believed only from the proxies TRUST_PROXY names (none by default).
@@ -74,7 +77,11 @@ export function createApp(deps: Deps, options: AppOptions = {}) {
   app.use('/api', sameOriginOnly([deps.config.publicUrl]));
 
   for (const m of SERVER_MODULES) m.routes?.(api, deps);
-  for (const m of SERVER_MODULES) for (const w of m.queueWork ?? []) deps.jobs.work(w.name, (data) => w.run(deps, data));
+  // Once per job queue: a second app on the same deps (a restarted server in tests) shares its handlers.
+  if (!queuesWithWork.has(deps.jobs)) {
+    queuesWithWork.add(deps.jobs);
+    for (const m of SERVER_MODULES) for (const w of m.queueWork ?? []) deps.jobs.work(w.name, (data) => w.run(deps, data));
+  }
 
   const openApi = api.openApiDocument();
   app.get('/api/openapi.json', (_req, res) => { res.json(openApi); });
