@@ -5,7 +5,7 @@ import { readings } from '../../db/schema/surveys';
 import { coefficientSets, probes } from '../../db/schema/calibration';
 import type { SurveyRow } from '../surveys/surveys-service';
 import { currentReadingConditions } from '../surveys/surveys-service';
-import { resolveZoneTargets } from '../targets/targets-service';
+import { resolveZoneTargets, type TargetRow } from '../targets/targets-service';
 import type { JudgePlannedGrid, JudgeReading, JudgeSurfacePoint, JudgeZone } from './judge-zones';
 import { plannedPoints, readingPlacements, surveyGrids } from '../../db/schema/grids';
 import { gridDiffersFromGenerated } from '@shared/spatial/measurement-grid';
@@ -17,7 +17,12 @@ export function loadSitePlans(db: Db, organizationId: number, siteId: number): P
   const planRows = db.select().from(plans).where(eq(plans.siteId, siteId)).orderBy(asc(plans.id)).all();
   if (planRows.length === 0) return [];
   const zoneRows = db.select().from(zones).where(inArray(zones.planId, planRows.map((p) => p.id))).orderBy(asc(zones.id)).all();
-  const resolved = new Map(resolveZoneTargets(db, organizationId, zoneRows).map((t, i) => [zoneRows[i].id, t]));
+  return sitePlansOf(planRows, zoneRows, resolveZoneTargets(db, organizationId, zoneRows));
+}
+
+/** Plans with their zones (rows in id order) and each zone's resolved target (in the zones' order). */
+export function sitePlansOf(planRows: readonly (typeof plans.$inferSelect)[], zoneRows: readonly (typeof zones.$inferSelect)[], targetsOfZones: readonly (TargetRow | undefined)[]): PlanWithZones[] {
+  const resolved = new Map(targetsOfZones.map((t, i) => [zoneRows[i].id, t]));
   return planRows.map((p) => ({
     planId: p.id,
     planName: p.name,
@@ -172,12 +177,17 @@ export function loadUsedCoefficientSets(db: Db, readingsPerSet: [number, number]
  * The survey's planned grids by zone, as the verdicts use them: the working plane's grid (changed:
  * differs from the generated grid) and the planned points on walls and ceilings.
  */
-export function loadPlannedGrids(db: Db, surveyId: number): { workingPlane: Map<number, JudgePlannedGrid>; surfacePoints: Map<number, JudgeSurfacePoint[]> } {
+export type PlannedGrids = { workingPlane: Map<number, JudgePlannedGrid>; surfacePoints: Map<number, JudgeSurfacePoint[]> };
+export function loadPlannedGrids(db: Db, surveyId: number): PlannedGrids {
   const grids = db.select().from(surveyGrids).where(eq(surveyGrids.surveyId, surveyId)).all();
+  if (grids.length === 0) return plannedGridsOf([], []);
+  return plannedGridsOf(grids, db.select().from(plannedPoints).where(eq(plannedPoints.surveyId, surveyId)).orderBy(asc(plannedPoints.id)).all());
+}
+
+/** loadPlannedGrids from the survey's grid rows and its planned point rows (in id order). */
+export function plannedGridsOf(grids: readonly (typeof surveyGrids.$inferSelect)[], points: readonly (typeof plannedPoints.$inferSelect)[]): PlannedGrids {
   const workingPlane = new Map<number, JudgePlannedGrid>();
   const surfacePoints = new Map<number, JudgeSurfacePoint[]>();
-  if (grids.length === 0) return { workingPlane, surfacePoints };
-  const points = db.select().from(plannedPoints).where(eq(plannedPoints.surveyId, surveyId)).orderBy(asc(plannedPoints.id)).all();
   for (const g of grids) {
     const own = points.filter((p) => p.gridId === g.id);
     if (g.surface === 'working_plane') {

@@ -13,7 +13,7 @@ import { recordAudit } from '../audit/audit-service';
 import { emToLux, SHIPPED_TARGETS } from './target-library';
 import { SURFACE_U0_MIN } from '@shared/core/planes';
 
-type TargetRow = typeof targets.$inferSelect;
+export type TargetRow = typeof targets.$inferSelect;
 
 export function presentTarget(row: TargetRow): TargetEntry {
   return {
@@ -137,6 +137,11 @@ export function resolveZoneTargets(db: Db, organizationId: number, zoneList: rea
   const visible = db.select().from(targets)
     .where(and(visibleTo(organizationId), chosenIds.length ? or(inArray(targets.useType, useTypes), inArray(targets.id, chosenIds)) : inArray(targets.useType, useTypes)))
     .orderBy(asc(targets.id)).all();
+  return pickZoneTargets(visible, organizationId, zoneList);
+}
+
+/** The resolution itself, from the entries visible to the organisation (in id order). */
+export function pickZoneTargets(visible: readonly TargetRow[], organizationId: number, zoneList: readonly { useType: string; targetId: number | null }[]): (TargetRow | undefined)[] {
   const byId = new Map(visible.map((t) => [t.id, t]));
   return zoneList.map((zone) => {
     const chosen = zone.targetId === null ? undefined : byId.get(zone.targetId);
