@@ -9,8 +9,7 @@ import { currentReadingConditions } from '../surveys/surveys-service';
  * the readings table's time order (ascending, and descending with ties by id), so a page at any
  * offset starts with one index seek from the nearest mark instead of an OFFSET walking every
  * reading before it. Marks are computed on a compute thread, once per set of current readings
- * (readingSetVersion), and kept in this process; until they are ready a page is read on a compute
- * thread by OFFSET.
+ * (readingSetVersion), and kept in this process; a page asked for meanwhile waits for them.
  */
 export const PAGE_MARK_STRIDE = 1024;
 export type PageOrder = 'asc' | 'desc';
@@ -48,29 +47,41 @@ function computeMarks(db: Db, input: { survey: MarkSurvey; order: PageOrder }): 
   }).deferred();
 }
 
-/** Declared in server/modules.ts (readings), so the pool threads can run it. */
-export const pageMarksTask = computeTask('reading-page-marks', computeMarks);
+/**
+ * Declared in server/modules.ts (readings). It reads every current reading (SQLite's window, small
+ * in memory), so it runs with the other whole-survey tasks rather than queuing behind zone answers.
+ */
+export const pageMarksTask = computeTask('reading-page-marks', computeMarks, { wholeSurvey: true });
+
+const keptOf = (db: Db) => {
+  let perDb = kept.get(db.$client);
+  if (!perDb) kept.set(db.$client, perDb = new Map());
+  return perDb;
+};
+
+/** The kept marks of the survey's current readings in this order, or null when none are kept for them. */
+export function keptPageMarks(db: Db, survey: MarkSurvey, order: PageOrder): Float64Array | null {
+  const found = keptOf(db).get(`${survey.id}:${order}`);
+  return found && found.version === readingSetVersion(db, survey) ? found.marks : null;
+}
 
 /**
  * Where a page at `offset` starts: the nearest mark at or before it and how many readings to skip
- * from there. Null while the marks of the current readings are not ready (they are then started).
+ * from there; null for a survey without current readings. Marks not yet kept for the current
+ * readings are computed first (one run shared by everyone asking meanwhile).
  */
-export function pageMark(db: Db, survey: MarkSurvey, order: PageOrder, offset: number): { timeMs: number; id: number; skip: number } | null {
-  let perDb = kept.get(db.$client);
-  if (!perDb) kept.set(db.$client, perDb = new Map());
-  const key = `${survey.id}:${order}`;
-  const version = readingSetVersion(db, survey);
-  const found = perDb.get(key);
-  if (found && found.version === version) {
-    const count = found.marks.length / 2;
-    if (count === 0) return null;
-    const i = Math.min(Math.floor(offset / PAGE_MARK_STRIDE), count - 1);
-    return { timeMs: found.marks[2 * i], id: found.marks[2 * i + 1], skip: offset - i * PAGE_MARK_STRIDE };
-  }
-  const store = perDb;
-  runCompute(db, pageMarksTask, { survey: { id: survey.id, activeDecodeId: survey.activeDecodeId }, order }).then((computed) => {
+export async function pageMark(db: Db, survey: MarkSurvey, order: PageOrder, offset: number): Promise<{ timeMs: number; id: number; skip: number } | null> {
+  let marks = keptPageMarks(db, survey, order);
+  if (!marks) {
+    const computed = await runCompute(db, pageMarksTask, { survey: { id: survey.id, activeDecodeId: survey.activeDecodeId }, order });
+    const store = keptOf(db);
+    const key = `${survey.id}:${order}`;
     if (store.size >= KEPT_PER_DATABASE && !store.has(key)) store.delete(store.keys().next().value!);
     store.set(key, computed);
-  }, (err: unknown) => console.error(`Page marks of survey ${survey.id} could not be computed`, err));
-  return null;
+    marks = computed.marks;
+  }
+  const count = marks.length / 2;
+  if (count === 0) return null;
+  const i = Math.min(Math.floor(offset / PAGE_MARK_STRIDE), count - 1);
+  return { timeMs: marks[2 * i], id: marks[2 * i + 1], skip: offset - i * PAGE_MARK_STRIDE };
 }

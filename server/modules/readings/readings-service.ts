@@ -85,7 +85,7 @@ export async function listReadings(db: Deps['db'], user: SessionUser, surveyId: 
   const total = keptReadingTotal(db, survey.id);
   if (total > inlineUpTo && q.sort === 'time' && !q.flag && !q.point) {
     if (q.offset >= total) return { items: [], total };
-    const mark = pageMark(db, survey, q.order, q.offset);
+    const mark = await pageMark(db, survey, q.order, q.offset);
     if (mark) {
       const dir = q.order === 'desc' ? desc : asc;
       // Written as a range on time plus a tie rule, so SQLite seeks the time index (an OR of the two would scan it from the start).
