@@ -53,16 +53,19 @@ function filters(survey: Parameters<typeof currentReadingConditions>[0], q: { fl
 type PageSurvey = { id: number; activeDecodeId: number | null };
 type PageQuery = z.output<typeof readingsQuerySchema>;
 
-/** One page by OFFSET (small surveys inline; on a compute thread for large ones, where skipping rows costs). */
-function queryPage(db: Db, survey: PageSurvey, q: PageQuery): ReadingsResponse {
+/**
+ * One page by OFFSET (small surveys inline; on a compute thread for large ones, where skipping rows
+ * costs), or by OFFSET from a page mark (`from`, with the total the caller already holds).
+ */
+function queryPage(db: Db, survey: PageSurvey, q: PageQuery, opts: { from?: SQL; total?: number } = {}): ReadingsResponse {
   if (survey.activeDecodeId === null) return { items: [], total: 0 };
   const where = and(...filters(survey, q));
   // Unfiltered, the total is the kept count (reading-counts.ts) rather than a count over every reading.
-  const total = !q.flag && !q.point
+  const total = opts.total ?? (!q.flag && !q.point
     ? keptReadingTotal(db, survey.id)
-    : db.select({ n: sql<number>`count(*)` }).from(readings).where(where).get()!.n;
+    : db.select({ n: sql<number>`count(*)` }).from(readings).where(where).get()!.n);
   const dir = q.order === 'desc' ? desc : asc;
-  const rows = db.select(columns).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).where(where)
+  const rows = db.select(columns).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).where(and(where, opts.from))
     .orderBy(dir(SORT_COLUMN[q.sort]), dir(readings.timeMs), asc(readings.id)).limit(q.limit).offset(q.offset).all();
   return { items: rows.map(present), total };
 }
@@ -86,16 +89,7 @@ export async function listReadings(db: Deps['db'], user: SessionUser, surveyId: 
   if (total > inlineUpTo && q.sort === 'time' && !q.flag && !q.point) {
     if (q.offset >= total) return { items: [], total };
     const mark = await pageMark(db, survey, q.order, q.offset);
-    if (mark) {
-      const dir = q.order === 'desc' ? desc : asc;
-      // Written as a range on time plus a tie rule, so SQLite seeks the time index (an OR of the two would scan it from the start).
-      const from = q.order === 'desc'
-        ? sql`${readings.timeMs} <= ${mark.timeMs} and (${readings.timeMs} < ${mark.timeMs} or ${readings.id} >= ${mark.id})`
-        : sql`${readings.timeMs} >= ${mark.timeMs} and (${readings.timeMs} > ${mark.timeMs} or ${readings.id} >= ${mark.id})`;
-      const rows = db.select(columns).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).where(and(...currentReadingConditions(survey), from))
-        .orderBy(dir(readings.timeMs), asc(readings.id)).limit(q.limit).offset(mark.skip).all();
-      return { items: rows.map(present), total };
-    }
+    if (mark) return queryPage(db, survey, { ...q, offset: mark.skip }, { from: fromInTimeOrder(mark, q.order, 'at'), total });
   }
   return runComputeBySize(db, total, readingsPageTask, { survey, query: q }, inlineUpTo);
 }
@@ -126,12 +120,15 @@ export async function readingSeries(db: Deps['db'], user: SessionUser, surveyId:
 }
 
 /**
- * Readings after (time t, id) in the time order, for paging an export: a range on time plus a tie
- * rule, so SQLite seeks the time index to the last row sent (an OR of the two would rescan the
- * index from its start on every page).
+ * Readings from a place (time, id) in the time order (ascending, or descending with ties by id):
+ * at it and on, or only after it. Written as a range on time plus a tie rule, so SQLite seeks the
+ * time index to the place (an OR of the two would scan the index from its start on every page).
  */
-export function afterInTimeOrder(after: { t: number; id: number }): SQL {
-  return sql`${readings.timeMs} >= ${after.t} and (${readings.timeMs} > ${after.t} or ${readings.id} > ${after.id})`;
+export function fromInTimeOrder(place: { timeMs: number; id: number }, order: 'asc' | 'desc', tie: 'at' | 'after'): SQL {
+  const sameTime = tie === 'at' ? sql`${readings.id} >= ${place.id}` : sql`${readings.id} > ${place.id}`;
+  return order === 'desc'
+    ? sql`${readings.timeMs} <= ${place.timeMs} and (${readings.timeMs} < ${place.timeMs} or ${sameTime})`
+    : sql`${readings.timeMs} >= ${place.timeMs} and (${readings.timeMs} > ${place.timeMs} or ${sameTime})`;
 }
 
 /** Rows per page of a streamed export: each page is one short stretch of the event loop. */
@@ -150,9 +147,9 @@ export async function exportReadingsCsv(db: Deps['db'], user: SessionUser, surve
   res.setHeader('Content-Disposition', `attachment; filename="${safeName}-readings-${u}.csv"`);
   res.write(`${toSafeCsvRows([readingColumns(u)])}\r\n`);
   if (survey.activeDecodeId !== null) {
-    let after = { t: Number.MIN_SAFE_INTEGER, id: 0 };
+    let after = { timeMs: Number.MIN_SAFE_INTEGER, id: 0 };
     for (;;) {
-      const where = [...currentReadingConditions(survey), afterInTimeOrder(after)];
+      const where = [...currentReadingConditions(survey), fromInTimeOrder(after, 'asc', 'after')];
       const rows = db.select(exportColumns).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).leftJoin(plans, eq(plans.id, readings.planId))
         .leftJoin(coefficientSets, eq(coefficientSets.id, readings.coefficientSetId))
         .where(and(...where)).orderBy(asc(readings.timeMs), asc(readings.id)).limit(EXPORT_PAGE).all();
@@ -160,7 +157,7 @@ export async function exportReadingsCsv(db: Deps['db'], user: SessionUser, surve
       const chunk = toSafeCsvRows(rows.map((r) => readingCells(r, u)));
       if (!res.write(`${chunk}\r\n`)) await new Promise((r) => res.once('drain', r));
       const last = rows[rows.length - 1];
-      after = { t: last.timeMs, id: last.id };
+      after = { timeMs: last.timeMs, id: last.id };
     }
   }
   res.end();

@@ -13,7 +13,7 @@ import { labelOfUseType } from '@shared/schemas/zones';
 import type { SessionUser } from '@shared/schemas/auth';
 import type { SendReportBody, SendReportResponse } from '@shared/schemas/reports';
 import { currentReadingConditions, findSurveyInOrganization, getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
-import { afterInTimeOrder, exportColumns } from '../readings/readings-service';
+import { exportColumns, fromInTimeOrder } from '../readings/readings-service';
 import { recordAudit } from '../audit/audit-service';
 import { frozenOf, surveyVerdicts, complianceOf, zoneMembers } from '../compliance/compliance-service';
 import type { ReportUnit } from './report-pdf';
@@ -79,17 +79,17 @@ export async function streamReadingsCsv(db: Db, user: SessionUser, surveyId: num
   res.setHeader('Content-Disposition', `attachment; filename="${reportFilename(survey, 'csv', `readings-${unit}`)}"`);
   res.setHeader('Cache-Control', 'private, no-store');
   res.write(`${toSafeCsvRows([readingColumns(unit, true)])}\r\n`);
-  let after = { t: Number.MIN_SAFE_INTEGER, id: 0 };
+  let after = { timeMs: Number.MIN_SAFE_INTEGER, id: 0 };
   while (where !== null) {
     const rows = db.select(exportColumns).from(readings).innerJoin(probes, eq(probes.id, readings.probeId)).leftJoin(plans, eq(plans.id, readings.planId))
       .leftJoin(coefficientSets, eq(coefficientSets.id, readings.coefficientSetId))
-      .where(and(...where, afterInTimeOrder(after)))
+      .where(and(...where, fromInTimeOrder(after, 'asc', 'after')))
       .orderBy(asc(readings.timeMs), asc(readings.id)).limit(CSV_PAGE).all();
     if (rows.length === 0) break;
     const chunk = toSafeCsvRows(rows.map((r) => readingCells(r, unit, zoneOf.get(r.id) ?? { zone: null, inWallBand: null })));
     if (!res.write(`${chunk}\r\n`)) await new Promise((resolve) => res.once('drain', resolve));
     const last = rows[rows.length - 1];
-    after = { t: last.timeMs, id: last.id };
+    after = { timeMs: last.timeMs, id: last.id };
     await yieldToEventLoop();
   }
   res.end();
