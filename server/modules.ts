@@ -3,7 +3,7 @@ import type { Deps } from './deps';
 import type { SeedContext } from './db/seed-context';
 import type { ComputeTask } from './compute/compute-pool';
 import { verdictAggregateTask } from './modules/compliance/verdict-aggregates';
-import { mapReadingsTask, zonePointsTask } from './modules/compliance/answer-parts';
+import { allPartsTask, mapReadingsTask, zonePointsTask } from './modules/compliance/answer-parts';
 import { WARM_VERDICTS_JOB, warmVerdicts } from './modules/compliance/warm-verdicts';
 import { reportPdfTask } from './modules/reports/report-job';
 import { readingSeriesTask, readingsPageTask } from './modules/readings/readings-service';
@@ -93,7 +93,7 @@ export const SERVER_MODULES: ServerModule[] = [
   { name: 'targets', routes: registerTargetRoutes },
   { name: 'organization', routes: registerOrganizationRoutes },
   // The target library and the sign-off of the earlier walk-through.
-  { name: 'compliance', routes: registerComplianceRoutes, seed: seedCompliance, computeTasks: [verdictAggregateTask, zonePointsTask, mapReadingsTask], queueWork: [{ name: WARM_VERDICTS_JOB, run: warmVerdicts }] },
+  { name: 'compliance', routes: registerComplianceRoutes, seed: seedCompliance, computeTasks: [verdictAggregateTask, zonePointsTask, mapReadingsTask, allPartsTask], queueWork: [{ name: WARM_VERDICTS_JOB, run: warmVerdicts }] },
   { name: 'workflow', routes: registerWorkflowRoutes },
   { name: 'reports', routes: registerReportRoutes, computeTasks: [reportPdfTask] },
   // The field view: records synced from the phone (typed readings join the survey's readings).

@@ -15,6 +15,7 @@ import Database from 'better-sqlite3';
 import { PNG } from 'pngjs';
 import { createBatchBuilder } from '../../server/modules/imports/batch-format';
 import { createBatchWriter } from '../../server/modules/imports/batch-writer';
+import { WARM_VERDICTS_JOB } from '../../server/modules/compliance/warm-verdicts';
 import { addBenchProbes, benchProbes, pct, peakRssMb, resetPeakRss, startBenchServer, writeBenchLog } from './bench-server';
 
 const SHORT = process.argv.includes('--short');
@@ -81,6 +82,7 @@ async function main() {
     const t0 = performance.now();
     const db = new Database(server.dbPath);
     db.pragma('busy_timeout = 10000');
+    let warmJobId = 0;
     const { probeIds, setIds } = addBenchProbes(db, 'surveyor@luxtrail.test', START);
     const orgId = (db.prepare("select organization_id as o from users where email = 'surveyor@luxtrail.test'").get() as { o: number }).o;
     const fileId = (db.prepare('select file_id as f from plans where id = ?').get(plan.id) as { f: number }).f;
@@ -105,20 +107,33 @@ async function main() {
       db.prepare("update log_imports set status = 'done', progress = 1, rows_read = ?, reading_count = ?, finished_at = ? where id = ?").run(READINGS, READINGS, Date.now(), importId);
       db.prepare('insert into reading_counts (decode_id, import_id, readings) values (?, ?, ?)').run(decodeId, importId, READINGS);
       db.prepare('update surveys set active_decode_id = ? where id = ?').run(decodeId, big.id);
+      // As an accepted import does (imports-service, queueWarmVerdicts): the verdicts and each zone's points are computed ahead.
+      warmJobId = Number(db.prepare("insert into jobs (name, data, status, attempts, max_attempts, run_at, created_at) values (?, ?, 'queued', 0, 1, ?, ?)")
+        .run(WARM_VERDICTS_JOB, JSON.stringify({ surveyId: big.id }), Date.now(), Date.now()).lastInsertRowid);
     })();
-    db.close();
     console.log(`Seeded ${READINGS.toLocaleString('en-GB')} readings over 40 zones in ${((performance.now() - t0) / 1000).toFixed(1)} s (organisation ${orgId})`);
+    // The job runner takes the queued job within its poll interval; the figure is from the commit to the job's end.
+    const queuedAt = performance.now();
+    for (;;) {
+      const job = db.prepare('select status, last_error as lastError from jobs where id = ?').get(warmJobId) as { status: string; lastError: string | null };
+      if (job.status === 'done' || job.status === 'failed') {
+        console.log(`Verdicts and the 40 zones' points computed ahead by the warm-verdicts job in ${((performance.now() - queuedAt) / 1000).toFixed(1)} s (${job.status}${job.lastError ? `: ${job.lastError}` : ''})`);
+        break;
+      }
+      await new Promise((r) => setTimeout(r, 100));
+    }
+    db.close();
 
     const manager: Record<string, string>[] = [];
     for (let i = 0; i < SESSIONS; i++) manager.push(await signIn('facilities@luxtrail.test'));
 
-    // Verdicts: the first answer computes the aggregate (on a compute thread), later ones read it.
+    // Verdicts: the first answer reads the aggregate the job kept; later ones read the parsed summary kept in the process.
     const v0 = performance.now();
     const verdicts = await json<{ zones: { verdict: string }[] }>(`/api/surveys/${big.id}/compliance`, manager[0]);
     const coldMs = performance.now() - v0;
     const warm: number[] = [];
     for (let i = 0; i < 10; i++) { const w0 = performance.now(); await json(`/api/surveys/${big.id}/compliance`, manager[0]); warm.push(performance.now() - w0); }
-    console.log(`Verdicts of the ${READINGS.toLocaleString('en-GB')}-reading survey: first ${(coldMs / 1000).toFixed(2)} s (computes the aggregate), then p50 ${pct(warm, 50).toFixed(0)} ms; ${verdicts.zones.length} zones`);
+    console.log(`Verdicts of the ${READINGS.toLocaleString('en-GB')}-reading survey: first ${coldMs.toFixed(0)} ms (kept by the job), then p50 ${pct(warm, 50).toFixed(0)} ms; ${verdicts.zones.length} zones`);
 
     const mix: [string, number, () => string][] = [
       ['survey list', 15, () => '/api/surveys'],
@@ -211,6 +226,12 @@ async function main() {
       }
       return `PDF of the large survey built ${times.length} time(s) back to back: ${times.join(', ')}`;
     });
+
+    // An input changed (a zone renamed): no job computes these ahead, the next reader waits for the judging.
+    await json(`/api/zones/${zoneIds[0]}`, surveyor, { method: 'PATCH', body: JSON.stringify({ name: 'Room 1-1 (renamed)' }) });
+    const r0 = performance.now();
+    await json(`/api/surveys/${big.id}/compliance`, manager[0]);
+    console.log(`\nVerdicts after a zone was renamed (judged again on a compute thread while the reader waits): ${((performance.now() - r0) / 1000).toFixed(2)} s`);
 
     // Sign-off: the surveyor submits, the facility manager signs off (freezes, renders and mails the PDF).
     await json(`/api/surveys/${big.id}/submit`, surveyor, { method: 'POST', body: JSON.stringify({}) });

@@ -1,9 +1,10 @@
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import zlib from 'node:zlib';
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { logImports } from '@server/db/schema/surveys';
+import { logImports, surveys } from '@server/db/schema/surveys';
 import { loadSessionUser } from '@server/modules/auth/auth-service';
 import { keepReadingCount } from '@server/modules/surveys/reading-counts';
 import { listReadings, readingSeries } from '@server/modules/readings/readings-service';
@@ -11,9 +12,15 @@ import { getSurvey } from '@server/modules/surveys/surveys-service';
 import { listUnplaced } from '@server/modules/placements/placements-service';
 import { keptPageMarks, PAGE_MARK_STRIDE, pageMark } from '@server/modules/readings/reading-page-marks';
 import type { SessionUser } from '@shared/schemas/auth';
-import { closeComputePools } from '@server/compute/compute-pool';
+import { closeComputePools, runCompute } from '@server/compute/compute-pool';
+import { verdictAnswerParts } from '@server/db/schema/aggregates';
+import { keptMapReadings, keptZonePoints, mapReadingsTask, zonePointsTask } from '@server/modules/compliance/answer-parts';
+import { currentAggregate } from '@server/modules/compliance/verdict-aggregates';
+import { warmVerdicts } from '@server/modules/compliance/warm-verdicts';
+import type { PackedField } from '@server/http/packed-json';
+import type { Deps } from '@server/deps';
 import { createTestApp, DEMO, type TestApp } from './helpers';
-import { buildSurvey, insertDecode, userId } from './support/factories';
+import { buildSurvey, insertDecode, OFFICE_AND_CORRIDOR, officeAndCorridorReadings, userId } from './support/factories';
 
 // What reads every reading of a large survey stays off the event loop, with the same answers.
 // A large survey's readings pages start from page marks (a seek to every PAGE_MARK_STRIDE-th
@@ -120,4 +127,32 @@ describe.each([
       expect(unplaced.groups.reduce((n, g) => n + g.readings.length, 0)).toBe(2000);
     });
   });
+
+  describe('answer parts of a survey with zones', () => {
+    it('built all at once beside the aggregate (warm-verdicts) equal those built one by one on request', async () => {
+      const zoned = buildSurvey(t, { ownerEmail: DEMO.surveyor, surveyName: 'Zoned walk', status: 'draft', zones: OFFICE_AND_CORRIDOR, readings: officeAndCorridorReadings() });
+      const survey = t.db.select().from(surveys).where(eq(surveys.id, zoned.surveyId)).get()!;
+      await warmVerdicts({ db: t.db } as Deps, { surveyId: zoned.surveyId });
+      const aggregate = await currentAggregate(t.db, survey);
+      const zoneIds = [zoned.zoneIds.office, zoned.zoneIds.corridor];
+      const together = zoneIds.map((zoneId) => keptZonePoints(t.db, aggregate.id, zoneId));
+      const map = keptMapReadings(t.db, aggregate.id, zoned.planId);
+      expect(together.every((p) => p !== undefined) && map !== undefined).toBe(true);
+      t.db.delete(verdictAnswerParts).where(eq(verdictAnswerParts.aggregateId, aggregate.id)).run();
+      for (const [i, zoneId] of zoneIds.entries()) {
+        const alone = (await runCompute(t.db, zonePointsTask, { surveyId: zoned.surveyId, aggregateId: aggregate.id, zoneId }))!;
+        expect(inflated(together[i]!.points)).toBe(inflated(alone.points));
+        expect(together[i]!.labels).toBe(alone.labels);
+        // The one built on request is kept too.
+        expect(inflated(keptZonePoints(t.db, aggregate.id, zoneId)!.points)).toBe(inflated(alone.points));
+      }
+      // 49 grid points and one in the wall band in the office (factories: officeAndCorridorReadings).
+      expect((JSON.parse(`${inflated(together[0]!.points)}}`) as { points: unknown[] }).points).toHaveLength(50);
+      const mapAlone = (await runCompute(t.db, mapReadingsTask, { surveyId: zoned.surveyId, aggregateId: aggregate.id, planId: zoned.planId }))!;
+      expect(inflated(map!.readings)).toBe(inflated(mapAlone.readings));
+      expect(map!.probes).toEqual(mapAlone.probes);
+    });
+  });
 });
+
+const inflated = (p: PackedField<string, unknown>) => zlib.inflateRawSync(p.deflated, { finishFlush: zlib.constants.Z_SYNC_FLUSH }).toString();

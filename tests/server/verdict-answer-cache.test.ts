@@ -4,12 +4,13 @@ import { createTestApp, DEMO, type TestApp, type TestClient } from './helpers';
 import { buildSurvey, insertDecode, insertManualProbe, OFFICE_AND_CORRIDOR, officeAndCorridorReadings, orgOf, pngOf } from './support/factories';
 import { readings } from '@server/db/schema/surveys';
 import { answerCache } from '@server/modules/compliance/answer-cache';
+import { verdictAggregates, verdictAnswerParts } from '@server/db/schema/aggregates';
 
 /**
- * The verdict routes keep their summary, a zone's points and a plan's map readings per verdict
- * aggregate (server/modules/compliance/answer-cache.ts). Each test reads an answer (so it is kept),
- * changes one input, and checks the next answer shows the change and equals one built with
- * nothing kept.
+ * The verdict routes keep their summary per verdict aggregate in the process
+ * (server/modules/compliance/answer-cache.ts), and a zone's points and a plan's map readings beside
+ * it in the database (answer-parts.ts). Each test reads an answer (so it is kept), changes one
+ * input, and checks the next answer shows the change and equals one built with nothing kept.
  */
 let t: TestApp;
 let surveyor: TestClient;
@@ -39,7 +40,7 @@ const verdictsUrl = () => `/api/surveys/${s.surveyId}/compliance`;
 async function keptAndFresh<T>(url: string, c: TestClient = manager): Promise<T> {
   const kept = await c.get(url);
   expect(kept.status).toBe(200);
-  answerCache(t.db).clear();
+  forgetKept();
   const fresh = await c.get(url);
   expect(fresh.body).toEqual(kept.body);
   return kept.body as T;
@@ -48,7 +49,17 @@ async function keptAndFresh<T>(url: string, c: TestClient = manager): Promise<T>
 /** Reads every answer once so its parts are kept before an input changes. */
 async function warm() {
   for (const url of [verdictsUrl(), zoneUrl('office'), zoneUrl('corridor'), mapUrl()]) expect((await manager.get(url)).status).toBe(200);
-  expect(answerCache(t.db).stats().entries).toBeGreaterThanOrEqual(4);
+  expect(answerCache(t.db).stats().entries).toBeGreaterThanOrEqual(1);
+  expect(keptParts()).toEqual(expect.arrayContaining([`zone:${s.zoneIds.office}`, `zone:${s.zoneIds.corridor}`, `map:${s.planId}`]));
+}
+
+/** The parts kept beside the survey's aggregates. */
+const keptParts = () => t.db.select({ part: verdictAnswerParts.part }).from(verdictAnswerParts).innerJoin(verdictAggregates, eq(verdictAggregates.id, verdictAnswerParts.aggregateId))
+  .where(eq(verdictAggregates.surveyId, s.surveyId)).all().map((p) => p.part);
+
+function forgetKept() {
+  answerCache(t.db).clear();
+  t.db.delete(verdictAnswerParts).run();
 }
 
 const officeReading = (point: string) => t.db.select().from(readings).where(eq(readings.point, point)).all().find((r) => r.decodeId === s.decodeId)!;

@@ -1,7 +1,8 @@
 import { describe, it, expect } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { jobs } from '@server/db/schema/jobs';
-import { verdictAggregates } from '@server/db/schema/aggregates';
+import { verdictAggregates, verdictAnswerParts } from '@server/db/schema/aggregates';
+import type { AggregateSummary } from '@server/modules/compliance/verdict-aggregates';
 import { surveys } from '@server/db/schema/surveys';
 import { verdictInputs } from '@server/modules/compliance/verdict-aggregates';
 import { WARM_VERDICTS_JOB } from '@server/modules/compliance/warm-verdicts';
@@ -30,6 +31,23 @@ describe('verdicts computed ahead after an import', () => {
     const res = await c.get(`/api/surveys/${surveyId}/compliance`);
     expect(res.status).toBe(200);
     expect(t.db.select().from(verdictAggregates).where(eq(verdictAggregates.surveyId, surveyId)).all().map((a) => a.id)).toEqual(kept.map((a) => a.id));
+
+    // Every judged zone's points and every plan's map readings were built beside it in the same job,
+    // and each answer from them equals one built on request with nothing kept.
+    const summary = kept[0].summary as AggregateSummary;
+    const expected = [...summary.zones.map((z) => `zone:${z.zoneId}`), ...summary.map.plans.map((p) => `map:${p.planId}`)].sort();
+    expect(summary.zones.length).toBeGreaterThan(0);
+    const parts = () => t.db.select({ part: verdictAnswerParts.part }).from(verdictAnswerParts).where(eq(verdictAnswerParts.aggregateId, kept[0].id)).all().map((p) => p.part).sort();
+    expect(parts()).toEqual(expected);
+    const urls = [...summary.zones.map((z) => `/api/surveys/${surveyId}/zones/${z.zoneId}/compliance`), ...summary.map.plans.map((p) => `/api/surveys/${surveyId}/map?planId=${p.planId}`)];
+    const fromKept = await Promise.all(urls.map((u) => c.get(u)));
+    expect(fromKept.some((r) => (r.body as { points?: unknown[] }).points?.length)).toBe(true);
+    t.db.delete(verdictAnswerParts).run();
+    for (const [i, u] of urls.entries()) {
+      expect(fromKept[i].status).toBe(200);
+      expect((await c.get(u)).body).toEqual(fromKept[i].body);
+    }
+    expect(parts()).toEqual(expected);
   });
 
   it('a rejected import queues nothing', async () => {

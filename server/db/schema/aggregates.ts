@@ -35,3 +35,19 @@ export const verdictAggregateZones = sqliteTable('verdict_aggregate_zones', {
   otherPlaneReadingIds: blob('other_plane_reading_ids', { mode: 'buffer' }).notNull(),
   pointDf: blob('point_df', { mode: 'buffer' }).notNull(),
 }, (t) => [primaryKey({ columns: [t.aggregateId, t.zoneId] })]);
+
+/**
+ * The large parts of an aggregate's answers, built once (answer-parts.ts) and kept beside it: a
+ * zone's points (`zone:<zone id>`, extra: its point labels) and a plan's drawn readings
+ * (`map:<plan id>`, extra: the probes they name). `deflated` is the packed JSON of
+ * server/http/packed-json.ts, with its CRC-32 and uncompressed length. Kept in the database, not
+ * in the process: 40 zones of a 500,000-reading survey are about 9 MB, and they outlive a restart.
+ */
+export const verdictAnswerParts = sqliteTable('verdict_answer_parts', {
+  aggregateId: integer('aggregate_id').notNull().references(() => verdictAggregates.id, { onDelete: 'cascade' }),
+  part: text('part').notNull(),
+  deflated: blob('deflated', { mode: 'buffer' }).notNull(),
+  crc: integer('crc').notNull(),
+  length: integer('length').notNull(),
+  extra: text('extra').notNull(),
+}, (t) => [primaryKey({ columns: [t.aggregateId, t.part] })]);

@@ -1,14 +1,15 @@
 import type { Db } from '../../db/client';
 
 /**
- * What the verdict routes keep per verdict aggregate between requests (the parsed summary, a zone's
- * packed points, a plan's packed map readings), least recently used first out once the kept bytes
- * pass ANSWER_CACHE_BYTES. Every entry is named by the aggregate's id and inputs key: an aggregate
+ * What the verdict routes keep per verdict aggregate between requests in the process (its parsed
+ * summary; the large packed parts are kept in the database, answer-parts.ts), least recently used
+ * first out once the kept bytes pass ANSWER_CACHE_BYTES. Every entry is named by the aggregate's id and inputs key: an aggregate
  * never changes once written (a change of any input makes a new one, whose id is new: ids are
  * AUTOINCREMENT, never reused), so an entry stays right for as long as its aggregate is the answer.
  * One cache per database connection (tests open many in one process).
  */
-export const ANSWER_CACHE_BYTES = 64 * 1024 * 1024;
+/** About 40 parsed summaries of 40-zone surveys. */
+export const ANSWER_CACHE_BYTES = 16 * 1024 * 1024;
 
 type Entry = { value: unknown; bytes: number; aggregateId: number };
 
@@ -42,11 +43,6 @@ export class AnswerCache {
   /** Drops what was kept for an aggregate another one replaced (its entries would only wait to be evicted). */
   forgetAggregate(aggregateId: number): void {
     for (const [key, entry] of this.entries) if (entry.aggregateId === aggregateId) this.remove(key);
-  }
-
-  /** Drops one part (it was found out of date, e.g. a probe's serial changed). */
-  forget(aggregateId: number, inputsKey: string, part: string): void {
-    this.remove(`${aggregateId}\u0000${inputsKey}\u0000${part}`);
   }
 
   /** Drops everything (tests compare a kept answer with one built afresh). */

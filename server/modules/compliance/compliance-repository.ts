@@ -82,6 +82,14 @@ export function loadReadingsById(db: Db, surveyId: number, ids: number[]): Judge
 
 /** Runs a select of judgeColumns row by row into small JudgeReadings (shared texts and parsed budgets). */
 function judgeReadingsOf(db: Db, query: { sql: string; params: unknown[] }): JudgeReading[] {
+  const toReading = judgeReadingOfRow();
+  const out: JudgeReading[] = [];
+  for (const row of db.$client.prepare(query.sql).raw().iterate(...query.params) as IterableIterator<unknown[]>) out.push(toReading(row));
+  return out;
+}
+
+/** A raw row of judgeColumns as a small JudgeReading: repeated texts shared, each distinct budget parsed once. */
+function judgeReadingOfRow(): (row: unknown[]) => JudgeReading {
   const same = sameTexts();
   const budgets = new Map<string, unknown>();
   const budgetOf = (stored: string | null) => {
@@ -90,18 +98,14 @@ function judgeReadingsOf(db: Db, query: { sql: string; params: unknown[] }): Jud
     if (parsed === undefined) budgets.set(stored, (parsed = JSON.parse(stored) as unknown));
     return parsed;
   };
-  const out: JudgeReading[] = [];
-  for (const row of db.$client.prepare(query.sql).raw().iterate(...query.params) as IterableIterator<unknown[]>) {
-    out.push({
-      id: row[AT.id] as number, point: row[AT.point] as string, xM: row[AT.xM] as number | null, yM: row[AT.yM] as number | null, planId: row[AT.planId] as number | null,
-      role: same(row[AT.role] as string) as JudgeReading['role'], timeMs: row[AT.timeMs] as number, probeId: row[AT.probeId] as number,
-      lux: row[AT.lux] as number | null, uLux: row[AT.uLux] as number | null, luxBound: same(row[AT.luxBound] as string) as JudgeReading['luxBound'],
-      flag: same(row[AT.flag] as string) as JudgeReading['flag'], budget: budgetOf(row[AT.budget] as string | null), coefficientSetId: row[AT.coefficientSetId] as number | null,
-      plane: same(row[AT.plane] as string) as JudgeReading['plane'], azimuthDeg: row[AT.azimuthDeg] as number | null,
-      excludedReason: row[AT.excludedReason] as string | null, note: row[AT.note] as string | null,
-    });
-  }
-  return out;
+  return (row) => ({
+    id: row[AT.id] as number, point: row[AT.point] as string, xM: row[AT.xM] as number | null, yM: row[AT.yM] as number | null, planId: row[AT.planId] as number | null,
+    role: same(row[AT.role] as string) as JudgeReading['role'], timeMs: row[AT.timeMs] as number, probeId: row[AT.probeId] as number,
+    lux: row[AT.lux] as number | null, uLux: row[AT.uLux] as number | null, luxBound: same(row[AT.luxBound] as string) as JudgeReading['luxBound'],
+    flag: same(row[AT.flag] as string) as JudgeReading['flag'], budget: budgetOf(row[AT.budget] as string | null), coefficientSetId: row[AT.coefficientSetId] as number | null,
+    plane: same(row[AT.plane] as string) as JudgeReading['plane'], azimuthDeg: row[AT.azimuthDeg] as number | null,
+    excludedReason: row[AT.excludedReason] as string | null, note: row[AT.note] as string | null,
+  });
 }
 
 /** What the report draws and dates of a reading (and the field conditions' notes read): no budget or probe. */
@@ -114,7 +118,25 @@ export type ReadingPoint = Pick<JudgeReading, 'id' | 'point' | 'xM' | 'yM' | 'ro
  * range in id order (about 1 s for 500,000), where a lookup per id cost 40 queries of random reads.
  */
 export function loadReadingPointGroups(db: Db, surveyId: number, groups: readonly (readonly number[])[]): ReadingPoint[][] {
-  const out = groups.map((): ReadingPoint[] => []);
+  const same = sameTexts();
+  return readGroups(db, surveyId, groups, {
+    id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, role: readings.role, timeMs: readings.timeMs, lux: readings.lux, luxBound: readings.luxBound, note: readings.note,
+  }, ([id, point, xM, yM, role, timeMs, lux, luxBound, note]): ReadingPoint => ({
+    id: id as number, point: point as string, xM: xM as number | null, yM: yM as number | null, role: same(role as string) as ReadingPoint['role'], timeMs: timeMs as number,
+    lux: lux as number | null, luxBound: same(luxBound as string) as ReadingPoint['luxBound'], note: note as string | null,
+  }));
+}
+
+/** As loadReadingPointGroups, whole JudgeReadings (every zone's points built in one pass, answer-parts.ts). */
+export function loadReadingGroups(db: Db, surveyId: number, groups: readonly (readonly number[])[]): JudgeReading[][] {
+  return readGroups(db, surveyId, groups, judgeColumns, judgeReadingOfRow());
+}
+
+/** One pass over the groups' id range, each row read once and handed to every group naming it; each group in (time, id) order. */
+function readGroups<R extends { id: number; timeMs: number }>(
+  db: Db, surveyId: number, groups: readonly (readonly number[])[], columns: Parameters<Db['select']>[0] & object, toReading: (row: unknown[]) => R,
+): R[][] {
+  const out = groups.map((): R[] => []);
   let lo = Infinity;
   let hi = -Infinity;
   let total = 0;
@@ -130,17 +152,13 @@ export function loadReadingPointGroups(db: Db, surveyId: number, groups: readonl
       else sparse.set(id, [...(sparse.get(id) ?? []), i]);
     }
   });
-  const query = db.select({ id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, role: readings.role, timeMs: readings.timeMs, lux: readings.lux, luxBound: readings.luxBound, note: readings.note })
-    .from(readings).where(and(eq(readings.surveyId, surveyId), between(readings.id, lo, hi))).toSQL();
-  const same = sameTexts();
-  for (const [id, point, xM, yM, role, timeMs, lux, luxBound, note] of db.$client.prepare(query.sql).raw().iterate(...query.params) as IterableIterator<unknown[]>) {
-    const at = first ? first[(id as number) - lo] - 1 : -1;
-    const more = sparse.get(id as number);
+  const query = db.select(columns).from(readings).where(and(eq(readings.surveyId, surveyId), between(readings.id, lo, hi))).toSQL();
+  for (const row of db.$client.prepare(query.sql).raw().iterate(...query.params) as IterableIterator<unknown[]>) {
+    const id = row[0] as number;
+    const at = first ? first[id - lo] - 1 : -1;
+    const more = sparse.get(id);
     if (at < 0 && !more) continue;
-    const r: ReadingPoint = {
-      id: id as number, point: point as string, xM: xM as number | null, yM: yM as number | null, role: same(role as string) as ReadingPoint['role'], timeMs: timeMs as number,
-      lux: lux as number | null, luxBound: same(luxBound as string) as ReadingPoint['luxBound'], note: note as string | null,
-    };
+    const r = toReading(row);
     if (at >= 0) out[at].push(r);
     for (const i of more ?? []) out[i].push(r);
   }

@@ -19,11 +19,10 @@ import { decisionRuleOf } from '../organization/organization-service';
 import { getVisibleTarget, presentTarget } from '../targets/targets-service';
 import type { JudgedZone } from './judge-zones';
 import { loadUsedCoefficientSets, type UsedCoefficientSet } from './compliance-repository';
-import { aggregateInputsKey, aggregateZoneMembers, coreInstallation, currentAggregate, type StoredZone, type ZoneMembers } from './verdict-aggregates';
-import { answerCache } from './answer-cache';
-import { hasPointLabel, zonePointsTask, type ZonePointsPart } from './answer-parts';
+import { aggregateZoneMembers, coreInstallation, currentAggregate, type StoredZone, type ZoneMembers } from './verdict-aggregates';
+import { hasPointLabel, keptZonePoints, zonePointsTask, type ZonePointsPart } from './answer-parts';
 import { runCompute } from '../../compute/compute-pool';
-import { packedAnswer, packedBytes, type PackedAnswer } from '../../http/packed-json';
+import { packedAnswer, type PackedAnswer } from '../../http/packed-json';
 import { notesOfZone, photosOfZone } from '../field/field-service';
 
 export { coreInstallation };
@@ -96,8 +95,6 @@ const strip = ({ polygon: _p, readingIds: _r, wallBandReadingIds: _w, otherPlane
 export type SurveyVerdicts = {
   rule: AcceptanceRule; zones: FrozenZone[]; unassignedPoints: number; hasDaylightReference: boolean; warnings: string[]; installation: InstallationInfo;
   frozen: FrozenCompliance | null; aggregateId: number | null; coefficientSetReadings: [number, number][] | null;
-  /** The inputs key of the live aggregate (null when frozen: aggregateInputsKey reads a frozen one's). */
-  inputsKey: string | null;
 };
 
 /** The verdicts and judged zones of a survey: frozen if signed off, else from its current aggregate. */
@@ -106,13 +103,13 @@ export async function surveyVerdicts(db: Db, survey: SurveyRow): Promise<SurveyV
   if (frozen) {
     return {
       rule: frozen.rule, zones: frozen.zones, unassignedPoints: frozen.unassignedPoints, hasDaylightReference: frozen.hasDaylightReference, warnings: frozen.warnings,
-      installation: frozen.installation ?? IN_SERVICE, frozen, aggregateId: frozen.aggregateId ?? null, coefficientSetReadings: null, inputsKey: null,
+      installation: frozen.installation ?? IN_SERVICE, frozen, aggregateId: frozen.aggregateId ?? null, coefficientSetReadings: null,
     };
   }
-  const { id, inputsKey, summary } = await currentAggregate(db, survey);
+  const { id, summary } = await currentAggregate(db, survey);
   return {
     rule: summary.rule, zones: summary.zones, unassignedPoints: summary.unassignedPoints, hasDaylightReference: summary.hasDaylightReference, warnings: summary.warnings,
-    installation: installationOf(survey), frozen: null, aggregateId: id, coefficientSetReadings: summary.coefficientSetReadings, inputsKey,
+    installation: installationOf(survey), frozen: null, aggregateId: id, coefficientSetReadings: summary.coefficientSetReadings,
   };
 }
 
@@ -190,19 +187,11 @@ export async function getZoneDetail(db: Db, user: SessionUser, surveyId: number,
   }
 }
 
-/** A judged zone's packed points: kept for its aggregate, else built on a compute thread (null: that aggregate is gone). */
+/** A judged zone's packed points: kept beside its aggregate, else built (and kept) on a compute thread (null: that aggregate is gone). */
 async function zonePointsOf(db: Db, surveyId: number, v: SurveyVerdicts, zone: FrozenZone): Promise<ZonePointsPart | null> {
   // Sign-offs frozen before version 2 name their readings inline: rare and old, built each time.
   if (zone.readingIds || v.aggregateId === null) return runCompute(db, zonePointsTask, { surveyId, members: zoneMembers(db, v, zone) });
-  const inputsKey = v.inputsKey ?? aggregateInputsKey(db, v.aggregateId);
-  if (inputsKey === null) return null;
-  const cache = answerCache(db);
-  const part = `zone-points:${zone.zoneId}`;
-  const kept = cache.get<ZonePointsPart>(v.aggregateId, inputsKey, part);
-  if (kept) return kept;
-  const built = await runCompute(db, zonePointsTask, { surveyId, aggregateId: v.aggregateId, zoneId: zone.zoneId });
-  if (built) cache.set(v.aggregateId, inputsKey, part, built, packedBytes(built.points) + built.labels.length);
-  return built;
+  return keptZonePoints(db, v.aggregateId, zone.zoneId) ?? runCompute(db, zonePointsTask, { surveyId, aggregateId: v.aggregateId, zoneId: zone.zoneId });
 }
 
 /** Each site the caller may see with its latest survey and that survey's verdict counts. */

@@ -10,10 +10,9 @@ import { notFound, unprocessable } from '../../http/errors';
 import { siteScope } from '../users/users-service';
 import { findVisiblePlan, planExtent } from '../plans/plans-service';
 import { currentAggregate, type Aggregate } from './verdict-aggregates';
-import { answerCache } from './answer-cache';
-import { mapReadingsTask, type MapReadingsPart } from './answer-parts';
+import { keptMapReadings, mapReadingsTask, type MapReadingsPart } from './answer-parts';
 import { runCompute } from '../../compute/compute-pool';
-import { packedAnswer, packedBytes, type PackedAnswer } from '../../http/packed-json';
+import { packedAnswer, type PackedAnswer } from '../../http/packed-json';
 
 function findVisibleSurvey(db: Db, user: SessionUser, surveyId: number) {
   const survey = db.select().from(surveys).where(and(eq(surveys.id, surveyId), eq(surveys.organizationId, user.organizationId))).get();
@@ -75,14 +74,9 @@ export async function surveyMap(db: Db, user: SessionUser, surveyId: number, pla
  * renamed since is built again.
  */
 async function mapReadingsOf(db: Db, surveyId: number, aggregate: Aggregate, planId: number): Promise<MapReadingsPart | null> {
-  const cache = answerCache(db);
-  const part = `map-readings:${planId}`;
-  const kept = cache.get<MapReadingsPart>(aggregate.id, aggregate.inputsKey, part);
+  const kept = keptMapReadings(db, aggregate.id, planId);
   if (kept && serialsStill(db, kept.probes)) return kept;
-  const built = await runCompute(db, mapReadingsTask, { surveyId, aggregateId: aggregate.id, planId });
-  if (built) cache.set(aggregate.id, aggregate.inputsKey, part, built, packedBytes(built.readings));
-  else cache.forget(aggregate.id, aggregate.inputsKey, part);
-  return built;
+  return runCompute(db, mapReadingsTask, { surveyId, aggregateId: aggregate.id, planId });
 }
 
 function serialsStill(db: Db, kept: [number, string][]): boolean {

@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { and, asc, eq, inArray, isNotNull, isNull, or, sql } from 'drizzle-orm';
-import type { Db } from '../../db/client';
+import { oncePerConnection, type Db } from '../../db/client';
 import { logImports, surveys } from '../../db/schema/surveys';
 import { plans as plansTable, zones as zonesTable } from '../../db/schema/plans';
 import { verdictAggregateZones, verdictAggregates } from '../../db/schema/aggregates';
@@ -111,14 +111,7 @@ export function verdictInputs(db: Db, survey: SurveyInputs): VerdictInputs {
  * them, and building and preparing a statement cost more than running it (about 6 ms of the event
  * loop per request at 50 clients, of which well under 1 ms is SQLite's).
  */
-const preparedInputs = new WeakMap<Db, ReturnType<typeof prepareInputQueries>>();
-function inputQueries(db: Db) {
-  let q = preparedInputs.get(db);
-  if (!q) preparedInputs.set(db, (q = prepareInputQueries(db)));
-  return q;
-}
-
-function prepareInputQueries(db: Db) {
+const inputQueries = oncePerConnection((db) => {
   const org = sql.placeholder('org');
   const site = sql.placeholder('site');
   const survey = sql.placeholder('survey');
@@ -141,7 +134,7 @@ function prepareInputQueries(db: Db) {
     fieldReadings: db.select({ n: sql<number>`count(*)`, last: sql<number | null>`max(${readingsTable.id})` }).from(readingsTable)
       .where(and(isNotNull(readingsTable.fieldRecordId), eq(readingsTable.decodeId, sql.placeholder('decode')))).prepare(),
   };
-}
+});
 
 /** Judges every plan's zones from the survey's current readings (task readings on the plan their log named). */
 export function judgeSurvey(survey: Pick<SurveyRow, 'activeDecodeId'>, inputs: Pick<VerdictInputs, 'plans' | 'rule' | 'daylightExcluded' | 'installation' | 'gridRounding' | 'plannedGrids'>, allReadings: JudgeReading[]): JudgeResult {
@@ -299,11 +292,6 @@ function keptAsLive(db: Db, surveyId: number, aggregate: Aggregate): Aggregate {
   if (before !== undefined && before !== aggregate.id) answerCache(db).forgetAggregate(before);
   live.set(surveyId, aggregate.id);
   return aggregate;
-}
-
-/** An aggregate's inputs key (a frozen one's names what its kept parts belong to); null once it is gone. */
-export function aggregateInputsKey(db: Db, aggregateId: number): string | null {
-  return db.select({ key: verdictAggregates.inputsKey }).from(verdictAggregates).where(eq(verdictAggregates.id, aggregateId)).get()?.key ?? null;
 }
 
 /** Keeps an aggregate for good (a sign-off froze it); call inside the sign-off's transaction. */

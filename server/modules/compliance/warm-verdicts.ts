@@ -3,6 +3,8 @@ import type { Deps } from '../../deps';
 import type { JobTx } from '../../lib/job-queue';
 import { surveys } from '../../db/schema/surveys';
 import { currentAggregate } from './verdict-aggregates';
+import { allPartsTask } from './answer-parts';
+import { runCompute } from '../../compute/compute-pool';
 
 /** The queued job (a stored job name) that computes a survey's verdicts ahead of the first reader. */
 export const WARM_VERDICTS_JOB = 'warm-verdicts';
@@ -17,10 +19,15 @@ export function queueWarmVerdicts(tx: JobTx, jobs: Deps['jobs'], surveyId: numbe
   jobs.send(tx, WARM_VERDICTS_JOB, { surveyId }, { maxAttempts: 1 });
 }
 
-/** The job: the survey's current aggregate, computed on a compute thread unless it is kept already (or the survey is signed off). */
+/**
+ * The job: the survey's current aggregate, computed on a compute thread unless it is kept already
+ * (or the survey is signed off), then every zone's points and plan's map readings built beside it,
+ * so the first people to open the zones do not queue behind each other's builds.
+ */
 export async function warmVerdicts(deps: Deps, data: unknown): Promise<void> {
   const { surveyId } = data as { surveyId: number };
   const survey = deps.db.select().from(surveys).where(eq(surveys.id, surveyId)).get();
   if (!survey || survey.status === 'signed_off') return;
-  await currentAggregate(deps.db, survey);
+  const aggregate = await currentAggregate(deps.db, survey);
+  await runCompute(deps.db, allPartsTask, { surveyId, aggregateId: aggregate.id });
 }
