@@ -31,12 +31,13 @@ export function peakRssMb(pid: number): number {
 export async function startBenchServer(dir: string, env: Record<string, string> = {}) {
   const port = await freePort();
   const dbPath = path.join(dir, 'luxtrail.db');
-  // As a real server runs: NODE_ENV=production, so its job runner runs (verdicts computed ahead, mail); no SMTP_URL, so mail is logged.
+  // As `npm start` runs it: MALLOC_ARENA_MAX=2 (README, Configuration) and NODE_ENV=production, so its job runner runs
+  // (verdicts computed ahead, mail); no SMTP_URL, so mail is only logged.
   // BENCH_SERVER_ARGS: extra node options for the server alone, e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof".
   const nodeArgs = (process.env.BENCH_SERVER_ARGS ?? '').split(' ').filter(Boolean);
   const { SMTP_URL: _smtp, ...parentEnv } = process.env;
   const server = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', 'server/index.ts'], {
-    env: { ...parentEnv, HOST: '127.0.0.1', PORT: String(port), DATABASE_URL: dbPath, DATA_DIR: path.join(dir, 'data'), LOG_LEVEL: 'warn', NODE_ENV: 'production', UPLOAD_LIMIT_MB: '400', ...env },
+    env: { ...parentEnv, HOST: '127.0.0.1', PORT: String(port), DATABASE_URL: dbPath, DATA_DIR: path.join(dir, 'data'), LOG_LEVEL: 'warn', NODE_ENV: 'production', MALLOC_ARENA_MAX: '2', UPLOAD_LIMIT_MB: '400', ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   let out = '';

@@ -125,6 +125,8 @@ function buildAllParts(db: Db, input: { surveyId: number; aggregateId: number })
     const groups = loadReadingGroups(db, input.surveyId, members.map(memberIds));
     const parts: StoredPart[] = zoneIds.map((zoneId, i) => {
       const part = zonePointsPart(members[i], groups[i]);
+      // Each zone's readings let go once packed: the heap holds less than every reading plus every part.
+      groups[i] = [];
       return { part: zonePart(zoneId), packed: part.points, extra: part.labels };
     });
     for (const planId of aggregatePlanIds(db, input.aggregateId)) {
