@@ -1,7 +1,7 @@
 import { and, asc, eq } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 import { readings, surveys } from '../../server/db/schema/surveys';
-import { loadCurrentReadings, loadReadingPointGroups, loadReadingsById } from '../../server/modules/compliance/compliance-repository';
+import { loadCurrentReadings, loadReadingPointGroups, loadReadingsById, loadReportPointGroups } from '../../server/modules/compliance/compliance-repository';
 import { toCoreReading } from '../../server/modules/compliance/judge-zones';
 import { decodeBudget } from '../../server/modules/readings/stored-budget';
 import { currentReadingConditions } from '../../server/modules/surveys/surveys-service';
@@ -50,5 +50,16 @@ describe('reading loaders of the verdicts and the report', () => {
     expect(loadReadingPointGroups(t.db, surveyId, [[], []])).toEqual([[], []]);
     // Another survey's reading ids give nothing.
     expect(loadReadingPointGroups(t.db, surveyId + 1, [loaded.map((r) => r.id)])).toEqual([[]]);
+    // A group kept as columns (a zone drawn as merged dots) holds the same places and values, in id order, and its latest time.
+    const [asPoints, asColumns] = loadReportPointGroups(t.db, surveyId, [fewLate.map((r) => r.id), odd.map((r) => r.id)], (g) => g === 0);
+    expect(asPoints).toEqual({ points: fewLate.map(point), columns: null });
+    const byId = [...odd].sort((a, b) => a.id - b.id);
+    const nan = (v: number | null) => v ?? Number.NaN;
+    expect(asColumns.points).toBeNull();
+    expect(asColumns.columns!.count).toBe(odd.length);
+    expect(Array.from(asColumns.columns!.xM)).toEqual(byId.map((r) => nan(r.xM)));
+    expect(Array.from(asColumns.columns!.yM)).toEqual(byId.map((r) => nan(r.yM)));
+    expect(Array.from(asColumns.columns!.lux)).toEqual(byId.map((r) => nan(r.lux)));
+    expect(asColumns.columns!.latestMs).toBe(odd.reduce((latest, r) => (r.timeMs > latest ? r.timeMs : latest), -Infinity));
   });
 });

@@ -9,6 +9,8 @@ import { createBatchWriter } from '@server/modules/imports/batch-writer';
 import { keepReadingCount } from '@server/modules/surveys/reading-counts';
 import { createTestApp, DEMO, type TestApp } from './helpers';
 import { buildSurvey } from './support/factories';
+import { loadReportData, type ReportData } from '@server/modules/reports/report-data';
+import { renderReportPdf } from '@server/modules/reports/report-pdf';
 
 // One 40 m x 25 m hall judged from 200,000 readings: more than any call stack takes as arguments,
 // so a spread or apply over them anywhere on the way (verdicts, sign-off, report) would fail.
@@ -105,5 +107,21 @@ describe('a zone of 200,000 readings', () => {
     expect(text).toMatch(/200,000 points drawn as [\d,]+ dots/);
     // The probe table counts every reading of its coefficient set.
     expect(text).toMatch(/200000/);
+  }, 600_000);
+
+  it('draws the same report from columns as from whole readings (a zone merged into dots keeps only columns)', async () => {
+    const survey = t.db.select().from(surveys).where(eq(surveys.id, surveyId)).get()!;
+    const now = Date.parse('2026-11-20T12:00:00Z');
+    const fromColumns = await loadReportData(t.db, survey, now);
+    const fromReadings = await loadReportData(t.db, survey, now, { allPoints: true });
+    expect(fromColumns.zones[0].columns?.used.count).toBe(expected.points);
+    expect(fromColumns.zones[0].readings).toEqual([]);
+    expect(fromReadings.zones[0].columns).toBeUndefined();
+    expect(fromReadings.zones[0].readings).toHaveLength(expected.points);
+    // pdfkit dates each file when it is made (and its file ID from that): the rest must be byte for byte the same.
+    const undated = async (data: ReportData) => (await renderReportPdf(data, 'lx')).toString('latin1').replace(/\(D:\d{14}Z\)/g, '').replace(/\/ID \[<[0-9a-f]+> <[0-9a-f]+>\]/, '');
+    const [a, b] = [await undated(fromColumns), await undated(fromReadings)];
+    expect(a.length).toBeGreaterThan(10_000);
+    expect(a).toBe(b);
   }, 600_000);
 });

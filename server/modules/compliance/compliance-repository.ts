@@ -118,30 +118,69 @@ export type ReadingPoint = Pick<JudgeReading, 'id' | 'point' | 'xM' | 'yM' | 'ro
  * range in id order (about 1 s for 500,000), where a lookup per id cost 40 queries of random reads.
  */
 export function loadReadingPointGroups(db: Db, surveyId: number, groups: readonly (readonly number[])[]): ReadingPoint[][] {
+  return loadReportPointGroups(db, surveyId, groups, () => true).map((g) => g.points!);
+}
+
+/**
+ * A group's readings as columns: what a drawing of merged dots needs (report-pdf.ts), at about a
+ * sixth of the memory of ReadingPoint objects (each of those holds boxed numbers and its own label).
+ */
+export type PointColumns = { count: number; xM: Float64Array; yM: Float64Array; lux: Float64Array; latestMs: number };
+const ABSENT = Number.NaN;
+
+/**
+ * As loadReadingPointGroups, each group kept either as ReadingPoints (`asPoints(i)`) or as
+ * PointColumns (NaN for a missing position or value), in the same one pass.
+ */
+export function loadReportPointGroups(db: Db, surveyId: number, groups: readonly (readonly number[])[], asPoints: (group: number) => boolean): { points: ReadingPoint[] | null; columns: PointColumns | null }[] {
   const same = sameTexts();
-  return readGroups(db, surveyId, groups, {
+  const out = groups.map((g, i) => (asPoints(i)
+    ? { points: [] as ReadingPoint[], columns: null }
+    : { points: null, columns: { count: 0, xM: new Float64Array(g.length), yM: new Float64Array(g.length), lux: new Float64Array(g.length), latestMs: -Infinity } }));
+  readGroups(db, surveyId, groups, {
     id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, role: readings.role, timeMs: readings.timeMs, lux: readings.lux, luxBound: readings.luxBound, note: readings.note,
-  }, ([id, point, xM, yM, role, timeMs, lux, luxBound, note]): ReadingPoint => ({
-    id: id as number, point: point as string, xM: xM as number | null, yM: yM as number | null, role: same(role as string) as ReadingPoint['role'], timeMs: timeMs as number,
-    lux: lux as number | null, luxBound: same(luxBound as string) as ReadingPoint['luxBound'], note: note as string | null,
-  }));
+  }, (i, [id, point, xM, yM, role, timeMs, lux, luxBound, note]) => {
+    const { points, columns: c } = out[i];
+    if (points) {
+      points.push({
+        id: id as number, point: point as string, xM: xM as number | null, yM: yM as number | null, role: same(role as string) as ReadingPoint['role'], timeMs: timeMs as number,
+        lux: lux as number | null, luxBound: same(luxBound as string) as ReadingPoint['luxBound'], note: note as string | null,
+      });
+    } else if (c) {
+      c.xM[c.count] = (xM as number | null) ?? ABSENT;
+      c.yM[c.count] = (yM as number | null) ?? ABSENT;
+      c.lux[c.count] = (lux as number | null) ?? ABSENT;
+      if ((timeMs as number) > c.latestMs) c.latestMs = timeMs as number;
+      c.count++;
+    }
+  });
+  // Rows came in id order: a stable sort by time gives (time, id) order, as the readings' own order.
+  for (const g of out) g.points?.sort((a, b) => a.timeMs - b.timeMs || a.id - b.id);
+  return out;
 }
 
 /** As loadReadingPointGroups, whole JudgeReadings (every zone's points built in one pass, answer-parts.ts). */
 export function loadReadingGroups(db: Db, surveyId: number, groups: readonly (readonly number[])[]): JudgeReading[][] {
-  return readGroups(db, surveyId, groups, judgeColumns, judgeReadingOfRow());
+  const out = groups.map((): JudgeReading[] => []);
+  const toReading = judgeReadingOfRow();
+  const made = new Map<number, JudgeReading>();
+  readGroups(db, surveyId, groups, judgeColumns, (i, row) => {
+    // A reading in two groups is one object.
+    let r = made.get(row[0] as number);
+    if (!r) made.set(row[0] as number, (r = toReading(row)));
+    out[i].push(r);
+  });
+  for (const list of out) list.sort((a, b) => a.timeMs - b.timeMs || a.id - b.id);
+  return out;
 }
 
-/** One pass over the groups' id range, each row read once and handed to every group naming it; each group in (time, id) order. */
-function readGroups<R extends { id: number; timeMs: number }>(
-  db: Db, surveyId: number, groups: readonly (readonly number[])[], columns: Parameters<Db['select']>[0] & object, toReading: (row: unknown[]) => R,
-): R[][] {
-  const out = groups.map((): R[] => []);
+/** One pass over the groups' id range (columns begin with the id), each row handed to every group naming it, in id order. */
+function readGroups(db: Db, surveyId: number, groups: readonly (readonly number[])[], columns: Parameters<Db['select']>[0] & object, add: (group: number, row: unknown[]) => void): void {
   let lo = Infinity;
   let hi = -Infinity;
   let total = 0;
   for (const g of groups) for (const id of g) { if (id < lo) lo = id; if (id > hi) hi = id; total++; }
-  if (total === 0) return out;
+  if (total === 0) return;
   // The groups each id belongs to: by offset from the smallest id while the ids are dense (a survey's readings are), else by map.
   const dense = hi - lo < 4 * total + 100_000;
   const first = dense ? new Int32Array(hi - lo + 1) : null;
@@ -156,15 +195,9 @@ function readGroups<R extends { id: number; timeMs: number }>(
   for (const row of db.$client.prepare(query.sql).raw().iterate(...query.params) as IterableIterator<unknown[]>) {
     const id = row[0] as number;
     const at = first ? first[id - lo] - 1 : -1;
-    const more = sparse.get(id);
-    if (at < 0 && !more) continue;
-    const r = toReading(row);
-    if (at >= 0) out[at].push(r);
-    for (const i of more ?? []) out[i].push(r);
+    if (at >= 0) add(at, row);
+    for (const i of sparse.get(id) ?? []) add(i, row);
   }
-  // Rows came in id order: a stable sort by time gives (time, id) order, as the readings' own order.
-  for (const list of out) list.sort((a, b) => a.timeMs - b.timeMs || a.id - b.id);
-  return out;
 }
 
 export type UsedCoefficientSet = {

@@ -28,7 +28,7 @@ async function buildReportPdf(db: Db, input: ReportPdfInput, progress: (f: numbe
   if (!row) throw new Error(`Survey ${input.surveyId} does not exist`);
   progress(0.05);
   const survey = input.signed ? { ...row, ...input.signed } : row;
-  const data = await loadReportData(db, survey, input.now);
+  const data = await loadReportData(db, survey, input.now, { allPoints: input.sessions.length > 0 });
   // Notes on readings the visits' conditions put in doubt (before lights on, warm-up, burn-in, daylight).
   const judged = () => data.zones.flatMap((z) => z.readings.concat(z.wallBandReadings));
   const fieldConditions = input.sessions.length ? { sessions: input.sessions, warmUpMinutes: WARM_UP_MS / 60_000, notes: conditionNotes(db, survey, judged()) } : undefined;

@@ -8,7 +8,8 @@ import { CHECK_LABELS, VERDICT_LABELS, type ZoneVerdict } from '@shared/schemas/
 import { labelOfUseType, ZONE_KIND_LABELS } from '@shared/schemas/zones';
 import { formatDisplayNumber } from '@shared/display-number';
 import { formatCalendarDay, formatDateTime as formatSiteDateTime, formatDay } from '@shared/datetime';
-import type { ReportData } from './report-data';
+import { MAX_DRAWN_POINTS, type ReportData } from './report-data';
+import type { PointColumns, ReadingPoint } from '../compliance/compliance-repository';
 
 const require = createRequire(import.meta.url);
 /** The shipped typeface (Instrument Sans, SIL OFL), embedded from @fontsource's WOFF files. */
@@ -248,7 +249,10 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx', onPag
 
 function surveyTime(data: ReportData): number {
   let latest = -Infinity;
-  for (const z of data.zones) for (const r of z.readings) if (r.timeMs > latest) latest = r.timeMs;
+  for (const z of data.zones) {
+    for (const r of z.readings) if (r.timeMs > latest) latest = r.timeMs;
+    if (z.columns && z.columns.used.latestMs > latest) latest = z.columns.used.latestMs;
+  }
   return latest === -Infinity ? data.generatedAt : latest;
 }
 
@@ -469,8 +473,10 @@ function drawZonePlan(doc: PDFKit.PDFDocument, z: ReportData['zones'][number], u
   doc.polygon(...z.polygon.map((p) => [tx(p[0]), ty(p[1])] as [number, number])).lineWidth(1.2).strokeColor(INK).stroke();
 
   const target = z.targetLux;
-  const label = z.readings.length + z.wallBandReadings.length <= 80;
-  const dots = z.readings.length + z.wallBandReadings.length > MAX_DRAWN_POINTS ? thinnedDots(z, tx, ty, target) : null;
+  const columns = z.columns ?? { used: columnsOf(z.readings), band: columnsOf(z.wallBandReadings) };
+  const points = columns.used.count + columns.band.count;
+  const label = points <= 80;
+  const dots = points > MAX_DRAWN_POINTS ? thinnedDots(columns, tx, ty, target) : null;
   if (dots) {
     for (const d of dots.used) doc.circle(d.x, d.y, 2.6).fillColor(d.colour).fill();
     for (const d of dots.band) doc.circle(d.x, d.y, 2.6).lineWidth(0.7).strokeColor(MUTED).stroke();
@@ -506,7 +512,7 @@ function drawZonePlan(doc: PDFKit.PDFDocument, z: ReportData['zones'][number], u
   );
   if (dots) {
     doc.font('body').fontSize(7).fillColor(MUTED).text(
-      `${(z.readings.length + z.wallBandReadings.length).toLocaleString('en-GB')} points drawn as ${(dots.used.length + dots.band.length).toLocaleString('en-GB')} dots: each dot stands for the points under it, red when any of them is below Em.`,
+      `${points.toLocaleString('en-GB')} points drawn as ${(dots.used.length + dots.band.length).toLocaleString('en-GB')} dots: each dot stands for the points under it, red when any of them is below Em.`,
       MARGIN + 4, top + 4, { width: boxW - 8, lineBreak: false },
     );
   }
@@ -514,30 +520,42 @@ function drawZonePlan(doc: PDFKit.PDFDocument, z: ReportData['zones'][number], u
   doc.y = top + boxH + 8;
 }
 
-/** Above this many points a zone's drawing merges the points under each dot (a dot is 5.2 pt wide). */
-const MAX_DRAWN_POINTS = 2000;
+/** ReadingPoints as columns (NaN: no position or value). */
+function columnsOf(points: readonly ReadingPoint[]): PointColumns {
+  const c: PointColumns = { count: points.length, xM: new Float64Array(points.length), yM: new Float64Array(points.length), lux: new Float64Array(points.length), latestMs: -Infinity };
+  points.forEach((r, i) => {
+    c.xM[i] = r.xM ?? Number.NaN;
+    c.yM[i] = r.yM ?? Number.NaN;
+    c.lux[i] = r.lux ?? Number.NaN;
+    if (r.timeMs > c.latestMs) c.latestMs = r.timeMs;
+  });
+  return c;
+}
 
 /**
  * One dot per 5.2 pt cell of the drawing holding points: red if any point in it is below Em,
  * grey if all are faults, else green; wall-band cells hollow. Bounds the drawing whatever the
  * zone's size (at most about 100 x 50 cells), and hides no shortfall.
  */
-function thinnedDots(z: ReportData['zones'][number], tx: (x: number) => number, ty: (y: number) => number, target: number | null) {
+function thinnedDots(z: { used: PointColumns; band: PointColumns }, tx: (x: number) => number, ty: (y: number) => number, target: number | null) {
   const cell = 5.2;
   const used = new Map<string, { x: number; y: number; below: boolean; value: boolean }>();
-  for (const r of z.readings) {
-    if (r.xM === null || r.yM === null) continue;
-    const x = tx(r.xM), y = ty(r.yM);
+  const u = z.used;
+  for (let i = 0; i < u.count; i++) {
+    if (Number.isNaN(u.xM[i]) || Number.isNaN(u.yM[i])) continue;
+    const x = tx(u.xM[i]), y = ty(u.yM[i]);
     const key = `${Math.floor(x / cell)},${Math.floor(y / cell)}`;
     const d = used.get(key) ?? { x: (Math.floor(x / cell) + 0.5) * cell, y: (Math.floor(y / cell) + 0.5) * cell, below: false, value: false };
-    if (r.lux !== null) d.value = true;
-    if (r.lux !== null && target !== null && r.lux < target) d.below = true;
+    const lux = u.lux[i];
+    if (!Number.isNaN(lux)) d.value = true;
+    if (!Number.isNaN(lux) && target !== null && lux < target) d.below = true;
     used.set(key, d);
   }
   const band = new Map<string, { x: number; y: number }>();
-  for (const r of z.wallBandReadings) {
-    if (r.xM === null || r.yM === null) continue;
-    const x = tx(r.xM), y = ty(r.yM);
+  const b = z.band;
+  for (let i = 0; i < b.count; i++) {
+    if (Number.isNaN(b.xM[i]) || Number.isNaN(b.yM[i])) continue;
+    const x = tx(b.xM[i]), y = ty(b.yM[i]);
     const key = `${Math.floor(x / cell)},${Math.floor(y / cell)}`;
     if (!band.has(key) && !used.has(key)) band.set(key, { x: (Math.floor(x / cell) + 0.5) * cell, y: (Math.floor(y / cell) + 0.5) * cell });
   }
