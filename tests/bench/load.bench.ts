@@ -107,7 +107,7 @@ async function main() {
       db.prepare("update log_imports set status = 'done', progress = 1, rows_read = ?, reading_count = ?, finished_at = ? where id = ?").run(READINGS, READINGS, Date.now(), importId);
       db.prepare('insert into reading_counts (decode_id, import_id, readings) values (?, ?, ?)').run(decodeId, importId, READINGS);
       db.prepare('update surveys set active_decode_id = ? where id = ?').run(decodeId, big.id);
-      // As an accepted import does (imports-service, queueWarmVerdicts): the verdicts and each zone's points are computed ahead.
+      // As an accepted import does (import-runner, queueWarmVerdicts; no import threads to wait for here): the verdicts and each zone's points are computed ahead.
       warmJobId = Number(db.prepare("insert into jobs (name, data, status, attempts, max_attempts, run_at, created_at) values (?, ?, 'queued', 0, 1, ?, ?)")
         .run(WARM_VERDICTS_JOB, JSON.stringify({ surveyId: big.id }), Date.now(), Date.now()).lastInsertRowid);
     })();

@@ -1,3 +1,4 @@
+import { IMPORT_THREADS_IDLE_MS } from '@server/modules/imports/import-runner';
 import { describe, it, expect, afterEach } from 'vitest';
 import fs from 'node:fs';
 import os from 'node:os';
@@ -28,8 +29,10 @@ function switchableTransport(mode: 'up' | 'down' | 'hang' = 'down') {
 }
 
 /** The demo seed queues mail of its own (the spring sign-off): deliver it first so each test sees only its own. */
+/** Delivers the seed's mail and runs its other jobs (the demo imports' verdicts wait for the import threads to end), so the tests count only their own. */
 async function flushSeedMail(t: TestApp, s: { state: { mode: 'up' | 'down' | 'hang' } }, then: 'up' | 'down' | 'hang') {
   s.state.mode = 'up';
+  t.clock.advance(IMPORT_THREADS_IDLE_MS + 1_000);
   await t.deliverMail();
   s.state.mode = then;
 }
@@ -70,6 +73,8 @@ describe('mail delivery when the mail server fails between the commit and the se
     const built = first.db.select().from(outboxAttachments).where(eq(outboxAttachments.messageId, mail.id)).all();
     expect(built).toHaveLength(1);
     expect(down.sent).toHaveLength(0);
+    // The restarted process's clock carries on from here.
+    const stoppedAt = first.clock.now();
     first.db.$client.close();
     apps.splice(0);
 
@@ -77,6 +82,7 @@ describe('mail delivery when the mail server fails between the commit and the se
     const up = switchableTransport('up');
     const second = await createTestApp({ databaseUrl }, { seed: false, transport: up.transport });
     apps.push(second);
+    second.clock.set(stoppedAt);
     await prepareStart(second.deps);
     expect(await second.deliverMail()).toBe(0); // not before its back-off
     second.clock.advance(retryDelayMs(1));
@@ -100,12 +106,15 @@ describe('mail delivery when the mail server fails between the commit and the se
     await new Promise((r) => setImmediate(r));
     const mailId = first.lastMail()!.id;
     expect(first.db.select().from(jobs).all().find((j) => (j.data as { messageId: number }).messageId === mailId)?.status).toBe('running');
+    // The restarted process's clock carries on from here.
+    const stoppedAt = first.clock.now();
     first.db.$client.close();
     apps.splice(0);
 
     const up = switchableTransport('up');
     const second = await createTestApp({ databaseUrl }, { seed: false, transport: up.transport });
     apps.push(second);
+    second.clock.set(stoppedAt);
     const recovered = await prepareStart(second.deps);
     expect(recovered.jobsRequeued).toBeGreaterThanOrEqual(1);
     await second.deliverMail();

@@ -6,6 +6,7 @@ import type { AggregateSummary } from '@server/modules/compliance/verdict-aggreg
 import { surveys } from '@server/db/schema/surveys';
 import { verdictInputs } from '@server/modules/compliance/verdict-aggregates';
 import { WARM_VERDICTS_JOB } from '@server/modules/compliance/warm-verdicts';
+import { IMPORT_THREADS_IDLE_MS } from '@server/modules/imports/import-runner';
 import { DEMO_START } from './helpers';
 import { appWithTestProbes, newDraftSurvey, testWalkCsv, uploadAndWait } from './support/factories';
 
@@ -21,6 +22,10 @@ describe('verdicts computed ahead after an import', () => {
     expect(ofSurvey().map((j) => j.data)).toEqual([{ surveyId }]);
     expect(t.db.select().from(verdictAggregates).where(eq(verdictAggregates.surveyId, surveyId)).all()).toEqual([]);
 
+    // It waits for the import threads to end (IMPORT_THREADS_IDLE_MS), then runs.
+    await t.deliverMail();
+    expect(ofSurvey().map((j) => j.status)).toEqual(['queued']);
+    t.clock.advance(IMPORT_THREADS_IDLE_MS + 1_000);
     await t.deliverMail();
     const survey = t.db.select().from(surveys).where(eq(surveys.id, surveyId)).get()!;
     const kept = t.db.select().from(verdictAggregates).where(eq(verdictAggregates.surveyId, surveyId)).all();

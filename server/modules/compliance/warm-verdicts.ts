@@ -13,10 +13,11 @@ export const WARM_VERDICTS_JOB = 'warm-verdicts';
  * Queues the verdicts of a survey whose readings just changed wholesale (an import accepted, a
  * re-decode), in the transaction of that change: judging 500,000 readings takes seconds, and the
  * first person to open the verdicts should find them kept rather than wait. One attempt: a failure
- * only means the next reader computes them.
+ * only means the next reader computes them. `runAt`: not before then (an import lets its threads
+ * end first, so their heaps and the judging's are not held at once).
  */
-export function queueWarmVerdicts(tx: JobTx, jobs: Deps['jobs'], surveyId: number): void {
-  jobs.send(tx, WARM_VERDICTS_JOB, { surveyId }, { maxAttempts: 1 });
+export function queueWarmVerdicts(tx: JobTx, jobs: Deps['jobs'], surveyId: number, runAt?: number): void {
+  jobs.send(tx, WARM_VERDICTS_JOB, { surveyId }, { maxAttempts: 1, ...(runAt !== undefined ? { runAt } : {}) });
 }
 
 /**

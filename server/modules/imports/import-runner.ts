@@ -251,7 +251,8 @@ async function runImport(deps: Deps, job: ImportJob): Promise<ImportOutcome> {
     tx.update(logImports).set({ status: 'done', progress: 1, rowsRead: end.rowsRead, readingCount: end.readingCount, placement: end.placement, warnings, errors: [], finishedAt: now })
       .where(eq(logImports.id, job.importId)).run();
     keepReadingCount(tx, decodeId, job.importId, end.readingCount);
-    queueWarmVerdicts(tx, deps.jobs, job.surveyId);
+    // Once the import threads have ended (if no other import keeps them): at 50 clients the judging and the idle threads together passed 500 MB.
+    queueWarmVerdicts(tx, deps.jobs, job.surveyId, now + IMPORT_THREADS_IDLE_MS + 1_000);
     recordAudit(tx, {
       organizationId: job.organizationId, actorId: job.actorId, entityType: 'log_import', entityId: job.importId, surveyId: job.surveyId, action: 'imported',
       after: { rows: end.rowsRead, readings: end.readingCount, decodeId, placement: end.placement, warnings: end.warningCount }, at: now,
