@@ -9,6 +9,7 @@ import type { MapReading } from '@shared/schemas/plans';
 import { createZoneAssigner } from '@shared/spatial/zone-assignment';
 import { computeTask } from '../../compute/compute-pool';
 import { packJsonField, type PackedField } from '../../http/packed-json';
+import { answerCache } from './answer-cache';
 import { photoPointKey } from '../field/field-service';
 import { loadReadingGroups, loadReadingsById } from './compliance-repository';
 import type { JudgeReading } from './judge-zones';
@@ -183,16 +184,42 @@ function storeParts(db: Db, aggregateId: number, parts: StoredPart[], options: {
   }).immediate();
 }
 
-/** A kept zone part, or undefined. Read on every zone request: one prepared statement, no JSON. */
+/** A kept zone part, or undefined. Read on every zone request: from the process's cache, else one prepared statement. */
 export function keptZonePoints(db: Db, aggregateId: number, zoneId: number): ZonePointsPart | undefined {
-  const row = partQueries(db).part.get({ aggregate: aggregateId, part: zonePart(zoneId) });
-  return row && { points: packedOf('points', row), labels: row.extra };
+  return keptPart(db, aggregateId, zonePart(zoneId), (row) => ({ points: packedOf('points', row), labels: row.extra }));
 }
 
 /** A kept map part, or undefined. */
 export function keptMapReadings(db: Db, aggregateId: number, planId: number): MapReadingsPart | undefined {
-  const row = partQueries(db).part.get({ aggregate: aggregateId, part: mapPart(planId) });
-  return row && { readings: packedOf('readings', row), probes: JSON.parse(row.extra) as [number, string][] };
+  return keptPart(db, aggregateId, mapPart(planId), (row) => ({ readings: packedOf('readings', row), probes: JSON.parse(row.extra) as [number, string][] }));
+}
+
+/** Keeps in the process a zone part a compute thread just built (and stored). */
+export function rememberZonePoints(db: Db, aggregateId: number, zoneId: number, part: ZonePointsPart): void {
+  answerCache(db).set(aggregateId, PART_KEY, zonePart(zoneId), part, part.points.deflated.byteLength + part.labels.length);
+}
+
+/** Keeps in the process a map part a compute thread just built (and stored). */
+export function rememberMapReadings(db: Db, aggregateId: number, planId: number, part: MapReadingsPart): void {
+  answerCache(db).set(aggregateId, PART_KEY, mapPart(planId), part, part.readings.deflated.byteLength);
+}
+
+/**
+ * Parts are also kept in the process (answer-cache.ts, beside the summaries): a zone request
+ * would otherwise read its part's bytes (about 225 KB for 12,500 points) from SQLite into a new
+ * Buffer each time, and at 50 clients that churn held tens of MB of dead Buffers between collections.
+ */
+const PART_KEY = 'part';
+type PartRow = { deflated: Buffer; crc: number; length: number; extra: string };
+function keptPart<T>(db: Db, aggregateId: number, part: string, from: (row: PartRow) => T): T | undefined {
+  const cache = answerCache(db);
+  const kept = cache.get<T>(aggregateId, PART_KEY, part);
+  if (kept) return kept;
+  const row = partQueries(db).part.get({ aggregate: aggregateId, part });
+  if (!row) return undefined;
+  const value = from(row);
+  cache.set(aggregateId, PART_KEY, part, value, row.deflated.byteLength + row.extra.length);
+  return value;
 }
 
 function packedOf<K extends string, V>(field: K, row: { deflated: Buffer; crc: number; length: number }): PackedField<K, V> {

@@ -20,7 +20,7 @@ import { getVisibleTarget, presentTarget } from '../targets/targets-service';
 import type { JudgedZone } from './judge-zones';
 import { loadUsedCoefficientSets, type UsedCoefficientSet } from './compliance-repository';
 import { aggregateZoneMembers, coreInstallation, currentAggregate, type StoredZone, type ZoneMembers } from './verdict-aggregates';
-import { hasPointLabel, keptZonePoints, zonePointsTask, type ZonePointsPart } from './answer-parts';
+import { hasPointLabel, keptZonePoints, rememberZonePoints, zonePointsTask, type ZonePointsPart } from './answer-parts';
 import { runCompute } from '../../compute/compute-pool';
 import { packedAnswer, type PackedAnswer } from '../../http/packed-json';
 import { notesOfZone, photosOfZone } from '../field/field-service';
@@ -191,7 +191,11 @@ export async function getZoneDetail(db: Db, user: SessionUser, surveyId: number,
 async function zonePointsOf(db: Db, surveyId: number, v: SurveyVerdicts, zone: FrozenZone): Promise<ZonePointsPart | null> {
   // Sign-offs frozen before version 2 name their readings inline: rare and old, built each time.
   if (zone.readingIds || v.aggregateId === null) return runCompute(db, zonePointsTask, { surveyId, members: zoneMembers(db, v, zone) });
-  return keptZonePoints(db, v.aggregateId, zone.zoneId) ?? runCompute(db, zonePointsTask, { surveyId, aggregateId: v.aggregateId, zoneId: zone.zoneId });
+  const kept = keptZonePoints(db, v.aggregateId, zone.zoneId);
+  if (kept) return kept;
+  const built = await runCompute(db, zonePointsTask, { surveyId, aggregateId: v.aggregateId, zoneId: zone.zoneId });
+  if (built) rememberZonePoints(db, v.aggregateId, zone.zoneId, built);
+  return built;
 }
 
 /** Each site the caller may see with its latest survey and that survey's verdict counts. */

@@ -10,7 +10,7 @@ import { notFound, unprocessable } from '../../http/errors';
 import { siteScope } from '../users/users-service';
 import { findVisiblePlan, planExtent } from '../plans/plans-service';
 import { currentAggregate, type Aggregate } from './verdict-aggregates';
-import { keptMapReadings, mapReadingsTask, type MapReadingsPart } from './answer-parts';
+import { keptMapReadings, mapReadingsTask, rememberMapReadings, type MapReadingsPart } from './answer-parts';
 import { runCompute } from '../../compute/compute-pool';
 import { packedAnswer, type PackedAnswer } from '../../http/packed-json';
 
@@ -76,7 +76,9 @@ export async function surveyMap(db: Db, user: SessionUser, surveyId: number, pla
 async function mapReadingsOf(db: Db, surveyId: number, aggregate: Aggregate, planId: number): Promise<MapReadingsPart | null> {
   const kept = keptMapReadings(db, aggregate.id, planId);
   if (kept && serialsStill(db, kept.probes)) return kept;
-  return runCompute(db, mapReadingsTask, { surveyId, aggregateId: aggregate.id, planId });
+  const built = await runCompute(db, mapReadingsTask, { surveyId, aggregateId: aggregate.id, planId });
+  if (built) rememberMapReadings(db, aggregate.id, planId, built);
+  return built;
 }
 
 function serialsStill(db: Db, kept: [number, string][]): boolean {
