@@ -3,12 +3,13 @@ import type { Db } from '../../db/client';
 /**
  * What the verdict routes keep per verdict aggregate between requests in the process (its parsed
  * summary, and the packed parts most recently read from the database, answer-parts.ts), least
- * recently used first out once the kept bytes pass ANSWER_CACHE_BYTES. Every entry is named by the aggregate's id and inputs key: an aggregate
- * never changes once written (a change of any input makes a new one, whose id is new: ids are
- * AUTOINCREMENT, never reused), so an entry stays right for as long as its aggregate is the answer.
- * One cache per database connection (tests open many in one process).
+ * recently used first out once the kept bytes pass ANSWER_CACHE_BYTES: enough for a
+ * 500,000-reading survey's 40 zone parts and map (about 9 MB) and a few dozen summaries. Every
+ * entry is named by the aggregate's id (and a key: the summary's inputs key, or a fixed one for
+ * parts): an aggregate never changes once written (a change of any input makes a new one, whose id
+ * is new: ids are AUTOINCREMENT, never reused), so an entry stays right for as long as its
+ * aggregate is the answer. One cache per database connection (tests open many in one process).
  */
-/** A 500,000-reading survey's 40 zone parts and map (about 9 MB) and a few dozen summaries. */
 export const ANSWER_CACHE_BYTES = 24 * 1024 * 1024;
 
 type Entry = { value: unknown; bytes: number; aggregateId: number };

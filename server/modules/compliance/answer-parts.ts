@@ -196,12 +196,12 @@ export function keptMapReadings(db: Db, aggregateId: number, planId: number): Ma
 
 /** Keeps in the process a zone part a compute thread just built (and stored). */
 export function rememberZonePoints(db: Db, aggregateId: number, zoneId: number, part: ZonePointsPart): void {
-  answerCache(db).set(aggregateId, PART_KEY, zonePart(zoneId), part, part.points.deflated.byteLength + part.labels.length);
+  keepInProcess(db, aggregateId, zonePart(zoneId), part, part.points, part.labels);
 }
 
 /** Keeps in the process a map part a compute thread just built (and stored). */
 export function rememberMapReadings(db: Db, aggregateId: number, planId: number, part: MapReadingsPart): void {
-  answerCache(db).set(aggregateId, PART_KEY, mapPart(planId), part, part.readings.deflated.byteLength);
+  keepInProcess(db, aggregateId, mapPart(planId), part, part.readings, JSON.stringify(part.probes));
 }
 
 /**
@@ -218,8 +218,13 @@ function keptPart<T>(db: Db, aggregateId: number, part: string, from: (row: Part
   const row = partQueries(db).part.get({ aggregate: aggregateId, part });
   if (!row) return undefined;
   const value = from(row);
-  cache.set(aggregateId, PART_KEY, part, value, row.deflated.byteLength + row.extra.length);
+  keepInProcess(db, aggregateId, part, value, row, row.extra);
   return value;
+}
+
+/** Counted as its stored bytes: the deflated part and its extra text. */
+function keepInProcess(db: Db, aggregateId: number, part: string, value: unknown, packed: { deflated: Uint8Array }, extra: string): void {
+  answerCache(db).set(aggregateId, PART_KEY, part, value, packed.deflated.byteLength + extra.length);
 }
 
 function packedOf<K extends string, V>(field: K, row: { deflated: Buffer; crc: number; length: number }): PackedField<K, V> {

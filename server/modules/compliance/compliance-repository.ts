@@ -139,19 +139,24 @@ export function loadReportPointGroups(db: Db, surveyId: number, groups: readonly
     : { points: null, columns: { count: 0, xM: new Float64Array(g.length), yM: new Float64Array(g.length), lux: new Float64Array(g.length), latestMs: -Infinity } }));
   readGroups(db, surveyId, groups, {
     id: readings.id, point: readings.point, xM: readings.xM, yM: readings.yM, role: readings.role, timeMs: readings.timeMs, lux: readings.lux, luxBound: readings.luxBound, note: readings.note,
-  }, (i, [id, point, xM, yM, role, timeMs, lux, luxBound, note]) => {
-    const { points, columns: c } = out[i];
-    if (points) {
-      points.push({
-        id: id as number, point: point as string, xM: xM as number | null, yM: yM as number | null, role: same(role as string) as ReadingPoint['role'], timeMs: timeMs as number,
-        lux: lux as number | null, luxBound: same(luxBound as string) as ReadingPoint['luxBound'], note: note as string | null,
-      });
-    } else if (c) {
-      c.xM[c.count] = (xM as number | null) ?? ABSENT;
-      c.yM[c.count] = (yM as number | null) ?? ABSENT;
-      c.lux[c.count] = (lux as number | null) ?? ABSENT;
-      if ((timeMs as number) > c.latestMs) c.latestMs = timeMs as number;
-      c.count++;
+  }, ([id, point, xM, yM, role, timeMs, lux, luxBound, note], inGroups) => {
+    // A reading in two groups kept as points is one object.
+    let r: ReadingPoint | undefined;
+    for (const i of inGroups) {
+      const { points, columns: c } = out[i];
+      if (points) {
+        r ??= {
+          id: id as number, point: point as string, xM: xM as number | null, yM: yM as number | null, role: same(role as string) as ReadingPoint['role'], timeMs: timeMs as number,
+          lux: lux as number | null, luxBound: same(luxBound as string) as ReadingPoint['luxBound'], note: note as string | null,
+        };
+        points.push(r);
+      } else if (c) {
+        c.xM[c.count] = (xM as number | null) ?? ABSENT;
+        c.yM[c.count] = (yM as number | null) ?? ABSENT;
+        c.lux[c.count] = (lux as number | null) ?? ABSENT;
+        if ((timeMs as number) > c.latestMs) c.latestMs = timeMs as number;
+        c.count++;
+      }
     }
   });
   // Rows came in id order: a stable sort by time gives (time, id) order, as the readings' own order.
@@ -163,19 +168,20 @@ export function loadReportPointGroups(db: Db, surveyId: number, groups: readonly
 export function loadReadingGroups(db: Db, surveyId: number, groups: readonly (readonly number[])[]): JudgeReading[][] {
   const out = groups.map((): JudgeReading[] => []);
   const toReading = judgeReadingOfRow();
-  const made = new Map<number, JudgeReading>();
-  readGroups(db, surveyId, groups, judgeColumns, (i, row) => {
+  readGroups(db, surveyId, groups, judgeColumns, (row, inGroups) => {
     // A reading in two groups is one object.
-    let r = made.get(row[0] as number);
-    if (!r) made.set(row[0] as number, (r = toReading(row)));
-    out[i].push(r);
+    const r = toReading(row);
+    for (const i of inGroups) out[i].push(r);
   });
   for (const list of out) list.sort((a, b) => a.timeMs - b.timeMs || a.id - b.id);
   return out;
 }
 
-/** One pass over the groups' id range (columns begin with the id), each row handed to every group naming it, in id order. */
-function readGroups(db: Db, surveyId: number, groups: readonly (readonly number[])[], columns: Parameters<Db['select']>[0] & object, add: (group: number, row: unknown[]) => void): void {
+/**
+ * One pass over the groups' id range (columns begin with the id), in id order: each row named by a
+ * group is handed over once, with the groups naming it (an array reused from row to row).
+ */
+function readGroups(db: Db, surveyId: number, groups: readonly (readonly number[])[], columns: Parameters<Db['select']>[0] & object, add: (row: unknown[], inGroups: readonly number[]) => void): void {
   let lo = Infinity;
   let hi = -Infinity;
   let total = 0;
@@ -192,11 +198,14 @@ function readGroups(db: Db, surveyId: number, groups: readonly (readonly number[
     }
   });
   const query = db.select(columns).from(readings).where(and(eq(readings.surveyId, surveyId), between(readings.id, lo, hi))).toSQL();
+  const inGroups: number[] = [];
   for (const row of db.$client.prepare(query.sql).raw().iterate(...query.params) as IterableIterator<unknown[]>) {
     const id = row[0] as number;
     const at = first ? first[id - lo] - 1 : -1;
-    if (at >= 0) add(at, row);
-    for (const i of sparse.get(id) ?? []) add(i, row);
+    inGroups.length = 0;
+    if (at >= 0) inGroups.push(at);
+    for (const i of sparse.get(id) ?? []) inGroups.push(i);
+    if (inGroups.length > 0) add(row, inGroups);
   }
 }
 

@@ -473,10 +473,9 @@ function drawZonePlan(doc: PDFKit.PDFDocument, z: ReportData['zones'][number], u
   doc.polygon(...z.polygon.map((p) => [tx(p[0]), ty(p[1])] as [number, number])).lineWidth(1.2).strokeColor(INK).stroke();
 
   const target = z.targetLux;
-  const columns = z.columns ?? { used: columnsOf(z.readings), band: columnsOf(z.wallBandReadings) };
-  const points = columns.used.count + columns.band.count;
+  const points = z.columns ? z.columns.used.count + z.columns.band.count : z.readings.length + z.wallBandReadings.length;
   const label = points <= 80;
-  const dots = points > MAX_DRAWN_POINTS ? thinnedDots(columns, tx, ty, target) : null;
+  const dots = points > MAX_DRAWN_POINTS ? thinnedDots(z.columns ?? { used: columnsOf(z.readings), band: columnsOf(z.wallBandReadings) }, tx, ty, target) : null;
   if (dots) {
     for (const d of dots.used) doc.circle(d.x, d.y, 2.6).fillColor(d.colour).fill();
     for (const d of dots.band) doc.circle(d.x, d.y, 2.6).lineWidth(0.7).strokeColor(MUTED).stroke();
