@@ -2,7 +2,7 @@ import { useMemo, useState } from 'react';
 import { AlertTriangle, CloudOff, Download, RefreshCw, Wifi } from 'lucide-react';
 import { useUnits, formatNumber } from '@/lib/units';
 import { cx } from '@/components/ui/cx';
-import { formatClock } from '@shared/datetime';
+import { formatClock, formatDateTime } from '@shared/datetime';
 import { ApiRequestError } from '@/lib/api-client';
 import { useFieldSurvey } from '../offline/use-field-survey';
 import { fieldEntries, fieldPoints, nextPoint, zoneItems, zoneProgress, type FieldEntry as Entry, type FieldPoint } from '../field-model';
@@ -88,7 +88,8 @@ export function FieldView({ surveyId, userName }: { surveyId: number; userName: 
             <Download className="h-4 w-4" aria-hidden />{f.takingOffline ? 'Taking offline…' : f.snapshot ? 'Refresh offline copy' : 'Take offline'}
           </button>
         </div>
-        {f.snapshot && <p className="text-sm text-ink-700" data-testid="offline-copy">On this phone since {new Date(f.snapshot.savedAt).toLocaleString('en-GB', { timeZone: state.survey.siteTimeZone, dateStyle: 'medium', timeStyle: 'short' })} (site time)</p>}
+        {f.snapshot && <p className="text-sm text-ink-700" data-testid="offline-copy">On this phone since {formatDateTime(f.snapshot.savedAt, state.survey.siteTimeZone)} (site time)</p>}
+        {f.retryAt !== null && waiting > 0 && <p className="text-sm text-ink-700" data-testid="sync-retry">{f.online ? 'The server did not take everything' : 'The server cannot be reached'}; trying again at {formatClock(f.retryAt, state.survey.siteTimeZone, { seconds: true })} (site time).</p>}
         {offlineError && <p role="alert" className="rounded-lg bg-short-50 p-3 text-sm font-semibold text-short-700">{offlineError}</p>}
         {f.fromPhone && <p className="rounded-lg bg-ink-900 p-3 text-sm font-semibold text-white">Showing the copy on this phone. New records wait here and sync when the connection returns.</p>}
         {state.survey.refusal && <p role="alert" className="rounded-lg bg-short-50 p-3 text-sm font-semibold text-short-700">{state.survey.refusal}</p>}

@@ -4,7 +4,12 @@
 import { api, ApiRequestError } from '@/lib/api-client';
 import { markRefused, outboxItems, removeItem, type OutboxItem } from './field-db';
 
-export type SyncOutcome = { sent: number; refused: number; stoppedOffline: boolean };
+/**
+ * Why a pass stopped before the end: the server could not be reached (no network, whatever
+ * navigator.onLine says), or it answered with a fault or asked to wait (5xx, 401, 429).
+ */
+export type SyncStop = 'unreachable' | 'server' | null;
+export type SyncOutcome = { sent: number; refused: number; stopped: SyncStop };
 
 async function send(item: OutboxItem): Promise<void> {
   if (item.kind === 'session') await api.post(`/surveys/${item.surveyId}/field/sessions`, item.body);
@@ -23,12 +28,17 @@ async function send(item: OutboxItem): Promise<void> {
   }
 }
 
+/** A refusal the surveyor must see (the item will never pass as it is), not a reason to wait. */
+function isRefusal(e: unknown): e is ApiRequestError {
+  return e instanceof ApiRequestError && e.status >= 400 && e.status < 500 && e.status !== 401 && e.status !== 429;
+}
+
 let running: Promise<SyncOutcome> | null = null;
 
 /** Runs one pass over the waiting items (one pass at a time per page). */
 export function syncOutbox(): Promise<SyncOutcome> {
   running ??= (async () => {
-    const out: SyncOutcome = { sent: 0, refused: 0, stoppedOffline: false };
+    const out: SyncOutcome = { sent: 0, refused: 0, stopped: null };
     try {
       for (const item of await outboxItems()) {
         if (item.state !== 'waiting') continue;
@@ -37,12 +47,12 @@ export function syncOutbox(): Promise<SyncOutcome> {
           await removeItem(item.key);
           out.sent++;
         } catch (e) {
-          if (e instanceof ApiRequestError && e.status >= 400 && e.status < 500 && e.status !== 401 && e.status !== 429) {
+          if (isRefusal(e)) {
             await markRefused(item.key, e.message);
             out.refused++;
           } else {
-            // Offline, signed out or a server fault: the item waits for the next pass.
-            out.stoppedOffline = true;
+            // The item waits for the next pass; later items wait behind it to keep their order.
+            out.stopped = e instanceof ApiRequestError && e.status !== 0 ? 'server' : 'unreachable';
             break;
           }
         }
@@ -53,4 +63,17 @@ export function syncOutbox(): Promise<SyncOutcome> {
     return out;
   })();
   return running;
+}
+
+const FIRST_RETRY_MS = 2_000;
+const LONGEST_RETRY_MS = 60_000;
+
+/**
+ * How long to wait before the next pass after `failedPasses` passes in a row stopped early:
+ * 2 s doubling to at most a minute. navigator.onLine and the 'online' event cannot be trusted
+ * to say the server is reachable again (a phone on a weak signal or a captive network reports
+ * itself online), so a stopped pass is always tried again on a timer as well.
+ */
+export function retryDelayMs(failedPasses: number): number {
+  return Math.min(LONGEST_RETRY_MS, FIRST_RETRY_MS * 2 ** Math.max(0, failedPasses - 1));
 }

@@ -1,10 +1,10 @@
-import { useCallback, useEffect, useState } from 'react';
+import { useCallback, useEffect, useRef, useState } from 'react';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import type { FieldState } from '@shared/schemas/field';
 import { surveyKeys } from '@/lib/query-keys';
 import { fieldStateQueryOptions } from '../api/get-field-state';
 import { enqueue, loadSnapshot, outboxItems, removeItem, saveSnapshot, type OfflineSnapshot, type OutboxItem } from './field-db';
-import { syncOutbox } from './sync';
+import { retryDelayMs, syncOutbox } from './sync';
 
 /** navigator.onLine, kept current. */
 export function useOnline(): boolean {
@@ -49,25 +49,54 @@ export function useFieldSurvey(surveyId: number) {
     void saveSnapshot(next).then(() => setSnapshot(next));
   }, [server.data, server.dataUpdatedAt, snapshot]);
 
-  const sync = useCallback(async () => {
-    if (!navigator.onLine) return;
+  // A pass that stopped early (server unreachable or at fault) is tried again on a timer with
+  // back-off, not only on the 'online' event, which a phone may never fire (see retryDelayMs).
+  const [reachable, setReachable] = useState(true);
+  const [retryAt, setRetryAt] = useState<number | null>(null);
+  const failedPasses = useRef(0);
+  const retryTimer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
+  const latestSync = useRef<(retry: boolean) => Promise<void>>(async () => {});
+
+  /** One pass; only passes the timer started lengthen the wait (a new record or a tap starts afresh). */
+  const sync = useCallback(async (retry = false) => {
+    clearTimeout(retryTimer.current);
+    if (!retry) failedPasses.current = 0;
+    setRetryAt(null);
+    if (!navigator.onLine) return; // the 'online' event starts the next pass
     setSyncing(true);
     try {
       const out = await syncOutbox();
       await refreshOutbox();
+      setReachable(out.stopped !== 'unreachable');
       // Synced records change the survey's readings and verdicts as well as its field state.
       if (out.sent > 0 || out.refused > 0) await qc.invalidateQueries({ queryKey: surveyKeys.detail(surveyId) });
+      if (out.stopped === null) {
+        failedPasses.current = 0;
+      } else {
+        failedPasses.current += 1;
+        const delay = retryDelayMs(failedPasses.current);
+        setRetryAt(Date.now() + delay);
+        retryTimer.current = setTimeout(() => void latestSync.current(true), delay);
+      }
     } finally {
       setSyncing(false);
     }
   }, [qc, refreshOutbox, surveyId]);
 
-  // Back online: send what waits. Also once on opening, for items left from an earlier visit.
+  // Back online or back on screen: send what waits. Also once on opening, for items left from an earlier visit.
   useEffect(() => {
+    latestSync.current = sync;
     const run = () => void sync();
+    const onShown = () => { if (document.visibilityState === 'visible') run(); };
     window.addEventListener('online', run);
+    document.addEventListener('visibilitychange', onShown);
     const first = setTimeout(run, 0);
-    return () => { window.removeEventListener('online', run); clearTimeout(first); };
+    return () => {
+      window.removeEventListener('online', run);
+      document.removeEventListener('visibilitychange', onShown);
+      clearTimeout(first);
+      clearTimeout(retryTimer.current);
+    };
   }, [sync]);
 
   const add = useCallback(async (item: OutboxItem) => {
@@ -102,7 +131,7 @@ export function useFieldSurvey(surveyId: number) {
 
   const state: FieldState | null = server.data ?? snapshot?.state ?? null;
   return {
-    state, online, server, snapshot, outbox, syncing, takingOffline, add, discard, sync, takeOffline,
+    state, online: online && reachable, server, snapshot, outbox, syncing, retryAt, takingOffline, add, discard, sync, takeOffline,
     loading: !state && (server.isPending || snapshot === undefined),
     fromPhone: !server.data && !!snapshot,
   };
