@@ -16,6 +16,17 @@ export const VERDICT_LABELS: Record<ZoneVerdict, string> = {
   not_assessed: 'Not assessed',
 };
 
+/**
+ * The zones' verdicts counted in a sentence, for the sign-off e-mail and the report's summary:
+ * "14 zones: 6 meet their target, 5 fall short, 2 are inconclusive, 1 is not assessed".
+ */
+export function zoneVerdictCountsText(counts: Record<ZoneVerdict, number>): string {
+  const total = VERDICTS.reduce((n, v) => n + counts[v], 0);
+  const one = (n: number, singular: string, plural: string) => `${n} ${n === 1 ? singular : plural}`;
+  return `${one(total, 'zone', 'zones')}: ${one(counts.meets, 'meets its target', 'meet their target')}, ${one(counts.falls_short, 'falls short', 'fall short')}, `
+    + `${one(counts.inconclusive, 'is inconclusive', 'are inconclusive')}, ${one(counts.not_assessed, 'is not assessed', 'are not assessed')}`;
+}
+
 /** Worst first: what a facility manager acts on comes to the top. */
 export const VERDICT_ORDER: Record<ZoneVerdict, number> = { falls_short: 0, inconclusive: 1, not_assessed: 2, meets: 3 };
 

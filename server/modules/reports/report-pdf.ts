@@ -4,7 +4,7 @@ import { createRequire } from 'node:module';
 import { luxToFootcandles } from '@shared/core/units';
 import { COVERAGE_K } from '@shared/core/uncertainty';
 import { CONFIDENCE_LABELS } from '@shared/schemas/targets';
-import { CHECK_LABELS, VERDICT_LABELS, type ZoneVerdict } from '@shared/schemas/compliance';
+import { CHECK_LABELS, VERDICT_LABELS, zoneVerdictCountsText, type ZoneVerdict } from '@shared/schemas/compliance';
 import { labelOfUseType, ZONE_KIND_LABELS } from '@shared/schemas/zones';
 import { formatDisplayNumber } from '@shared/display-number';
 import { formatCalendarDay, formatDateTime as formatSiteDateTime, formatDay } from '@shared/datetime';
@@ -112,7 +112,7 @@ export function renderReportPdf(data: ReportData, unit: ReportUnit = 'lx', onPag
   section(doc, 'Summary');
   const counts = c.counts;
   doc.font('body').fontSize(10).fillColor(INK)
-    .text(`${counts.meets} zone(s) meet their target, ${counts.falls_short} fall short, ${counts.inconclusive} inconclusive, ${counts.not_assessed} not assessed.`);
+    .text(`${zoneVerdictCountsText(counts)}.`);
   if (c.previous) doc.text(`Compared with "${c.previous.name}", the previous signed-off survey of this site.`);
   doc.moveDown(0.5);
   table(doc, [

@@ -5,7 +5,7 @@ import { surveys } from '../../db/schema/surveys';
 import { userSites, users } from '../../db/schema/organizations';
 import type { SessionUser } from '@shared/schemas/auth';
 import type { SubmitSurveyBody, SignOffBody, ReturnSurveyBody, WorkflowState } from '@shared/schemas/workflow';
-import { VERDICT_LABELS } from '@shared/schemas/compliance';
+import { zoneVerdictCountsText } from '@shared/schemas/compliance';
 import { conflict } from '../../http/errors';
 import { recordAudit } from '../audit/audit-service';
 import { assertSurveyAbility, getSurveyRow, type SurveyRow } from '../surveys/surveys-service';
@@ -104,7 +104,7 @@ export async function signOffSurvey(deps: Deps, actor: SessionUser, surveyId: nu
       subject: `Survey signed off: ${survey.site.name}, ${survey.name}`,
       text: `${actor.name} signed off "${survey.name}" at ${survey.site.name}.\n${body.comment ? `\nComment:\n${body.comment}\n` : ''}\n`
         + (emergency ? `${emergencyCounts(emergency.judged.elements)} (criteria: ${emergency.judged.criteriaSet.name}; decision rule: ${frozen.rule}).\n`
-          : `${counts.meets} zone(s) ${VERDICT_LABELS.meets.toLowerCase()}, ${counts.falls_short} ${VERDICT_LABELS.falls_short.toLowerCase()}, ${counts.inconclusive} inconclusive, ${counts.not_assessed} not assessed (decision rule: ${frozen.rule}).\n`)
+          : `${zoneVerdictCountsText(counts)} (decision rule: ${frozen.rule}).\n`)
         + '\nThe signed-off report is attached. The survey is now read-only.\n',
       // An emergency survey's report is the emergency report, built from the same frozen record.
       pendingAttachments: [emergency ? emergencyReportAttachment(survey) : reportAttachment(survey)],
