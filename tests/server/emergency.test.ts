@@ -291,6 +291,20 @@ describe('test logbook and due dates', () => {
   });
 });
 
+describe('POST /api/surveys/:id/report/send for an emergency survey', () => {
+  it('answers 409 saying its report is the emergency report, and queues no mail and no audit entry', async () => {
+    const { surveyId } = await surveyed();
+    const mailBefore = t.lastMail()?.id ?? null;
+    const auditBefore = (await admin.get(`/api/audit?surveyId=${surveyId}`)).body.items.length;
+    const res = await fm.post(`/api/surveys/${surveyId}/report/send`).send({ recipients: ['estates@fernmoor.test'] });
+    expect(res.status).toBe(409);
+    expect(res.body.error).toMatchObject({ code: 'conflict', details: { reason: 'emergency_survey' } });
+    expect(res.body.error.message).toMatch(/is an emergency lighting survey: its report is the emergency report/);
+    expect(t.lastMail()?.id ?? null).toBe(mailBefore);
+    expect((await admin.get(`/api/audit?surveyId=${surveyId}`)).body.items).toHaveLength(auditBefore);
+  });
+});
+
 describe('GET /api/emergency/surveys/:id/report.pdf', () => {
   it('is a PDF with the criteria set, passes, verdicts, worst point, response times, logbook and the cautions', async () => {
     const { surveyId, planId, siteId, ids } = await surveyed();

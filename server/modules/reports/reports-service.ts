@@ -6,6 +6,8 @@ import type { Db } from '../../db/client';
 import { readings } from '../../db/schema/surveys';
 import { coefficientSets, probes } from '../../db/schema/calibration';
 import { plans } from '../../db/schema/plans';
+import { emergencySurveys } from '../../db/schema/emergency';
+import { conflict } from '../../http/errors';
 import { toSafeCsv, toSafeCsvRows } from '@shared/csv-safe';
 import { readingCells, readingColumns, statBoundCell, ZONE_COLUMNS, type ExportUnit } from '@shared/export-columns';
 import { VERDICT_LABELS } from '@shared/schemas/compliance';
@@ -119,6 +121,10 @@ export function registerReportAttachment(deps: Deps) {
  */
 export function sendReport(deps: Deps, user: SessionUser, surveyId: number, body: SendReportBody): SendReportResponse {
   const survey = getSurveyRow(deps.db, user, surveyId);
+  // This is the zones' report; an emergency survey's own report goes out with its sign-off.
+  if (deps.db.select({ surveyId: emergencySurveys.surveyId }).from(emergencySurveys).where(eq(emergencySurveys.surveyId, survey.id)).get()) {
+    throw conflict(`"${survey.name}" is an emergency lighting survey: its report is the emergency report, e-mailed with its sign-off and downloaded from its own page, not the zone report sent from here`, { reason: 'emergency_survey' });
+  }
   const recipients = [...new Set(body.recipients)];
   const status = survey.status === 'signed_off' ? 'signed off' : `${survey.status.replace('_', ' ')} (not yet signed off: verdicts are provisional)`;
   const attachment = reportAttachment(survey);
