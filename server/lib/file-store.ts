@@ -6,6 +6,7 @@ import { and, eq } from 'drizzle-orm';
 import type { Deps } from '../deps';
 import { storedFiles } from '../db/schema/organizations';
 import { unsupportedMediaType } from '../http/errors';
+import { textEncodingOfFile } from './text-encoding';
 
 export type FileKind = 'csv' | 'pdf' | 'image';
 
@@ -13,7 +14,7 @@ const IMAGE_TYPES = new Set(['image/png', 'image/jpeg', 'image/webp']);
 
 /**
  * Decides a file's type from its content, never from its name or the browser's claim.
- * CSV is text: it must have no NUL byte and be valid UTF-8 in its first 64 KiB.
+ * CSV is text: UTF-8, UTF-16 or Windows-1252 in its first 64 KiB (text-encoding.ts).
  */
 export async function sniffFile(filePath: string, expected: FileKind, what = 'A plan'): Promise<string> {
   const detected = await fileTypeFromFile(filePath);
@@ -25,28 +26,9 @@ export async function sniffFile(filePath: string, expected: FileKind, what = 'A 
     if (!detected || !IMAGE_TYPES.has(detected.mime)) throw unsupportedMediaType(`${what} must be a PNG, JPEG or WebP image${detected ? ` (this looks like ${detected.mime})` : ''}`);
     return detected.mime;
   }
-  const fd = fs.openSync(filePath, 'r');
-  try {
-    const head = Buffer.alloc(64 * 1024);
-    const n = fs.readSync(fd, head, 0, head.length, 0);
-    const bytes = head.subarray(0, n);
-    // A cut at the buffer's end may split a character: trim up to 3 trailing bytes before checking.
-    const looksBinary = detected !== undefined || bytes.includes(0) || !isUtf8Prefix(bytes);
-    if (looksBinary) throw unsupportedMediaType(`This is not a text CSV file${detected ? ` (it looks like ${detected.mime})` : ''}`);
-  } finally {
-    fs.closeSync(fd);
-  }
+  // Text by its bytes, whatever a magic-number guess says (UTF-16's mark FF FE also starts an MPEG frame).
+  if (textEncodingOfFile(filePath) === null) throw unsupportedMediaType(`This is not a text CSV file${detected ? ` (it looks like ${detected.mime})` : ''}`);
   return 'text/csv';
-}
-
-function isUtf8Prefix(bytes: Buffer): boolean {
-  for (let cut = 0; cut <= 3 && cut < bytes.length + 1; cut++) {
-    try {
-      new TextDecoder('utf-8', { fatal: true }).decode(bytes.subarray(0, bytes.length - cut));
-      return true;
-    } catch { /* try a shorter prefix */ }
-  }
-  return false;
 }
 
 export async function sha256OfFile(filePath: string): Promise<string> {

@@ -218,6 +218,42 @@ describe('log import: rejected files leave nothing behind', () => {
   });
 });
 
+describe('log import: files in other encodings than UTF-8', () => {
+  // A spreadsheet on Western European Windows saves "CSV" as Windows-1252 ("ANSI") with
+  // semicolons and decimal commas, and "Unicode text" as UTF-16 little-endian with a mark and
+  // tabs (common practice, from memory). Bytes here from the Unicode Consortium's cp1252.txt: ü 0xFC, € 0x80.
+  const rows = (sep: string, decimal: string) => [
+    ['timestamp', 'probe', 'point', 'gain', 'counts', 'x_m', 'y_m', 'note'],
+    ['2026-11-01T08:00:00Z', TEST_SERIALS.tripod, 'Büro 1', '2', '16000', `1${decimal}5`, `2${decimal}5`, 'Lüfter laut'],
+    ['2026-11-01T08:01:00Z', TEST_SERIALS.tripod, 'Büro 2', '2', '15000', `3${decimal}5`, `2${decimal}5`, 'Lampe 5 € ersetzt'],
+  ].map((r) => r.join(sep)).join('\r\n') + '\r\n';
+  const cp1252 = (text: string) => Buffer.from([...text].map((ch) => ({ 'ü': 0xfc, '€': 0x80 } as Record<string, number>)[ch] ?? ch.charCodeAt(0)));
+  const readingsOf = async (surveyId: number) => ((await c.get(`/api/surveys/${surveyId}/readings?sort=time&limit=10`)).body.items as { point: string; xM: number; lux: number }[]);
+
+  it('a Windows-1252 file with semicolons, when uploaded, is read with its letters intact and a warning saying how it was read', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const { upload, status } = await uploadAndWait(t, c, surveyId, cp1252(rows(';', ',')));
+    expect(upload.status).toBe(202);
+    expect(status).toMatchObject({ status: 'done', readings: 2, errors: [] });
+    expect(status.warnings).toEqual([expect.objectContaining({ line: null, message: expect.stringMatching(/not UTF-8: it was read as Windows-1252 .*save the log as "CSV UTF-8"/) })]);
+    const items = await readingsOf(surveyId);
+    expect(items.map((r) => [r.point, r.xM])).toEqual([['Büro 1', 1.5], ['Büro 2', 3.5]]);
+    const utf8 = await newDraftSurvey(t, c);
+    await uploadAndWait(t, c, utf8, rows(';', ','));
+    expect((await readingsOf(utf8)).map((r) => r.lux)).toEqual(items.map((r) => r.lux));
+  });
+
+  it('a UTF-16 tab-separated file with a byte-order mark, when uploaded, gives the same readings as its UTF-8 twin and no warning', async () => {
+    const surveyId = await newDraftSurvey(t, c);
+    const { upload, status } = await uploadAndWait(t, c, surveyId, Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from(rows('\t', '.'), 'utf16le')]), 'walk.txt');
+    expect(upload.status, JSON.stringify(upload.body)).toBe(202);
+    expect(status).toMatchObject({ status: 'done', readings: 2, errors: [], warnings: [] });
+    const utf8 = await newDraftSurvey(t, c);
+    await uploadAndWait(t, c, utf8, rows('\t', '.'));
+    expect(await readingsOf(surveyId)).toEqual((await readingsOf(utf8)).map((r) => expect.objectContaining({ point: r.point, xM: r.xM, lux: r.lux })));
+  });
+});
+
 describe('log upload: refused before import', () => {
   const expectNothingAdded = async (send: () => Promise<{ status: number; body: { error: { message: string; details?: unknown } } }>, statusCode: number) => {
     const before = tableCounts(t);

@@ -1,5 +1,6 @@
 import fs from 'node:fs';
 import Papa from 'papaparse';
+import { decodeText, decodingStream, TEXT_ENCODING_NAMES, textEncodingOfFile, type TextEncoding } from '../../lib/text-encoding';
 import { READING_PLANES, type ReadingPlane } from '../../../shared/core/planes';
 import type { DecodingCalibration } from '../probes/probe-calibration';
 import { createLogDecoder, type DecodedReading, type LogSample } from './log-decoder';
@@ -100,12 +101,12 @@ export function detectDelimiter(headerLine: string): ',' | ';' | '\t' {
   return ',';
 }
 
-function firstLine(filePath: string): string {
+function firstLine(filePath: string, encoding: TextEncoding): string {
   const fd = fs.openSync(filePath, 'r');
   try {
     const buf = Buffer.alloc(64 * 1024);
     const n = fs.readSync(fd, buf, 0, buf.length, 0);
-    const text = buf.subarray(0, n).toString('utf8').replace(/^\uFEFF/, '');
+    const text = decodeText(buf.subarray(0, n), encoding).replace(/^\uFEFF/, '');
     const end = text.search(/\r?\n/);
     return end < 0 ? text : text.slice(0, end);
   } finally {
@@ -145,7 +146,9 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
   };
 
   const size = fs.statSync(input.filePath).size;
-  const header = firstLine(input.filePath);
+  // The upload was refused unless it is text (sniffFile); a file handed over otherwise is read as UTF-8.
+  const encoding = textEncodingOfFile(input.filePath) ?? 'utf-8';
+  const header = firstLine(input.filePath, encoding);
   if (size === 0 || header.trim() === '') {
     addError({ line: 1, column: '', value: '', message: 'The file is empty: it needs a header row and one sample per row' });
     return end();
@@ -325,10 +328,14 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     sink.post({ type: 'batch', batch: batch.take() });
   };
 
-  const stream = fs.createReadStream(input.filePath, { encoding: 'utf8', highWaterMark: STREAM_CHUNK_BYTES });
+  if (encoding === 'windows-1252') {
+    problems.warning({ line: null, column: '', message: `The file is not UTF-8: it was read as ${TEXT_ENCODING_NAMES[encoding]}, as Windows programs write "ANSI" CSV. If a letter in a label or note looks wrong, save the log as "CSV UTF-8" and upload it again` });
+  }
+  const bytes = fs.createReadStream(input.filePath, { highWaterMark: STREAM_CHUNK_BYTES });
+  const stream = encoding === 'utf-8' ? bytes.setEncoding('utf8') : bytes.pipe(decodingStream(encoding));
   // A field spans lines only inside quotes: until the file shows a quote, no row needs the per-field scan.
   let quoteSeen = false;
-  stream.on('data', (d) => { if (!quoteSeen && d.includes('"')) quoteSeen = true; });
+  stream.on('data', (d: string) => { if (!quoteSeen && d.includes('"')) quoteSeen = true; });
   await new Promise<void>((resolve, reject) => {
     Papa.parse<string[]>(stream as unknown as File, {
       delimiter,
@@ -354,7 +361,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
           if (e.type === 'Quotes') addError({ line: nextLine, column: '', value: '', message: `A quoted field is not closed (${e.message})` });
         }
         if (batch.sampleRows >= batchRows || problems.errorCount > 0) flush();
-        sink.post({ type: 'progress', bytesRead: stream.bytesRead, rowsRead });
+        sink.post({ type: 'progress', bytesRead: bytes.bytesRead, rowsRead });
         // Hold both the parser and the file stream until the writer has caught up.
         parser.pause();
         stream.pause();
@@ -368,6 +375,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
     });
   });
   stream.destroy();
+  bytes.destroy();
   if (headerDone && problems.errorCount === 0 && rowsRead === 0) {
     addError({ line: 2, column: '', value: '', message: 'The file has a header but no samples' });
   }
