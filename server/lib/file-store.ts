@@ -27,9 +27,15 @@ export async function sniffFile(filePath: string, expected: FileKind, what = 'A 
     return detected.mime;
   }
   // Text by its bytes, whatever a magic-number guess says (UTF-16's mark FF FE also starts an MPEG frame).
-  if (textEncodingOfFile(filePath) === null) throw unsupportedMediaType(`This is not a text CSV file${detected ? ` (it looks like ${detected.mime})` : ''}`);
+  if (textEncodingOfFile(filePath) === null) {
+    if (detected && SPREADSHEET_TYPES.has(detected.mime)) throw unsupportedMediaType('This is a spreadsheet workbook, not a CSV file: save the sheet as "CSV UTF-8" (or CSV) from the spreadsheet program and upload that');
+    throw unsupportedMediaType(`This is not a text CSV file${detected ? ` (it looks like ${detected.mime})` : ''}`);
+  }
   return 'text/csv';
 }
+
+/** Workbooks people upload for a CSV: Office Open XML, the older binary Excel format (a compound file), OpenDocument. */
+const SPREADSHEET_TYPES = new Set(['application/vnd.openxmlformats-officedocument.spreadsheetml.sheet', 'application/x-cfb', 'application/vnd.ms-excel', 'application/vnd.oasis.opendocument.spreadsheet']);
 
 export async function sha256OfFile(filePath: string): Promise<string> {
   const hash = crypto.createHash('sha256');

@@ -270,6 +270,32 @@ describe('log upload: refused before import', () => {
     expect(res.body.error.message).toMatch(/not a text CSV/);
   });
 
+  it('answers 415 to a spreadsheet workbook (Office Open XML or the older compound file), saying to save the sheet as CSV', async () => {
+    // The parts of an .xlsx that identify it (ECMA-376 Part 2, Open Packaging Conventions): a
+    // [Content_Types].xml naming the workbook part's type, in a zip with stored entries (PKWARE APPNOTE 4.3.7).
+    const storedZip = (entries: [string, string][]) => Buffer.concat(entries.flatMap(([name, text]) => {
+      const data = Buffer.from(text);
+      const header = Buffer.alloc(30);
+      header.writeUInt32LE(0x04034b50, 0);
+      header.writeUInt16LE(20, 4);
+      header.writeUInt32LE(data.length, 18);
+      header.writeUInt32LE(data.length, 22);
+      header.writeUInt16LE(Buffer.byteLength(name), 26);
+      return [header, Buffer.from(name), data];
+    }));
+    const xlsx = storedZip([
+      ['[Content_Types].xml', '<?xml version="1.0" encoding="UTF-8"?><Types xmlns="http://schemas.openxmlformats.org/package/2006/content-types"><Override PartName="/xl/workbook.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sheet.main+xml"/></Types>'],
+      ['xl/workbook.xml', '<workbook/>'],
+    ]);
+    // A compound file (the .xls container) starts D0 CF 11 E0 A1 B1 1A E1.
+    const xls = Buffer.concat([Buffer.from('d0cf11e0a1b11ae1', 'hex'), Buffer.alloc(1016)]);
+    for (const [content, filename] of [[xlsx, 'walk.xlsx'], [xls, 'walk.xls']] as const) {
+      const surveyId = await newDraftSurvey(t, c);
+      const res = await expectNothingAdded(() => c.post(`/api/surveys/${surveyId}/logs`).attach('file', content, { filename, contentType: 'text/csv' }), 415);
+      expect(res.body.error.message).toMatch(/spreadsheet workbook, not a CSV file: save the sheet as "CSV UTF-8"/);
+    }
+  });
+
   it('answers 413 to a file over the upload limit', { timeout: 30_000 }, async () => {
     const small = await createTestApp({ uploadLimitBytes: 1024 });
     createTestProbes(small);
