@@ -27,6 +27,34 @@ export function peakRssMb(pid: number): number {
   try { return Math.round(Number(/VmHWM:\s+(\d+)/.exec(fs.readFileSync(`/proc/${pid}/status`, 'utf8'))?.[1] ?? 0) / 1024); } catch { return NaN; }
 }
 
+/** The server's current RSS (MB) and thread count, from /proc (NaN elsewhere). */
+export function rssAndThreads(pid: number): { rssMb: number; threads: number } {
+  try {
+    const status = fs.readFileSync(`/proc/${pid}/status`, 'utf8');
+    return { rssMb: Math.round(Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? NaN) / 1024), threads: Number(/Threads:\s+(\d+)/.exec(status)?.[1] ?? NaN) };
+  } catch { return { rssMb: NaN, threads: NaN }; }
+}
+
+/**
+ * Waits until the start-up work of a fresh server has ended: no job of the runner due within a
+ * minute or running (the demo's verdicts computed ahead, its mail), and the thread count unchanged
+ * for longer than the import and compute threads' idle time (5 s), so a measurement that follows
+ * is of its own work and not of the demo seed's threads still ending. At most `maxMs`.
+ */
+export async function waitUntilSettled(pid: number, db: Database.Database, maxMs = 60_000): Promise<{ waitedMs: number; rssMb: number; threads: number }> {
+  const start = performance.now();
+  let last = rssAndThreads(pid).threads;
+  let changedAt = start;
+  for (;;) {
+    await new Promise((r) => setTimeout(r, 250));
+    const now = performance.now();
+    const { threads, rssMb } = rssAndThreads(pid);
+    if (threads !== last) { last = threads; changedAt = now; }
+    const pending = (db.prepare("select count(*) as n from jobs where status = 'running' or (status = 'queued' and run_at <= ?)").get(Date.now() + 60_000) as { n: number }).n;
+    if ((pending === 0 && now - changedAt >= 7_000) || now - start >= maxMs) return { waitedMs: now - start, rssMb, threads };
+  }
+}
+
 /** Starts `server/index.ts` on loopback with a fresh database in `dir` and waits for /api/health. */
 export async function startBenchServer(dir: string, env: Record<string, string> = {}) {
   const port = await freePort();

@@ -11,7 +11,7 @@ import path from 'node:path';
 import Database from 'better-sqlite3';
 import Papa from 'papaparse';
 import { benchLogLines } from '../../server/db/demo/simulate-log';
-import { addBenchProbes, benchProbes, pct, startBenchServer, writeBenchLog, writeLines } from './bench-server';
+import { addBenchProbes, benchProbes, pct, startBenchServer, waitUntilSettled, writeBenchLog, writeLines } from './bench-server';
 
 const N = Number(process.env.INGEST_ROWS ?? 1_000_000);
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'luxtrail-ingest-'));
@@ -90,6 +90,9 @@ async function runOnFreshServer(name: string, work: (srv: BenchServer) => Promis
     const db = new Database(server.dbPath);
     db.pragma('busy_timeout = 5000');
     addBenchProbes(db, 'surveyor@luxtrail.test', START);
+    // The demo seed's import and compute threads and its queued jobs end first: the import's RSS is then its own.
+    const settled = await waitUntilSettled(server.pid, db);
+    console.log(`\nServer settled ${(settled.waitedMs / 1000).toFixed(1)} s after start-up (RSS ${settled.rssMb} MB, ${settled.threads} threads)`);
     db.close();
 
     const login = await fetch(`${base}/api/auth/login`, { method: 'POST', headers: { 'Content-Type': 'application/json', Origin: origin }, body: JSON.stringify({ email: 'surveyor@luxtrail.test', password: 'luxtrail-demo' }) });
