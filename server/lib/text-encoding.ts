@@ -16,8 +16,11 @@ export const TEXT_ENCODING_NAMES: Record<TextEncoding, string> = {
   'utf-8': 'UTF-8', 'utf-16le': 'UTF-16 (little-endian)', 'utf-16be': 'UTF-16 (big-endian)', 'windows-1252': 'Windows-1252 (Western European)',
 };
 
+/** How much of a file decides its encoding (textEncodingOfFile). */
+export const TEXT_HEAD_BYTES = 64 * 1024;
+
 /** Whether the bytes are UTF-8, allowing a character cut at the end (a prefix read from a longer file). */
-export function isUtf8Prefix(bytes: Uint8Array): boolean {
+function isUtf8Prefix(bytes: Uint8Array): boolean {
   try {
     // Streaming: a sequence left incomplete at the end waits for more bytes instead of failing.
     new TextDecoder('utf-8', { fatal: true }).decode(bytes, { stream: true });
@@ -39,7 +42,11 @@ const UNDEFINED_IN_1252 = new Set([0x81, 0x8d, 0x8f, 0x90, 0x9d]);
  */
 export function textEncodingOf(head: Uint8Array): TextEncoding | null {
   const utf16 = utf16Of(head);
-  if (utf16 !== undefined) return utf16 !== null && isPlainText(decodeText(head.subarray(0, Math.max(2, head.length - 2) & ~1), utf16)) ? utf16 : null;
+  if (utf16 !== undefined) {
+    // Whole code units only, and the last one left out: it may be half of a pair the read cut.
+    const units = head.subarray(0, Math.max(2, head.length - 2) & ~1);
+    return utf16 !== null && isPlainText(decodeText(units, utf16)) ? utf16 : null;
+  }
   if (head.some(isStrayControl)) return null;
   if (isUtf8Prefix(head)) return 'utf-8';
   return head.some((b) => UNDEFINED_IN_1252.has(b)) ? null : 'windows-1252';
@@ -71,7 +78,7 @@ function utf16Of(head: Uint8Array): 'utf-16le' | 'utf-16be' | null | undefined {
 function isPlainText(text: string): boolean {
   for (let i = 0; i < text.length; i++) {
     const c = text.charCodeAt(i);
-    if (c === 0xfffd || (c < 0x20 && isStrayControl(c))) return false;
+    if (c === 0xfffd || isStrayControl(c)) return false;
     if (c >= 0xd800 && c <= 0xdbff) {
       const next = text.charCodeAt(i + 1);
       if (i + 1 < text.length && !(next >= 0xdc00 && next <= 0xdfff)) return false;
@@ -81,11 +88,11 @@ function isPlainText(text: string): boolean {
   return true;
 }
 
-/** The encoding of a text file from its first 64 KiB, or null when it is not text. */
+/** The encoding of a text file from its first TEXT_HEAD_BYTES, or null when it is not text. */
 export function textEncodingOfFile(filePath: string): TextEncoding | null {
   const fd = fs.openSync(filePath, 'r');
   try {
-    const head = Buffer.alloc(64 * 1024);
+    const head = Buffer.alloc(TEXT_HEAD_BYTES);
     const n = fs.readSync(fd, head, 0, head.length, 0);
     return textEncodingOf(head.subarray(0, n));
   } finally {

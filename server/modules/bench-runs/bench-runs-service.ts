@@ -11,7 +11,7 @@ import {
 } from '@shared/schemas/bench-runs';
 import { conflict, notFound, unprocessable } from '../../http/errors';
 import { keepUploadedFile, sniffFile, storedPath } from '../../lib/file-store';
-import { decodeText, textEncodingOfFile } from '../../lib/text-encoding';
+import { decodeText, TEXT_HEAD_BYTES, textEncodingOf } from '../../lib/text-encoding';
 import { recordAudit } from '../audit/audit-service';
 import { findProbe } from '../probes/probes-service';
 import { parseBenchCsv } from './bench-csv';
@@ -63,7 +63,8 @@ export async function uploadBenchRun(deps: Deps, user: SessionUser, probeId: num
     if (probe.kind !== 'counts') throw conflict('Bench runs fit counting probes; enter an analog transmitter\'s calibration as a manual coefficient set');
     if (probe.status === 'retired') throw conflict(`Probe ${probe.serial} is retired`);
     const contentType = await sniffFile(file.path, 'csv');
-    const text = decodeText(fs.readFileSync(file.path), textEncodingOfFile(file.path) ?? 'utf-8');
+    const bytes = fs.readFileSync(file.path);
+    const text = decodeText(bytes, textEncodingOf(bytes.subarray(0, TEXT_HEAD_BYTES)) ?? 'utf-8');
     const gains = probe.gains ?? [];
     const parsed = parseBenchCsv(text, { gainCodes: gains.map((g) => g.code), saturationCounts: probe.saturationCounts!, fullScaleCounts: probe.fullScaleCounts! });
     if (parsed.errorCount > 0) {

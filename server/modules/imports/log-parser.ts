@@ -1,6 +1,6 @@
 import fs from 'node:fs';
 import Papa from 'papaparse';
-import { decodeText, decodingStream, TEXT_ENCODING_NAMES, textEncodingOfFile, type TextEncoding } from '../../lib/text-encoding';
+import { decodeText, decodingStream, TEXT_ENCODING_NAMES, TEXT_HEAD_BYTES, textEncodingOf, type TextEncoding } from '../../lib/text-encoding';
 import { READING_PLANES, type ReadingPlane } from '../../../shared/core/planes';
 import type { DecodingCalibration } from '../probes/probe-calibration';
 import { createLogDecoder, type DecodedReading, type LogSample } from './log-decoder';
@@ -101,14 +101,17 @@ export function detectDelimiter(headerLine: string): ',' | ';' | '\t' {
   return ',';
 }
 
-function firstLine(filePath: string, encoding: TextEncoding): string {
+/** The file's encoding and its header line, from one read of its first TEXT_HEAD_BYTES. */
+function readHead(filePath: string): { encoding: TextEncoding; header: string } {
   const fd = fs.openSync(filePath, 'r');
   try {
-    const buf = Buffer.alloc(64 * 1024);
-    const n = fs.readSync(fd, buf, 0, buf.length, 0);
-    const text = decodeText(buf.subarray(0, n), encoding).replace(/^\uFEFF/, '');
+    const buf = Buffer.alloc(TEXT_HEAD_BYTES);
+    const head = buf.subarray(0, fs.readSync(fd, buf, 0, buf.length, 0));
+    // The upload was refused unless it is text (sniffFile); a file handed over otherwise is read as UTF-8.
+    const encoding = textEncodingOf(head) ?? 'utf-8';
+    const text = decodeText(head, encoding); // without a byte-order mark
     const end = text.search(/\r?\n/);
-    return end < 0 ? text : text.slice(0, end);
+    return { encoding, header: end < 0 ? text : text.slice(0, end) };
   } finally {
     fs.closeSync(fd);
   }
@@ -146,9 +149,7 @@ export async function parseLogFile(input: ParseLogInput, sink: ParseLogSink): Pr
   };
 
   const size = fs.statSync(input.filePath).size;
-  // The upload was refused unless it is text (sniffFile); a file handed over otherwise is read as UTF-8.
-  const encoding = textEncodingOfFile(input.filePath) ?? 'utf-8';
-  const header = firstLine(input.filePath, encoding);
+  const { encoding, header } = readHead(input.filePath);
   if (size === 0 || header.trim() === '') {
     addError({ line: 1, column: '', value: '', message: 'The file is empty: it needs a header row and one sample per row' });
     return end();
