@@ -33,7 +33,7 @@ export function AuditList({ events, probeLabel }: { events: AuditEvent[]; probeL
           {changes(e).length > 0 && (
             <details className="mt-1">
               <summary className="cursor-pointer text-xs font-medium text-ink-600">{changes(e).length} field{changes(e).length === 1 ? '' : 's'}</summary>
-              <div className="mt-1 relative overflow-x-auto">
+              <div className="mt-1 scroll-x">
                 <table className="min-w-full text-xs">
                   <thead className="text-left text-ink-500"><tr><th scope="col" className="pr-3">Field</th><th scope="col" className="pr-3">Before</th><th scope="col">After</th></tr></thead>
                   <tbody className="font-mono text-ink-800">

@@ -12,7 +12,7 @@ import { percent, sig, symmetricTicks } from './format';
 export function BenchFitTable({ run }: { run: BenchRunDto }) {
   const { convert, label } = useUnits();
   return (
-    <div className="relative overflow-x-auto">
+    <div className="scroll-x">
       <table className="min-w-full text-sm" aria-label="Fit per gain code">
         <thead className="bg-ink-50 text-left text-xs font-semibold uppercase tracking-wide text-ink-600">
           <tr>

@@ -98,7 +98,7 @@ export function DashboardTable({ rows, dueSoonDays, showRetired }: { rows: Dashb
       {table.getRowModel().rows.length === 0 ? (
         <EmptyState title="No probe matches">Choose another filter or clear the search.</EmptyState>
       ) : (
-        <div className="relative overflow-x-auto">
+        <div className="scroll-x">
           <table className="stack-table min-w-full text-sm" aria-label="Calibration due dates">
             <thead className="bg-ink-50 text-left text-xs font-semibold uppercase tracking-wide text-ink-600">
               {table.getHeaderGroups().map((hg) => (

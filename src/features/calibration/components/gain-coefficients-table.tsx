@@ -6,7 +6,7 @@ import { percent, sig } from './format';
 export function GainCoefficientsTable({ gains, caption }: { gains: GainCoefficientsInput[]; caption: string }) {
   const { convert, label } = useUnits();
   return (
-    <div className="relative overflow-x-auto">
+    <div className="scroll-x">
       <table className="min-w-full text-sm">
         <caption className="sr-only">{caption}</caption>
         <thead className="text-left text-xs uppercase tracking-wide text-ink-500">

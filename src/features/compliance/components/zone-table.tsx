@@ -12,7 +12,7 @@ import { labelOfUseType } from '@shared/schemas/zones';
 export function ZoneTable({ surveyId, zones, showChange }: { surveyId: number; zones: ZoneCompliance[]; showChange: boolean }) {
   const { format } = useUnits();
   return (
-    <div className="relative overflow-x-auto">
+    <div className="scroll-x">
       <table className="stack-table min-w-full text-sm" data-testid="zone-table">
         <caption className="sr-only">Zones with their target, statistics and verdict, worst first</caption>
         <thead className="bg-ink-50 text-left text-xs font-semibold uppercase tracking-wide text-ink-600">

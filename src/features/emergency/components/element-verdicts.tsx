@@ -63,7 +63,7 @@ function ElementCard({ e, survey }: { e: ElementVerdict; survey: EmergencySurvey
         {e.points.length > 0 && (
           <details>
             <summary className="cursor-pointer font-medium text-ink-800">Readings ({e.points.length})</summary>
-            <div className="mt-2 relative overflow-x-auto">
+            <div className="mt-2 scroll-x">
               <table className="w-full min-w-[30rem] text-left text-xs">
                 <thead className="text-ink-500"><tr><th className="py-1 pr-2">Point</th><th className="pr-2">Where</th><th className="pr-2">Pass</th><th className="pr-2">E ± U (k = 2)</th><th className="pr-2">Limit</th><th>Verdict</th></tr></thead>
                 <tbody>

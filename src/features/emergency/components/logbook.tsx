@@ -46,7 +46,7 @@ export function LogbookEntryForm({ book }: { book: SiteLogbook }) {
 export function LogbookEntries({ entries, total }: { entries: readonly LogbookEntry[]; total: number }) {
   if (entries.length === 0) return <p className="text-sm text-ink-500">No tests recorded yet.</p>;
   return (
-    <div className="relative overflow-x-auto">
+    <div className="scroll-x">
       <table className="w-full min-w-[32rem] text-left text-sm" aria-label="Logbook entries">
         <thead className="text-xs text-ink-500"><tr><th className="py-1 pr-2">Date</th><th className="pr-2">Test</th><th className="pr-2">By</th><th className="pr-2">Result</th><th className="pr-2">Failed fittings</th><th>Remarks</th></tr></thead>
         <tbody>

@@ -130,7 +130,7 @@ export function FieldView({ surveyId, userName }: { surveyId: number; userName: 
       )}
 
       {state.plans.length > 1 && (
-        <div role="tablist" aria-label="Plans" className="flex gap-2 relative overflow-x-auto">
+        <div role="tablist" aria-label="Plans" className="flex gap-2 scroll-x">
           {state.plans.map((p) => (
             <button key={p.id} type="button" role="tab" aria-selected={plan?.id === p.id} onClick={() => { setPlanId(p.id); setFree(null); }}
               className={cx('min-h-11 shrink-0 rounded-xl px-3 text-sm font-semibold', plan?.id === p.id ? 'bg-ink-950 text-white' : 'bg-white text-ink-950 ring-2 ring-inset ring-ink-300')}>{p.name}</button>

@@ -51,7 +51,7 @@ export function DecodeChangesView({ d }: { d: DecodeChanges }) {
           ))}
         </ul>
       ) : (
-        <div className="relative overflow-x-auto">
+        <div className="scroll-x">
           <table className="min-w-full text-sm" aria-label="Changed readings">
             <thead className="bg-ink-50 text-left text-xs uppercase tracking-wide text-ink-500">
               <tr><th scope="col" className="px-3 py-2">Point</th><th scope="col" className="px-3 py-2">Probe</th><th scope="col" className="px-3 py-2">Time</th><th scope="col" className="px-3 py-2">Before ({label})</th><th scope="col" className="px-3 py-2">After ({label})</th></tr>

@@ -3,7 +3,7 @@ import type { ImportProblem, ImportWarning } from '@shared/schemas/imports';
 /** A rejected file's problems, each with the line and column to fix. */
 export function ImportErrorsTable({ errors, filename }: { errors: ImportProblem[]; filename: string }) {
   return (
-    <div className="relative overflow-x-auto rounded-lg ring-1 ring-short-100">
+    <div className="scroll-x rounded-lg ring-1 ring-short-100">
       <table className="min-w-full text-sm" aria-label={`Problems in ${filename}`}>
         <caption className="bg-short-50 px-3 py-2 text-left text-sm font-medium text-short-700">
           {filename} was not imported: nothing from it was stored. Fix these lines and upload it again.

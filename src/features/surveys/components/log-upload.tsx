@@ -129,7 +129,7 @@ function PlacedByTime({ result, timeZone }: { result: MarkMatchingResult; timeZo
         {result.matched.length} burst{result.matched.length === 1 ? '' : 's'} placed by time on marks (window ±{result.windowS} s, clock offset {signed(result.clockOffsetS)}); {result.unplaced.length} left without a place; {result.marksWithoutBurst.length} mark{result.marksWithoutBurst.length === 1 ? '' : 's'} without a burst.
       </p>
       {result.matched.length > 0 && (
-        <div className="relative overflow-x-auto">
+        <div className="scroll-x">
           <table className="min-w-full text-left">
             <caption className="sr-only">Bursts placed on marks</caption>
             <thead><tr><th className="pr-3">Point</th><th className="pr-3">Mark</th><th className="pr-3">Burst (meter + offset)</th><th className="pr-3">Apart</th><th>Probe</th></tr></thead>

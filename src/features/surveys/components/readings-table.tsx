@@ -83,7 +83,7 @@ export function ReadingsTable({ surveyId, timeZone }: { surveyId: number; timeZo
       {first.isPending ? <Spinner label="Loading readings…" /> : first.isError ? <ErrorState error={first.error} onRetry={() => first.refetch()} /> : total === 0 ? (
         <EmptyState title={flag || point ? 'No reading matches these filters' : 'No readings yet'}>{flag || point ? 'Clear the filters to see every reading.' : 'Upload a meter log above.'}</EmptyState>
       ) : (
-        <div role="table" aria-label="Readings" aria-rowcount={total} className={narrow ? undefined : 'relative overflow-x-auto'}>
+        <div role="table" aria-label="Readings" aria-rowcount={total} className={narrow ? undefined : 'scroll-x'}>
           <div className={narrow ? undefined : 'min-w-[68rem]'} role="presentation">
             <div role="rowgroup">
             {narrow ? (

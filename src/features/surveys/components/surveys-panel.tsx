@@ -58,7 +58,7 @@ export function SurveysPanel({ role, siteId }: { role: Parameters<typeof can>[0]
         <CardHeader title="Surveys" description="Newest first by start date. Open one to upload logs and see its readings." />
         <QueryState query={surveys} isEmpty={(d) => d.items.length === 0} empty={<EmptyState title="No surveys yet" icon={<ClipboardList className="h-6 w-6" />}>Start one below.</EmptyState>}>
           {(d) => (
-            <div className="relative overflow-x-auto">
+            <div className="scroll-x">
               <table className="stack-table min-w-full text-sm">
                 <thead className="bg-ink-50 text-left text-xs uppercase tracking-wide text-ink-500">
                   <tr><th className="px-5 py-2">Survey</th><th className="px-3 py-2">Site</th><th className="px-3 py-2">Status</th><th className="px-3 py-2 text-right">Readings</th><th className="px-3 py-2">Started</th></tr>

@@ -19,7 +19,7 @@ export function TargetLibrary({ items, canEdit }: { items: TargetEntry[]; canEdi
   return (
     <div>
       <div className="px-5 pt-4"><TextField label="Filter" placeholder="use type, name or source" value={filter} onChange={(e) => setFilter(e.target.value)} className="max-w-sm" /></div>
-      <div className="mt-3 relative overflow-x-auto">
+      <div className="mt-3 scroll-x">
         <table className="min-w-full text-sm">
           <caption className="sr-only">Target library</caption>
           <thead className="bg-ink-50 text-left text-xs font-semibold uppercase tracking-wide text-ink-600">

@@ -10,7 +10,7 @@ export function UsersTable({ users, currentUserId, sites }: { users: User[]; cur
   const update = useUpdateUser();
   const resend = useResendInvitation();
   return (
-    <div className="relative overflow-x-auto">
+    <div className="scroll-x">
       <table className="w-full text-left text-sm">
         <caption className="sr-only">Users of your organisation</caption>
         <thead className="border-b border-ink-100 text-xs uppercase tracking-wide text-ink-500">
